@@ -1,0 +1,3 @@
+module finmarch
+
+go 1.26.8
