@@ -51,7 +51,7 @@ func TestBrentErrors(t *testing.T) {
 	if _, err := Brent(func(x float64) float64 { return math.NaN() }, -1, 1, 1e-12, 100); err == nil {
 		t.Error("NaN accepted")
 	}
-	if _, err := Brent(func(x float64) float64 { return math.Tanh(50*(x-0.123456789)) }, 0, 1, 1e-300, 2); !errors.Is(err, ErrNotConverged) {
+	if _, err := Brent(func(x float64) float64 { return math.Tanh(50 * (x - 0.123456789)) }, 0, 1, 1e-300, 2); !errors.Is(err, ErrNotConverged) {
 		t.Errorf("want ErrNotConverged, got %v", err)
 	}
 	if x, err := Brent(func(x float64) float64 { return x }, 0, 1, 1e-12, 10); err != nil || x != 0 {

@@ -1,0 +1,529 @@
+package airflow
+
+import (
+	"errors"
+	"fmt"
+	"math"
+
+	"finmarch/airflow/roots"
+	"finmarch/fins"
+	"finmarch/fins/validity"
+	"finmarch/materials"
+)
+
+// Model constants with their sources.
+const (
+	// DefaultSegments is the number of march segments per air path.
+	DefaultSegments = 40
+	// DefaultEntryLoss is the loss coefficient of the sharp-edged passage
+	// entry, in velocity heads of the passage (Idelchik, Handbook of
+	// Hydraulic Resistance, 3rd ed. 1994, Diagram 3-1: 0.5 for a
+	// sharp-edged inlet; from memory).
+	DefaultEntryLoss = 0.5
+	// DefaultExitLoss is the kinetic energy of the passage flow lost at
+	// the exit, one velocity head (Borda-Carnot into open air; Idelchik
+	// 1994, Diagram 4-1; from memory).
+	DefaultExitLoss = 1.0
+	// DefaultRecovery is the share of the road speed's dynamic pressure
+	// available across the fin passages of an uncowled cylinder, 0.5
+	// (common practice; it lumps the blockage of frame, tank and legs and
+	// should be calibrated against a measured head temperature).
+	DefaultRecovery = 0.5
+	// SaneWallLimit is the highest wall temperature the balance searches,
+	// 500 C: aluminium heads are long past their limits there.
+	SaneWallLimit = 773.15
+)
+
+// FinSet is one fin set with its material and finish.
+type FinSet struct {
+	Name       string // "head" or "barrel"
+	Set        fins.Set
+	Alloy      materials.Alloy
+	Emissivity float64 // -, of the finish
+}
+
+// Case is one cylinder in one operating condition.
+type Case struct {
+	Tilt      float64 // rad, cylinder axis from vertical: 0 upright, pi/2 laid over
+	Head      FinSet
+	Barrel    FinSet
+	Speed     float64 // m/s, road speed (air speed relative to the cylinder)
+	Recovery  float64 // -, share of the dynamic pressure available across the fins
+	Ambient   float64 // K
+	Pressure  float64 // Pa
+	Segments  int     // march segments per path; 0 means DefaultSegments
+	FixedH    float64 // W/(m2 K), a measured forced-convection coefficient; 0 uses the correlations
+	EntryLoss float64 // passage entry loss coefficient; 0 means DefaultEntryLoss
+	ExitLoss  float64 // passage exit loss coefficient; 0 means DefaultExitLoss
+}
+
+// Segment is one step of the march along an air path. Heat and areas are
+// totals over all parallel paths of the set.
+type Segment struct {
+	X       float64 `json:"x_m"`       // m, path position at the segment's end
+	AirIn   float64 `json:"air_in_K"`  // K
+	AirOut  float64 `json:"air_out_K"` // K
+	H       float64 `json:"h_W_m2K"`   // W/(m2 K), forced coefficient, segment mean
+	FinEff  float64 `json:"fin_eff"`   // -, fin efficiency at that h
+	Flux    float64 `json:"flux_W_m2"` // W/m2 of finned surface (fins + base)
+	Heat    float64 `json:"heat_W"`    // W
+	Reynold float64 `json:"reynolds"`  // Reynolds number on the plate hydraulic diameter
+}
+
+// Path says how air reaches a fin set.
+type Path struct {
+	Component   float64 // m/s, road-speed component along the fin passages
+	Paths       int     // parallel air paths through the set
+	Length      float64 // m, one path
+	FlowArea    float64 // m2, one path's cross-section
+	Dh          float64 // m, parallel-plate hydraulic diameter 2 s
+	AreaPerPath float64 // m2, finned surface served by one path
+	Series      bool    // true when the set sits on the head-then-barrel path
+}
+
+// SetResult is the outcome for one fin set.
+type SetResult struct {
+	Name              string    `json:"name"`
+	Style             string    `json:"style"`
+	HeatLoad          float64   `json:"heat_load_W"`
+	HeatRejected      float64   `json:"heat_rejected_W"`
+	ForcedHeat        float64   `json:"forced_heat_W"`
+	NaturalHeat       float64   `json:"natural_heat_W"`
+	ConvectionHeat    float64   `json:"convection_heat_W"`
+	RadiationHeat     float64   `json:"radiation_heat_W"`
+	WallTemp          float64   `json:"wall_temperature_K"`
+	MeanH             float64   `json:"mean_h_W_m2K"`
+	NaturalH          float64   `json:"natural_h_W_m2K"`
+	FinEfficiency     float64   `json:"fin_efficiency"`
+	SurfaceEfficiency float64   `json:"surface_efficiency"`
+	AirIn             float64   `json:"air_inlet_K"`
+	AirOut            float64   `json:"air_outlet_K"`
+	PassageVelocity   float64   `json:"passage_velocity_m_s"`
+	ApproachComponent float64   `json:"approach_component_m_s"`
+	Reynolds          float64   `json:"reynolds"`
+	Regime            string    `json:"regime"`
+	Paths             int       `json:"paths"`
+	PathLength        float64   `json:"path_length_m"`
+	Series            bool      `json:"series_path"`
+	FinArea           float64   `json:"fin_area_m2"`
+	TotalArea         float64   `json:"total_area_m2"`
+	FinMass           float64   `json:"fin_mass_kg"`
+	EnergyImbalance   float64   `json:"energy_imbalance"`
+	March             []Segment `json:"march"`
+}
+
+// Result is the outcome for one cylinder.
+type Result struct {
+	Head      SetResult          `json:"head"`
+	Barrel    SetResult          `json:"barrel"`
+	Warnings  []validity.Warning `json:"warnings"`
+	Ambient   float64            `json:"ambient_K"`
+	Pressure  float64            `json:"pressure_Pa"`
+	Speed     float64            `json:"speed_m_s"`
+	TiltDeg   float64            `json:"tilt_deg"`
+	MaxImbal  float64            `json:"energy_imbalance_max"`
+	Converged bool               `json:"converged"`
+}
+
+// ErrNoEquilibrium is wrapped by Balance when the fins cannot reject the
+// load at any wall temperature up to SaneWallLimit.
+var ErrNoEquilibrium = errors.New("no equilibrium")
+
+type prepared struct {
+	c            Case
+	hg, bg       fins.Geometry
+	hp, bp       Path
+	hm, bm       float64 // mass flow per path, kg/s
+	hvel, bvel   float64 // passage velocity at inlet density, m/s
+	n            int
+	amb          Air
+	log          *validity.Log
+	kin, kout    float64
+	seriesActive bool
+}
+
+func (c Case) validate() error {
+	switch {
+	case !(c.Tilt >= 0 && c.Tilt <= math.Pi/2+1e-12):
+		return fmt.Errorf("tilt %g deg outside 0 to 90", c.Tilt*180/math.Pi)
+	case !(c.Speed >= 0 && c.Speed <= 150):
+		return fmt.Errorf("speed %g m/s outside 0 to 150", c.Speed)
+	case !(c.Recovery > 0 && c.Recovery <= 1):
+		return fmt.Errorf("pressure recovery %g outside 0 (exclusive) to 1", c.Recovery)
+	case !(c.Ambient > 200 && c.Ambient < 350):
+		return fmt.Errorf("ambient %g K outside 200 to 350 K", c.Ambient)
+	case !(c.Pressure > 2e4 && c.Pressure < 1.2e5):
+		return fmt.Errorf("pressure %g Pa outside 20 to 120 kPa", c.Pressure)
+	case c.Segments < 0 || c.Segments > 100000:
+		return fmt.Errorf("segments %d outside 1 to 100000", c.Segments)
+	case !(c.FixedH >= 0 && c.FixedH < 1e4):
+		return fmt.Errorf("fixed h %g W/(m2 K) outside 0 to 10000", c.FixedH)
+	}
+	for _, s := range []FinSet{c.Head, c.Barrel} {
+		if !(s.Emissivity > 0 && s.Emissivity <= 1) {
+			return fmt.Errorf("%s: emissivity %g outside 0 to 1", s.Name, s.Emissivity)
+		}
+		if !(s.Alloy.K300 > 0) || !(s.Alloy.Density > 0) {
+			return fmt.Errorf("%s: alloy %q has no conductivity or density", s.Name, s.Alloy.Name)
+		}
+	}
+	return nil
+}
+
+func (c Case) prepare(log *validity.Log) (*prepared, error) {
+	if err := c.validate(); err != nil {
+		return nil, err
+	}
+	p := &prepared{c: c, log: log, n: c.Segments, kin: c.EntryLoss, kout: c.ExitLoss}
+	if p.n == 0 {
+		p.n = DefaultSegments
+	}
+	if p.kin == 0 {
+		p.kin = DefaultEntryLoss
+	}
+	if p.kout == 0 {
+		p.kout = DefaultExitLoss
+	}
+	var err error
+	if p.hg, err = c.Head.Set.Geometry(); err != nil {
+		return nil, fmt.Errorf("head fins: %w", err)
+	}
+	if p.bg, err = c.Barrel.Set.Geometry(); err != nil {
+		return nil, fmt.Errorf("barrel fins: %w", err)
+	}
+	p.amb = Properties(c.Ambient, c.Pressure, log)
+	p.hp = path(c.Head.Set, p.hg, c.Speed, c.Tilt)
+	p.bp = path(c.Barrel.Set, p.bg, c.Speed, c.Tilt)
+	if c.Head.Set.Style == fins.StyleLongitudinal && c.Barrel.Set.Style == fins.StyleLongitudinal {
+		p.hp.Series, p.bp.Series = true, true
+		p.seriesActive = true
+	}
+	q := c.Recovery * 0.5 * p.amb.Rho * c.Speed * c.Speed
+	if p.seriesActive {
+		w, err := p.seriesFlow(q * sq(p.hp.Component/math.Max(c.Speed, 1e-300)))
+		if err != nil {
+			return nil, err
+		}
+		p.hm, p.bm = w/float64(p.hp.Paths), w/float64(p.bp.Paths)
+	} else {
+		var err error
+		if p.hm, err = p.parallelFlow(p.hp, q*sq(p.hp.Component/math.Max(c.Speed, 1e-300))); err != nil {
+			return nil, fmt.Errorf("head passages: %w", err)
+		}
+		if p.bm, err = p.parallelFlow(p.bp, q*sq(p.bp.Component/math.Max(c.Speed, 1e-300))); err != nil {
+			return nil, fmt.Errorf("barrel passages: %w", err)
+		}
+	}
+	p.hvel = p.hm / (p.amb.Rho * p.hp.FlowArea)
+	p.bvel = p.bm / (p.amb.Rho * p.bp.FlowArea)
+	return p, nil
+}
+
+func sq(x float64) float64 { return x * x }
+
+// path applies the orientation model: annular fins take the road-speed
+// component in the fin plane (V cos tilt) and the air runs half the
+// circumference at mid-fin radius on each side, two parallel paths per
+// passage, each fed with ambient air; longitudinal fins take the component
+// along the axis (V sin tilt) over the finned length. The broadside
+// component (hitting the fin faces) is assumed to add nothing: a
+// conservative simplification, stated in the README.
+func path(s fins.Set, g fins.Geometry, v, tilt float64) Path {
+	p := Path{FlowArea: g.PassageArea, Dh: g.PlateDiameter}
+	if s.Style == fins.StyleAnnular {
+		p.Component = v * math.Cos(tilt)
+		p.Paths = 2 * g.Passages
+		p.Length = math.Pi * (s.RootDiameter/2 + s.Height/2)
+	} else {
+		p.Component = v * math.Sin(tilt)
+		p.Paths = g.Passages
+		p.Length = s.Length
+	}
+	p.AreaPerPath = g.TotalArea / float64(p.Paths)
+	return p
+}
+
+// lossCoeff is the friction part 4 f_app L/Dh of a passage at velocity v.
+func (p *prepared) friction(pt Path, v float64) float64 {
+	re := p.amb.Rho * v * pt.Dh / p.amb.Mu
+	if re < 1e-9 {
+		re = 1e-9
+	}
+	cf := Channel(re, p.amb.Pr, pt.Length/pt.Dh, nil)
+	return 4 * cf.Fapp * pt.Length / pt.Dh
+}
+
+// parallelFlow solves the passage velocity at which the available pressure
+// dp (Pa) equals entry + exit + developing-flow friction losses,
+// dp = 0.5 rho V^2 (K_in + K_out + 4 f_app L/Dh), and returns the mass
+// flow per path (kg/s).
+func (p *prepared) parallelFlow(pt Path, dp float64) (float64, error) {
+	if dp <= 0 {
+		return 0, nil
+	}
+	rho := p.amb.Rho
+	g := func(v float64) float64 {
+		return 0.5*rho*v*v*(p.kin+p.kout+p.friction(pt, v)) - dp
+	}
+	vmax := math.Sqrt(2*dp/(rho*(p.kin+p.kout))) * 1.0001
+	v, err := roots.Brent(g, 1e-12, vmax, 1e-10*vmax, 200)
+	if err != nil {
+		return 0, fmt.Errorf("passage velocity: %w", err)
+	}
+	return rho * v * pt.FlowArea, nil
+}
+
+// seriesFlow solves the total mass flow (kg/s) through the head passages
+// and then the barrel passages: entry loss and friction in the head,
+// a Borda-Carnot loss 0.5 rho (V_h - V_b)^2 at the change of passage
+// (Idelchik 1994, from memory), friction and exit loss in the barrel.
+func (p *prepared) seriesFlow(dp float64) (float64, error) {
+	if dp <= 0 {
+		return 0, nil
+	}
+	rho := p.amb.Rho
+	ah := float64(p.hp.Paths) * p.hp.FlowArea
+	ab := float64(p.bp.Paths) * p.bp.FlowArea
+	g := func(w float64) float64 {
+		vh, vb := w/(rho*ah), w/(rho*ab)
+		return 0.5*rho*(vh*vh*(p.kin+p.friction(p.hp, vh))+sq(vh-vb)+vb*vb*(p.kout+p.friction(p.bp, vb))) - dp
+	}
+	wmax := math.Sqrt(2*dp*rho/(p.kin/(ah*ah)+p.kout/(ab*ab))) * 1.0001
+	w, err := roots.Brent(g, 1e-15, wmax, 1e-10*wmax, 200)
+	if err != nil {
+		return 0, fmt.Errorf("series passage flow: %w", err)
+	}
+	return w, nil
+}
+
+// enthalpy returns the specific enthalpy of dry air (J/kg) relative to 0 K
+// from the integral of the Cengel cp cubic used by Properties.
+func enthalpy(T float64) float64 {
+	return 1000 * T * (28.11 + T*(0.1967e-2/2+T*(0.4802e-5/3-T*1.966e-9/4))) / MolarMassAir
+}
+
+type marchOut struct {
+	q, qMetal, tOut float64
+	hA, etaA, area  float64 // area-weighted sums
+	re              float64
+	regime          string
+	seg             []Segment
+}
+
+// march steps one air path of a set at wall temperature tw (K) from inlet
+// temperature tin (K) with mass flow mdot (kg/s) per path. In each of n
+// segments it takes film properties at the mean of wall and local air
+// temperature, the segment-mean forced coefficient from the developing-flow
+// correlation as d(x h_m(x))/dx between the segment ends, the fin
+// efficiency at that h, and the exact exponential pick-up of heat,
+// T_out = T_w - (T_w - T_in) exp(-NTU), NTU = eta_o h A / (mdot cp), with
+// cp the mean over the segment's temperature rise.
+func (p *prepared) march(fs FinSet, g fins.Geometry, pt Path, tw, tin, mdot float64, keep bool) marchOut {
+	var out marchOut
+	out.tOut = tin
+	if mdot <= 0 {
+		return out
+	}
+	n := p.n
+	dx := pt.Length / float64(n)
+	aSeg := pt.AreaPerPath / float64(n)
+	k := fs.Alloy.Conductivity(tw)
+	paths := float64(pt.Paths)
+	if keep {
+		out.seg = make([]Segment, 0, n)
+	}
+	t := tin
+	prevXNu := 0.0
+	for i := 1; i <= n; i++ {
+		air := Properties(0.5*(tw+t), p.c.Pressure, p.log)
+		re := mdot / pt.FlowArea * pt.Dh / air.Mu
+		x := float64(i) * dx
+		var h float64
+		if p.c.FixedH > 0 {
+			h = p.c.FixedH
+		} else {
+			cf := Channel(re, air.Pr, x/pt.Dh, p.log)
+			xNu := x * cf.Nu
+			// the previous end with the same properties, for d(x Nu)/dx
+			if i > 1 {
+				prevXNu = (x - dx) * Channel(re, air.Pr, (x-dx)/pt.Dh, nil).Nu
+			} else {
+				prevXNu = 0
+			}
+			h = (xNu - prevXNu) / dx * air.K / pt.Dh
+			if i == n {
+				out.regime = cf.Regime
+			}
+		}
+		etaF := fs.Set.FinEfficiency(g, h, k, p.log)
+		etaO := g.SurfaceEfficiency(etaF)
+		ua := etaO * h * aSeg
+		cp := air.Cp
+		var tOut, ntu float64
+		for it := 0; it < 4; it++ {
+			ntu = ua / (mdot * cp)
+			tOut = tw - (tw-t)*math.Exp(-ntu)
+			if math.Abs(tOut-t) > 1e-9 {
+				cp = (enthalpy(tOut) - enthalpy(t)) / (tOut - t)
+			}
+		}
+		qAir := mdot * (enthalpy(tOut) - enthalpy(t))
+		// metal side: UA times the exact mean driving difference of the segment
+		var qMetal float64
+		if ntu > 1e-12 {
+			qMetal = ua * (tw - t) * (-math.Expm1(-ntu)) / ntu
+		} else {
+			qMetal = ua * (tw - t)
+		}
+		out.q += qAir * paths
+		out.qMetal += qMetal * paths
+		out.hA += h * aSeg * paths
+		out.etaA += etaF * aSeg * paths
+		out.area += aSeg * paths
+		out.re = re
+		if keep {
+			out.seg = append(out.seg, Segment{X: x, AirIn: t, AirOut: tOut, H: h, FinEff: etaF,
+				Flux: qAir / aSeg, Heat: qAir * paths, Reynold: re})
+		}
+		t = tOut
+	}
+	if p.c.FixedH > 0 {
+		out.regime = "fixed h"
+	}
+	out.tOut = t
+	return out
+}
+
+// natural returns the natural-convection heat (W) and coefficient of a set
+// at wall temperature tw: the passages are treated as vertical channels of
+// height equal to the tip diameter (annular) or the finned length
+// (longitudinal) by Bar-Cohen & Rohsenow (1984), with the fin efficiency
+// at that h. Orientation effects on free convection are not modelled.
+func (p *prepared) natural(fs FinSet, g fins.Geometry, tw float64) (float64, float64, float64) {
+	dT := tw - p.c.Ambient
+	if dT <= 0 {
+		return 0, 0, 1
+	}
+	air := Properties(0.5*(tw+p.c.Ambient), p.c.Pressure, p.log)
+	L := g.TipDiameter
+	if fs.Set.Style == fins.StyleLongitudinal {
+		L = fs.Set.Length
+	}
+	s := g.GapMean
+	el := Rayleigh(air, s, dT) * s / L
+	h := VerticalChannelNaturalNu(el, p.log) * air.K / s
+	eta := fs.Set.FinEfficiency(g, h, fs.Alloy.Conductivity(tw), p.log)
+	return h * g.SurfaceEfficiency(eta) * g.TotalArea * dT, h, eta
+}
+
+// setHeat evaluates one fin set at wall temperature tw with air entering
+// at tin: forced march, natural convection combined as
+// Q^3 = Q_F^3 + Q_N^3 (Churchill 1977), and radiation from the envelope at
+// the mean fin surface temperature T_a + eta_o (T_w - T_a) to surroundings
+// at ambient (Incropera 6th ed. Eq. 1.7).
+func (p *prepared) setHeat(fs FinSet, g fins.Geometry, pt Path, tw, tin, mdot float64, keep bool) (SetResult, marchOut) {
+	m := p.march(fs, g, pt, tw, tin, mdot, keep)
+	qn, hn, etaN := p.natural(fs, g, tw)
+	qc := math.Cbrt(m.q*m.q*m.q + qn*qn*qn)
+	r := SetResult{Name: fs.Name, Style: fs.Set.Style.String(), WallTemp: tw, AirIn: tin, AirOut: m.tOut,
+		ForcedHeat: m.q, NaturalHeat: qn, ConvectionHeat: qc, NaturalH: hn, Paths: pt.Paths, PathLength: pt.Length,
+		Series: pt.Series, FinArea: g.FinArea, TotalArea: g.TotalArea, FinMass: g.FinVolume * fs.Alloy.Density,
+		ApproachComponent: pt.Component, Reynolds: m.re, Regime: m.regime, March: m.seg}
+	if m.area > 0 {
+		r.MeanH = m.hA / m.area
+		r.FinEfficiency = m.etaA / m.area
+	} else {
+		r.MeanH, r.FinEfficiency, r.Regime = hn, etaN, "natural only"
+	}
+	r.SurfaceEfficiency = g.SurfaceEfficiency(r.FinEfficiency)
+	ts := p.c.Ambient + r.SurfaceEfficiency*(tw-p.c.Ambient)
+	r.RadiationHeat = fs.Emissivity * Sigma * g.EnvelopeArea * (ts*ts*ts*ts - math.Pow(p.c.Ambient, 4))
+	r.HeatRejected = qc + r.RadiationHeat
+	if m.q > 0 {
+		r.EnergyImbalance = math.Abs(m.qMetal-m.q) / m.q
+	}
+	return r, m
+}
+
+// AtWall evaluates the case with both wall temperatures fixed (K): how much
+// heat each set rejects.
+func (c Case) AtWall(headT, barrelT float64) (Result, error) {
+	var log validity.Log
+	p, err := c.prepare(&log)
+	if err != nil {
+		return Result{}, err
+	}
+	for _, t := range []float64{headT, barrelT} {
+		if !(t > c.Ambient && t < 1000) {
+			return Result{}, fmt.Errorf("wall temperature %g K must lie between ambient (%g K) and 1000 K", t, c.Ambient)
+		}
+	}
+	hr, hm := p.setHeat(c.Head, p.hg, p.hp, headT, c.Ambient, p.hm, true)
+	tin := c.Ambient
+	if p.seriesActive {
+		tin = hm.tOut
+	}
+	br, _ := p.setHeat(c.Barrel, p.bg, p.bp, barrelT, tin, p.bm, true)
+	return p.result(hr, br, &log, true), nil
+}
+
+func (p *prepared) result(hr, br SetResult, log *validity.Log, conv bool) Result {
+	hr.PassageVelocity, br.PassageVelocity = p.hvel, p.bvel
+	r := Result{Head: hr, Barrel: br, Ambient: p.c.Ambient, Pressure: p.c.Pressure, Speed: p.c.Speed,
+		TiltDeg: p.c.Tilt * 180 / math.Pi, Converged: conv}
+	r.MaxImbal = math.Max(hr.EnergyImbalance, br.EnergyImbalance)
+	r.Warnings = log.Warnings()
+	return r
+}
+
+// Balance finds the wall temperatures of head and barrel at which the heat
+// each set rejects equals its load (W), by Brent's method on the wall
+// temperature between ambient and SaneWallLimit. The head is solved first:
+// on a series path its outlet air is the barrel's inlet air. When a set
+// cannot reject its load below SaneWallLimit the error wraps
+// ErrNoEquilibrium and says what to change.
+func (c Case) Balance(load HeatLoad) (Result, error) {
+	var log validity.Log
+	p, err := c.prepare(&log)
+	if err != nil {
+		return Result{}, err
+	}
+	if !(load.Head >= 0) || !(load.Barrel >= 0) || math.IsInf(load.Head, 0) || math.IsInf(load.Barrel, 0) {
+		return Result{}, fmt.Errorf("heat load must be finite and not negative (head %g W, barrel %g W)", load.Head, load.Barrel)
+	}
+	solve := func(fs FinSet, g fins.Geometry, pt Path, tin, mdot, q float64) (SetResult, marchOut, error) {
+		if q == 0 {
+			r, m := p.setHeat(fs, g, pt, c.Ambient+1e-9, tin, mdot, true)
+			return r, m, nil
+		}
+		f := func(tw float64) float64 {
+			r, _ := p.setHeat(fs, g, pt, tw, tin, mdot, false)
+			return r.HeatRejected - q
+		}
+		lo := math.Max(c.Ambient, tin) + 1e-6
+		if top := f(SaneWallLimit); top < 0 {
+			r, m := p.setHeat(fs, g, pt, SaneWallLimit, tin, mdot, true)
+			r.HeatLoad = q
+			return r, m, fmt.Errorf("%w for the %s fins: at %.0f C wall temperature they reject only %.0f W of the %.0f W load; add fin area, raise the air speed or pressure recovery, or lower the heat load",
+				ErrNoEquilibrium, fs.Name, SaneWallLimit-273.15, r.HeatRejected, q)
+		}
+		tw, err := roots.Brent(f, lo, SaneWallLimit, 1e-7, 200)
+		if err != nil {
+			return SetResult{}, marchOut{}, fmt.Errorf("%s wall temperature: %w", fs.Name, err)
+		}
+		r, m := p.setHeat(fs, g, pt, tw, tin, mdot, true)
+		r.HeatLoad = q
+		return r, m, nil
+	}
+	hr, hm, errH := solve(c.Head, p.hg, p.hp, c.Ambient, p.hm, load.Head)
+	tin := c.Ambient
+	if p.seriesActive {
+		tin = hm.tOut
+	}
+	br, _, errB := solve(c.Barrel, p.bg, p.bp, tin, p.bm, load.Barrel)
+	res := p.result(hr, br, &log, errH == nil && errB == nil)
+	if errH != nil {
+		return res, errH
+	}
+	return res, errB
+}

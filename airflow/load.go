@@ -1,0 +1,97 @@
+package airflow
+
+import (
+	"fmt"
+	"math"
+)
+
+// RoadLoad describes a vehicle at steady cruise, for the heat the engine
+// must reject. SI units.
+type RoadLoad struct {
+	Mass        float64 // kg, vehicle with rider and load
+	CdA         float64 // m2, drag area
+	Crr         float64 // rolling-resistance coefficient, -
+	Driveline   float64 // drivetrain efficiency, wheel power / brake power, -
+	Thermal     float64 // brake thermal efficiency, brake power / fuel power, -
+	CoolShare   float64 // share of fuel power rejected through the fins, -
+	Cylinders   int     // number of cylinders sharing the load
+	HeadShare   float64 // share of one cylinder's fin heat through the head fins, -
+	GradePct    float64 // road grade, per cent (0 on the level)
+	ExtraPowerW float64 // W at the wheel, e.g. a towed load or headwind allowance
+}
+
+// Road-load defaults with their sources.
+const (
+	// DefaultDriveline: a chain or belt final drive with gearbox, 0.90
+	// (common practice).
+	DefaultDriveline = 0.90
+	// DefaultThermal: brake thermal efficiency of a small air-cooled
+	// spark-ignition engine at part-load cruise, 0.25 (Heywood, Internal
+	// Combustion Engine Fundamentals, 1988, Ch. 15, part-load brake
+	// efficiency of small SI engines about 20-30%; from memory).
+	DefaultThermal = 0.25
+	// DefaultCoolShare: share of fuel energy to the cooling system of an SI
+	// engine, 0.22 (Heywood 1988, Table 12.1: 17-26%; from memory).
+	DefaultCoolShare = 0.22
+	// DefaultHeadShare: share of a cylinder's rejected heat through the
+	// head, 0.65 (common practice: about two thirds passes through the
+	// head and the top of the barrel; Heywood 1988 Sec. 12.1 describes the
+	// combustion-chamber surfaces as the main path).
+	DefaultHeadShare = 0.65
+	// DefaultCrr: a motorcycle tyre on asphalt, 0.02 (common practice).
+	DefaultCrr = 0.02
+)
+
+// HeatLoad is the heat each fin set of one cylinder must reject.
+type HeatLoad struct {
+	Head, Barrel float64 // W
+	WheelPower   float64 // W at the wheel (0 when given directly)
+	BrakePower   float64 // W at the crank (0 when given directly)
+	FuelPower    float64 // W (0 when given directly)
+}
+
+// Heat returns the heat load per fin set at road speed v (m/s) and air
+// density rho (kg/m3):
+//
+//	P_wheel = (0.5 rho CdA v^2 + Crr m g cos(a) + m g sin(a)) v + extra
+//	P_brake = P_wheel / driveline,  P_fuel = P_brake / thermal
+//	Q_fins  = CoolShare P_fuel / cylinders, split HeadShare : 1 - HeadShare
+//
+// (road-load equation, e.g. Gillespie, Fundamentals of Vehicle Dynamics,
+// 1992, Ch. 4). At v = 0 the wheel power is zero and the engine is taken
+// at idle; give an idle load directly instead.
+func (r RoadLoad) Heat(v, rho float64) (HeatLoad, error) {
+	if err := r.check(); err != nil {
+		return HeatLoad{}, err
+	}
+	a := math.Atan(r.GradePct / 100)
+	pw := (0.5*rho*r.CdA*v*v+r.Crr*r.Mass*G0*math.Cos(a)+r.Mass*G0*math.Sin(a))*v + r.ExtraPowerW
+	if pw < 0 {
+		pw = 0 // coasting downhill: no load from the road
+	}
+	pb := pw / r.Driveline
+	pf := pb / r.Thermal
+	q := r.CoolShare * pf / float64(r.Cylinders)
+	return HeatLoad{Head: r.HeadShare * q, Barrel: (1 - r.HeadShare) * q, WheelPower: pw, BrakePower: pb, FuelPower: pf}, nil
+}
+
+func (r RoadLoad) check() error {
+	for _, c := range []struct {
+		k      string
+		v      float64
+		lo, hi float64
+	}{
+		{"mass", r.Mass, 1, 50000}, {"cda", r.CdA, 0.01, 20}, {"rolling_resistance", r.Crr, 0, 0.5},
+		{"driveline_efficiency", r.Driveline, 0.3, 1}, {"thermal_efficiency", r.Thermal, 0.05, 0.6},
+		{"cooling_share", r.CoolShare, 0.01, 0.9}, {"head_share", r.HeadShare, 0, 1}, {"grade", r.GradePct, -30, 30},
+		{"extra_power", r.ExtraPowerW, 0, 1e6},
+	} {
+		if math.IsNaN(c.v) || c.v < c.lo || c.v > c.hi {
+			return fmt.Errorf("road load: %s = %g outside %g to %g", c.k, c.v, c.lo, c.hi)
+		}
+	}
+	if r.Cylinders < 1 || r.Cylinders > 32 {
+		return fmt.Errorf("road load: cylinders = %d outside 1 to 32", r.Cylinders)
+	}
+	return nil
+}
