@@ -496,8 +496,13 @@ func (c Case) Balance(load HeatLoad) (Result, error) {
 			r, m := p.setHeat(fs, g, pt, c.Ambient+1e-9, tin, mdot, true)
 			return r, m, nil
 		}
+		// the search must not record range warnings for trial wall
+		// temperatures the answer never takes; the final call does
 		f := func(tw float64) float64 {
+			keep := p.log
+			p.log = nil
 			r, _ := p.setHeat(fs, g, pt, tw, tin, mdot, false)
+			p.log = keep
 			return r.HeatRejected - q
 		}
 		lo := math.Max(c.Ambient, tin) + 1e-6

@@ -197,3 +197,38 @@ func (g Geometry) SurfaceEfficiency(etaFin float64) float64 {
 	}
 	return 1 - g.FinArea/g.TotalArea*(1-etaFin)
 }
+
+// Restyle returns the set laid the other way at the same fin height,
+// thicknesses, root diameter, length and mean clear gap (so the same fin
+// density as the air sees it): annular fins are stacked along the length
+// at pitch gap + mean thickness; longitudinal fins go round the full
+// circumference with the mean gap at mid-height. The count is as many as
+// fit, at least one.
+func (s Set) Restyle(style Style) (Set, error) {
+	g, err := s.Geometry()
+	if err != nil {
+		return Set{}, err
+	}
+	if style == s.Style {
+		return s, nil
+	}
+	out := s
+	out.Style = style
+	tm := (s.RootThickness + s.TipThickness) / 2
+	mid := g.GapMean + tm
+	switch style {
+	case StyleAnnular:
+		out.Pitch = mid
+		out.Count = max(1, int(math.Floor((s.Length-s.RootThickness)/mid+1e-9))+1)
+	case StyleLongitudinal:
+		r1 := s.RootDiameter / 2
+		rootPitch := mid * r1 / (r1 + s.Height/2)
+		circ := math.Pi * s.RootDiameter
+		out.Count = max(1, int(math.Floor(circ/rootPitch+1e-9)))
+		out.Pitch = circ / float64(out.Count)
+	}
+	if _, err := out.Geometry(); err != nil {
+		return Set{}, err
+	}
+	return out, nil
+}

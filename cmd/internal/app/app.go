@@ -1,0 +1,257 @@
+// Package app is the finmarch command line: subcommands, flags, exit codes,
+// and the glue from design files through the physics to the output.
+package app
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"finmarch/airflow"
+	"finmarch/cmd/internal/design"
+	"finmarch/cmd/internal/output"
+)
+
+// Exit codes.
+const (
+	ExitOK       = 0 // success
+	ExitModel    = 1 // the model found no equilibrium or a solver failed
+	ExitUsage    = 2 // bad command line
+	ExitDesign   = 3 // the design file has errors
+	ExitStrict   = 4 // --strict and a correlation was used outside its range
+	ExitIO       = 5 // a file could not be read or written, or would be overwritten
+	ExitInternal = 6 // a bug: please report it
+)
+
+// exitError carries an exit code with the message.
+type exitError struct {
+	code int
+	err  error
+}
+
+func (e *exitError) Error() string { return e.err.Error() }
+func (e *exitError) Unwrap() error { return e.err }
+
+func fail(code int, err error) error { return &exitError{code: code, err: err} }
+
+type options struct {
+	format   string
+	units    string
+	segments int
+	out      string
+	force    bool
+	quiet    bool
+	strict   bool
+}
+
+type env struct {
+	stdout, stderr io.Writer
+	opt            *options
+}
+
+// Run executes finmarch with args and returns the exit code.
+func Run(args []string, stdout, stderr io.Writer) (code int) {
+	defer func() {
+		if r := recover(); r != nil {
+			fmt.Fprintf(stderr, "finmarch: internal error: %v\nThis is a bug; please report it with the design file.\n", r)
+			code = ExitInternal
+		}
+	}()
+	e := &env{stdout: stdout, stderr: stderr, opt: &options{}}
+	root := e.rootCmd()
+	root.SetArgs(args)
+	root.SetOut(stdout)
+	root.SetErr(stderr)
+	err := root.Execute()
+	if err == nil {
+		return ExitOK
+	}
+	var ee *exitError
+	if errors.As(err, &ee) {
+		fmt.Fprintf(stderr, "finmarch: %v\n", ee.err)
+		return ee.code
+	}
+	fmt.Fprintf(stderr, "finmarch: %v\nRun 'finmarch --help' for the commands.\n", err)
+	return ExitUsage
+}
+
+func (e *env) rootCmd() *cobra.Command {
+	root := &cobra.Command{
+		Use:   "finmarch",
+		Short: "Estimate how well the fins of an air-cooled cylinder cool it",
+		Long: `finmarch estimates the head and barrel temperatures of an air-cooled cylinder
+from its fins, the cooling air and the heat load, by published fin-efficiency
+and convection correlations and a march of the cooling-air temperature along
+the fin passages. With no command it runs the built-in demo: one cylinder,
+upright with annular fins against laid over with longitudinal fins.`,
+		SilenceUsage:  true,
+		SilenceErrors: true,
+		Args:          cobra.NoArgs,
+		RunE: func(c *cobra.Command, _ []string) error {
+			return e.runDemo()
+		},
+	}
+	pf := root.PersistentFlags()
+	pf.StringVarP(&e.opt.format, "format", "f", "table", "output format: table, markdown, csv or json")
+	pf.StringVarP(&e.opt.units, "units", "u", "metric", "display units: metric or us")
+	pf.IntVar(&e.opt.segments, "segments", 0, "march segments per air path (overrides the design; default 40)")
+	pf.StringVarP(&e.opt.out, "output", "o", "", "write the result to this file instead of standard output")
+	pf.BoolVar(&e.opt.force, "force", false, "allow --output (and new) to replace an existing file")
+	pf.BoolVarP(&e.opt.quiet, "quiet", "q", false, "do not print warnings on standard error")
+	pf.BoolVar(&e.opt.strict, "strict", false, "treat a correlation used outside its validity range as an error (exit 4)")
+	_ = root.RegisterFlagCompletionFunc("format", func(*cobra.Command, []string, string) ([]string, cobra.ShellCompDirective) {
+		return []string{"table", "markdown", "csv", "json"}, cobra.ShellCompDirectiveNoFileComp
+	})
+	_ = root.RegisterFlagCompletionFunc("units", func(*cobra.Command, []string, string) ([]string, cobra.ShellCompDirective) {
+		return []string{"metric", "us"}, cobra.ShellCompDirectiveNoFileComp
+	})
+	root.AddCommand(e.demoCmd(), e.estimateCmd(), e.compareCmd(), e.tiltCmd(), e.marchCmd(), e.speedsCmd(),
+		e.finCmd(), e.alloysCmd(), e.newCmd())
+	return root
+}
+
+func tomlArgs(_ *cobra.Command, _ []string, _ string) ([]string, cobra.ShellCompDirective) {
+	return []string{"toml"}, cobra.ShellCompDirectiveFilterFileExt
+}
+
+// load reads and checks a design file.
+func (e *env) load(path string) (*design.Design, error) {
+	src, err := os.ReadFile(path)
+	if err != nil {
+		return nil, fail(ExitIO, fmt.Errorf("cannot read the design: %w", err))
+	}
+	return e.parse(src, path)
+}
+
+func (e *env) parse(src []byte, name string) (*design.Design, error) {
+	d, err := design.Parse(src, name)
+	if err != nil {
+		return nil, fail(ExitDesign, err)
+	}
+	if e.opt.segments != 0 {
+		if e.opt.segments < 1 || e.opt.segments > 10000 {
+			return nil, fail(ExitUsage, fmt.Errorf("--segments %d: allowed 1 to 10000", e.opt.segments))
+		}
+		d.Case.Segments = e.opt.segments
+	}
+	return d, nil
+}
+
+func (e *env) settings() (output.Format, output.Units, error) {
+	f, err := output.ParseFormat(e.opt.format)
+	if err != nil {
+		return "", output.Units{}, fail(ExitUsage, err)
+	}
+	u, err := output.ParseUnits(e.opt.units)
+	if err != nil {
+		return "", output.Units{}, fail(ExitUsage, err)
+	}
+	return f, u, nil
+}
+
+// emit writes the document to stdout or the --output file, prints the
+// warnings on stderr, and applies --strict.
+func (e *env) emit(doc output.Doc) error {
+	f, _, err := e.settings()
+	if err != nil {
+		return err
+	}
+	var buf bytes.Buffer
+	if err := output.Write(&buf, doc, f); err != nil {
+		return fail(ExitInternal, fmt.Errorf("rendering the output: %w", err))
+	}
+	if e.opt.strict && len(doc.Warnings) > 0 {
+		for _, w := range doc.Warnings {
+			fmt.Fprintf(e.stderr, "warning: %s\n", w)
+		}
+		return fail(ExitStrict, fmt.Errorf("--strict: %d correlation range warning(s); no output written", len(doc.Warnings)))
+	}
+	if !e.opt.quiet {
+		for _, w := range doc.Warnings {
+			fmt.Fprintf(e.stderr, "warning: %s\n", w)
+		}
+		if doc.Caution && f == output.CSV {
+			fmt.Fprintln(e.stderr, output.Caution)
+		}
+	}
+	if e.opt.out == "" {
+		_, err := e.stdout.Write(buf.Bytes())
+		return err
+	}
+	return writeFile(e.opt.out, buf.Bytes(), e.opt.force)
+}
+
+// writeFile writes data to path through a temporary file in the same
+// folder and a rename, so that a failed run leaves no half-written file,
+// and refuses to replace an existing file unless force is set.
+func writeFile(path string, data []byte, force bool) error {
+	if !force {
+		if _, err := os.Stat(path); err == nil {
+			return fail(ExitIO, fmt.Errorf("%s already exists; add --force to replace it", path))
+		}
+	}
+	dir := filepath.Dir(path)
+	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp-*")
+	if err != nil {
+		return fail(ExitIO, fmt.Errorf("cannot write %s: %w", path, err))
+	}
+	name := tmp.Name()
+	_, werr := tmp.Write(data)
+	cerr := tmp.Close()
+	if werr != nil || cerr != nil {
+		os.Remove(name)
+		return fail(ExitIO, fmt.Errorf("cannot write %s: %v", path, errors.Join(werr, cerr)))
+	}
+	if !force {
+		// a link fails when the target appeared meanwhile, unlike a rename
+		if err := os.Link(name, path); err != nil {
+			os.Remove(name)
+			if os.IsExist(err) {
+				return fail(ExitIO, fmt.Errorf("%s already exists; add --force to replace it", path))
+			}
+			return fail(ExitIO, fmt.Errorf("cannot write %s: %w", path, err))
+		}
+		os.Remove(name)
+		return nil
+	}
+	if err := os.Rename(name, path); err != nil {
+		os.Remove(name)
+		return fail(ExitIO, fmt.Errorf("cannot write %s: %w", path, err))
+	}
+	return nil
+}
+
+// modelError maps a physics error to an exit error with advice.
+func modelError(name string, err error) error {
+	if errors.Is(err, airflow.ErrNoEquilibrium) {
+		return fail(ExitModel, fmt.Errorf("%s: %w", name, err))
+	}
+	return fail(ExitModel, fmt.Errorf("%s: the model failed: %w", name, err))
+}
+
+func warningsOf(ws ...[]string) []string {
+	seen := map[string]bool{}
+	var out []string
+	for _, l := range ws {
+		for _, w := range l {
+			if !seen[w] {
+				seen[w] = true
+				out = append(out, w)
+			}
+		}
+	}
+	return out
+}
+
+func title(s string) string {
+	if s == "" {
+		return s
+	}
+	return strings.ToUpper(s[:1]) + s[1:]
+}

@@ -1,0 +1,638 @@
+package app
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"finmarch/airflow"
+	"finmarch/cmd/internal/demo"
+	"finmarch/cmd/internal/design"
+	"finmarch/cmd/internal/output"
+	"finmarch/fins"
+	"finmarch/materials"
+)
+
+const (
+	noteModel = "Model: fin efficiency by exact 1-D fin solutions (Incropera 6th ed. Table 3.5; tapered annular fins by a finite-volume solve), " +
+		"passage heat transfer by Stephan (Shah & London 1978) blended to Gnielinski (VDI Heat Atlas 2010), natural convection by " +
+		"Bar-Cohen & Rohsenow (1984) combined as Nu^3 = NuF^3 + NuN^3, radiation from the fin envelope; see README 'Model and sources'."
+	noteWall = "Wall temperature is the metal at the fin roots, averaged over the fin set; the combustion-side surface and the " +
+		"spark-plug seat run hotter."
+)
+
+func fmtT(u output.Units, k float64) string  { return output.Num(u.Temp(k), 1) }
+func fmtDT(u output.Units, k float64) string { return output.Num(u.TempDiff(k), 1) }
+
+func (e *env) demoCmd() *cobra.Command {
+	return &cobra.Command{
+		Use:   "demo",
+		Short: "Run the built-in demo: one cylinder upright against laid over",
+		Args:  cobra.NoArgs,
+		RunE:  func(*cobra.Command, []string) error { return e.runDemo() },
+	}
+}
+
+func (e *env) runDemo() error {
+	var ds []*design.Design
+	for _, f := range demo.Files {
+		d, err := e.parse(f.Src, f.Name)
+		if err != nil {
+			return fail(ExitInternal, fmt.Errorf("built-in demo: %w", err))
+		}
+		ds = append(ds, d)
+	}
+	doc, err := e.compareDoc(ds, "finmarch demo: an invented 500 cc-class single at cruise, upright against laid over")
+	if err != nil {
+		return err
+	}
+	doc.Notes = append(doc.Notes, "Try your own: 'finmarch new my-cylinder.toml' writes a commented design; "+
+		"'finmarch estimate my-cylinder.toml' estimates it; 'finmarch --help' lists the other commands.")
+	return e.emit(doc)
+}
+
+func (e *env) estimateCmd() *cobra.Command {
+	return &cobra.Command{
+		Use:               "estimate DESIGN.toml",
+		Short:             "Estimate head and barrel temperature (or heat rejected at given walls) at cruise",
+		Args:              cobra.ExactArgs(1),
+		ValidArgsFunction: tomlArgs,
+		RunE: func(_ *cobra.Command, args []string) error {
+			d, err := e.load(args[0])
+			if err != nil {
+				return err
+			}
+			return e.estimate(d)
+		},
+	}
+}
+
+func (e *env) estimate(d *design.Design) error {
+	_, u, err := e.settings()
+	if err != nil {
+		return err
+	}
+	o, err := evaluate(d, d.Case.Speed)
+	if err != nil {
+		return modelError(d.Name, err)
+	}
+	if err := o.check(); err != nil {
+		return fail(ExitInternal, err)
+	}
+	h, b := o.res.Head, o.res.Barrel
+	c := d.Case
+	doc := output.Doc{
+		Title: fmt.Sprintf("%s: %s %s, ambient %s %s, altitude %s %s (%s %s), tilt %.0f deg", d.Name,
+			output.Num(u.Road(c.Speed), 0), u.RoadU(), fmtT(u, c.Ambient), u.TempU(),
+			output.Num(u.Alt(d.Altitude), 0), u.AltU(), output.Num(u.Press(c.Pressure), 1), u.PressU(), c.Tilt*180/math.Pi),
+		Caution: true,
+	}
+	pair := func(f func(r airflow.SetResult) string) []string { return []string{f(h), f(b)} }
+	row := func(q, unit string, vals []string) []string { return append([]string{q, unit}, vals...) }
+	g := output.Grid{Title: "Heat balance per fin set", Header: []string{"quantity", "unit", "head", "barrel"}, Left: 2}
+	if o.fixed {
+		g.Rows = append(g.Rows, row("wall temperature (given)", u.TempU(), pair(func(r airflow.SetResult) string { return fmtT(u, r.WallTemp) })))
+	} else {
+		g.Rows = append(g.Rows,
+			row("heat load", "W", pair(func(r airflow.SetResult) string { return output.Num(r.HeatLoad, 0) })))
+	}
+	g.Rows = append(g.Rows,
+		row("heat rejected", "W", pair(func(r airflow.SetResult) string { return output.Num(r.HeatRejected, 0) })),
+		row("  by forced convection", "W", pair(func(r airflow.SetResult) string { return output.Num(r.ForcedHeat, 0) })),
+		row("  by natural convection", "W", pair(func(r airflow.SetResult) string { return output.Num(r.NaturalHeat, 0) })),
+		row("  by radiation", "W", pair(func(r airflow.SetResult) string { return output.Num(r.RadiationHeat, 0) })),
+	)
+	if !o.fixed {
+		g.Rows = append(g.Rows,
+			row("wall temperature at fin roots", u.TempU(), pair(func(r airflow.SetResult) string { return fmtT(u, r.WallTemp) })),
+			row("limit", u.TempU(), []string{fmtT(u, d.HeadLimit), fmtT(u, d.BarrelLimit)}),
+			row("margin to limit", u.TempDiffU(), []string{fmtDT(u, o.headMargin()), fmtDT(u, o.barrelMargin())}),
+			row("status", "", []string{setStatus(o.err, h, o.headMargin()), setStatus(o.err, b, o.barrelMargin())}),
+		)
+	}
+	g.Rows = append(g.Rows,
+		row("air at inlet", u.TempU(), pair(func(r airflow.SetResult) string { return fmtT(u, r.AirIn) })),
+		row("air at outlet", u.TempU(), pair(func(r airflow.SetResult) string { return fmtT(u, r.AirOut) })),
+		row("air rise along the path", u.TempDiffU(), pair(func(r airflow.SetResult) string { return fmtDT(u, r.AirOut-r.AirIn) })),
+		row("road speed along the fins", u.RoadU(), pair(func(r airflow.SetResult) string { return output.Num(u.Road(r.ApproachComponent), 0) })),
+		row("passage velocity", u.VelU(), pair(func(r airflow.SetResult) string { return output.Num(u.Vel(r.PassageVelocity), 2) })),
+		row("Reynolds number (2 x gap)", "-", pair(func(r airflow.SetResult) string { return output.Num(r.Reynolds, 0) })),
+		row("flow regime", "", pair(func(r airflow.SetResult) string { return r.Regime })),
+		row("air paths x path length", u.LenU(), pair(func(r airflow.SetResult) string {
+			return fmt.Sprintf("%d x %s", r.Paths, output.Num(u.Len(r.PathLength), 0))
+		})),
+		row("mean h (forced)", u.HU(), pair(func(r airflow.SetResult) string { return output.Num(u.H(r.MeanH), 1) })),
+		row("fin efficiency", "-", pair(func(r airflow.SetResult) string { return output.Num(r.FinEfficiency, 3) })),
+		row("surface efficiency", "-", pair(func(r airflow.SetResult) string { return output.Num(r.SurfaceEfficiency, 3) })),
+		row("finned surface (fins + base)", u.AreaU(), pair(func(r airflow.SetResult) string { return output.Num(u.Area(r.TotalArea), 3) })),
+		row("fin mass", u.MassU(), pair(func(r airflow.SetResult) string { return output.Num(u.Mass(r.FinMass), 2) })),
+		row("heat per kg of fin", "W/kg", pair(func(r airflow.SetResult) string { return output.Num(r.HeatRejected/r.FinMass, 0) })),
+	)
+	doc.Grids = append(doc.Grids, g)
+	if !o.fixed && !d.Load.Direct {
+		doc.Notes = append(doc.Notes, fmt.Sprintf("Road load at %s %s: %.2f kW at the wheel, %.2f kW at the crank, %.1f kW of fuel; %.0f%% of the fuel power to the fins of %d cylinder(s), %.0f%% of it through the head.",
+			output.Num(u.Road(c.Speed), 0), u.RoadU(), o.load.WheelPower/1e3, o.load.BrakePower/1e3, o.load.FuelPower/1e3,
+			100*d.Load.Road.CoolShare, d.Load.Road.Cylinders, 100*d.Load.Road.HeadShare))
+	}
+	doc.Notes = append(doc.Notes, orientationNote(d, o.res), noteWall,
+		fmt.Sprintf("Energy check: heat taken from the metal equals the air's enthalpy rise to %.1e (relative).", o.res.MaxImbal),
+		noteModel)
+	if o.err != nil {
+		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.err.Error()+".")
+	}
+	doc.Warnings = o.warnings()
+	doc.JSON = map[string]any{
+		"design": d.Name, "source": d.Source, "tilt_deg": c.Tilt * 180 / math.Pi, "speed_m_s": c.Speed,
+		"ambient_K": c.Ambient, "pressure_Pa": c.Pressure, "altitude_m": d.Altitude,
+		"load": o.load, "result": o.res, "head_limit_K": d.HeadLimit, "barrel_limit_K": d.BarrelLimit,
+		"head_margin_K": o.headMargin(), "barrel_margin_K": o.barrelMargin(), "status": o.status(),
+		"fixed_walls": o.fixed, "equilibrium": o.err == nil, "energy_imbalance": o.res.MaxImbal,
+		"warnings": doc.Warnings, "defaults_applied": d.Defaults, "caution": output.Caution,
+	}
+	if err := e.emit(doc); err != nil {
+		return err
+	}
+	if o.err != nil {
+		return modelError(d.Name, o.err)
+	}
+	return nil
+}
+
+func setStatus(err error, r airflow.SetResult, margin float64) string {
+	switch {
+	case err != nil && r.HeatRejected < r.HeatLoad:
+		return "NO EQUILIBRIUM"
+	case margin < 0:
+		return "OVER LIMIT"
+	case margin < 15:
+		return "marginal"
+	}
+	return "ok"
+}
+
+// orientationNote says in words how the air reaches the fins.
+func orientationNote(d *design.Design, r airflow.Result) string {
+	tilt := d.Case.Tilt * 180 / math.Pi
+	var parts []string
+	for _, s := range []airflow.SetResult{r.Head, r.Barrel} {
+		switch {
+		case s.Style == "annular":
+			parts = append(parts, fmt.Sprintf("the %s's annular fins take the road-speed share in their plane (cos %.0f deg = %.2f) on %d short paths round half the circumference, each fed with ambient air",
+				s.Name, tilt, math.Cos(d.Case.Tilt), s.Paths))
+		case s.Series && s.Name == "head":
+			parts = append(parts, fmt.Sprintf("the head's longitudinal fins take the share along the axis (sin %.0f deg = %.2f) and pass their warmed air on to the barrel fins", tilt, math.Sin(d.Case.Tilt)))
+		case s.Series:
+			parts = append(parts, "the barrel's longitudinal fins receive the air the head fins have already warmed")
+		default:
+			parts = append(parts, fmt.Sprintf("the %s's longitudinal fins take the share along the axis (sin %.0f deg = %.2f)", s.Name, tilt, math.Sin(d.Case.Tilt)))
+		}
+	}
+	return "Orientation: " + strings.Join(parts, "; ") + ". Air striking the fin faces broadside is assumed to add nothing (conservative)."
+}
+
+func (e *env) compareCmd() *cobra.Command {
+	return &cobra.Command{
+		Use:               "compare DESIGN.toml DESIGN.toml [...]",
+		Short:             "Compare several designs side by side at their cruise conditions",
+		Args:              cobra.MinimumNArgs(2),
+		ValidArgsFunction: tomlArgs,
+		RunE: func(_ *cobra.Command, args []string) error {
+			var ds []*design.Design
+			for _, a := range args {
+				d, err := e.load(a)
+				if err != nil {
+					return err
+				}
+				ds = append(ds, d)
+			}
+			doc, err := e.compareDoc(ds, "Design comparison at cruise")
+			if err != nil {
+				return err
+			}
+			return e.emit(doc)
+		},
+	}
+}
+
+func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error) {
+	_, u, err := e.settings()
+	if err != nil {
+		return output.Doc{}, err
+	}
+	var os []outcome
+	var warns [][]string
+	for _, d := range ds {
+		o, err := evaluate(d, d.Case.Speed)
+		if err != nil {
+			return output.Doc{}, modelError(d.Name, err)
+		}
+		if err := o.check(); err != nil {
+			return output.Doc{}, fail(ExitInternal, err)
+		}
+		os = append(os, o)
+		warns = append(warns, o.warnings())
+	}
+	g := output.Grid{Header: []string{"quantity", "unit"}, Left: 2}
+	for i := range ds {
+		g.Header = append(g.Header, fmt.Sprintf("%c: %s", 'A'+i, ds[i].Name))
+	}
+	add := func(q, unit string, f func(o outcome) string) {
+		r := []string{q, unit}
+		for _, o := range os {
+			r = append(r, f(o))
+		}
+		g.Rows = append(g.Rows, r)
+	}
+	add("tilt from vertical", "deg", func(o outcome) string { return output.Num(o.d.Case.Tilt*180/math.Pi, 0) })
+	add("fin style head / barrel", "", func(o outcome) string { return o.res.Head.Style + " / " + o.res.Barrel.Style })
+	add("road speed", u.RoadU(), func(o outcome) string { return output.Num(u.Road(o.speed), 0) })
+	add("ambient", u.TempU(), func(o outcome) string { return fmtT(u, o.d.Case.Ambient) })
+	add("heat load head / barrel", "W", func(o outcome) string {
+		return output.Num(o.res.Head.HeatLoad, 0) + " / " + output.Num(o.res.Barrel.HeatLoad, 0)
+	})
+	add("head temperature", u.TempU(), func(o outcome) string { return fmtT(u, o.res.Head.WallTemp) })
+	add("barrel temperature", u.TempU(), func(o outcome) string { return fmtT(u, o.res.Barrel.WallTemp) })
+	add("head margin to limit", u.TempDiffU(), func(o outcome) string { return fmtDT(u, o.headMargin()) })
+	add("barrel margin to limit", u.TempDiffU(), func(o outcome) string { return fmtDT(u, o.barrelMargin()) })
+	add("status", "", func(o outcome) string { return o.status() })
+	add("passage velocity head / barrel", u.VelU(), func(o outcome) string {
+		return output.Num(u.Vel(o.res.Head.PassageVelocity), 1) + " / " + output.Num(u.Vel(o.res.Barrel.PassageVelocity), 1)
+	})
+	add("air rise head / barrel", u.TempDiffU(), func(o outcome) string {
+		return fmtDT(u, o.res.Head.AirOut-o.res.Head.AirIn) + " / " + fmtDT(u, o.res.Barrel.AirOut-o.res.Barrel.AirIn)
+	})
+	add("air reaching barrel fins", u.TempU(), func(o outcome) string { return fmtT(u, o.res.Barrel.AirIn) })
+	add("mean h head / barrel", u.HU(), func(o outcome) string {
+		return output.Num(u.H(o.res.Head.MeanH), 1) + " / " + output.Num(u.H(o.res.Barrel.MeanH), 1)
+	})
+	add("finned surface", u.AreaU(), func(o outcome) string { return output.Num(u.Area(o.res.Head.TotalArea+o.res.Barrel.TotalArea), 3) })
+	add("fin mass", u.MassU(), func(o outcome) string { return output.Num(u.Mass(o.res.Head.FinMass+o.res.Barrel.FinMass), 2) })
+	add("heat rejected per kg of fin", "W/kg", func(o outcome) string {
+		return output.Num((o.res.Head.HeatRejected+o.res.Barrel.HeatRejected)/(o.res.Head.FinMass+o.res.Barrel.FinMass), 0)
+	})
+	doc := output.Doc{Title: heading, Grids: []output.Grid{g}, Caution: true}
+	for i := 1; i < len(os); i++ {
+		doc.Notes = append(doc.Notes, explain(u, os[0], os[i], 'A', rune('A'+i)))
+	}
+	for i, o := range os {
+		if o.err != nil {
+			doc.Notes = append(doc.Notes, fmt.Sprintf("%c: NO EQUILIBRIUM: %v.", 'A'+i, o.err))
+		}
+	}
+	doc.Notes = append(doc.Notes, noteWall, noteModel)
+	doc.Warnings = warningsOf(warns...)
+	var js []map[string]any
+	for _, o := range os {
+		js = append(js, map[string]any{"design": o.d.Name, "source": o.d.Source, "load": o.load, "result": o.res,
+			"head_margin_K": o.headMargin(), "barrel_margin_K": o.barrelMargin(), "status": o.status(),
+			"equilibrium": o.err == nil, "energy_imbalance": o.res.MaxImbal})
+	}
+	doc.JSON = map[string]any{"designs": js, "notes": doc.Notes, "warnings": doc.Warnings, "caution": output.Caution}
+	return doc, nil
+}
+
+// explain says how much hotter or cooler design b runs than a, and why.
+func explain(u output.Units, a, b outcome, la, lb rune) string {
+	dh := b.res.Head.WallTemp - a.res.Head.WallTemp
+	db := b.res.Barrel.WallTemp - a.res.Barrel.WallTemp
+	word := func(d float64) string {
+		if d >= 0 {
+			return fmt.Sprintf("%s %s hotter", output.Num(u.TempDiff(d), 0), u.TempDiffU())
+		}
+		return fmt.Sprintf("%s %s cooler", output.Num(u.TempDiff(-d), 0), u.TempDiffU())
+	}
+	s := fmt.Sprintf("%c against %c: the head runs %s and the barrel %s.", lb, la, word(dh), word(db))
+	var worse, better []string // what makes b hotter, what makes it cooler
+	side := func(bWorse bool, text string) {
+		if bWorse {
+			worse = append(worse, text)
+		} else {
+			better = append(better, text)
+		}
+	}
+	ha, hb := a.res.Head, b.res.Head
+	if math.Abs(hb.PassageVelocity-ha.PassageVelocity) > 0.05*math.Max(ha.PassageVelocity, 0.1) {
+		w := fmt.Sprintf("head passage air at %s against %s %s", output.Num(u.Vel(hb.PassageVelocity), 1), output.Num(u.Vel(ha.PassageVelocity), 1), u.VelU())
+		if hb.Series && !ha.Series {
+			w += " (only the share of road speed along the axis drives it, through head and barrel passages in series)"
+		}
+		side(hb.PassageVelocity < ha.PassageVelocity, w)
+	}
+	if math.Abs(hb.MeanH-ha.MeanH) > 0.05*math.Max(ha.MeanH, 1) {
+		side(hb.MeanH < ha.MeanH, fmt.Sprintf("mean h on the head %s against %s %s", output.Num(u.H(hb.MeanH), 0), output.Num(u.H(ha.MeanH), 0), u.HU()))
+	}
+	ra, rb := ha.AirOut-ha.AirIn, hb.AirOut-hb.AirIn
+	if math.Abs(rb-ra) > 3 {
+		side(rb > ra, fmt.Sprintf("air warming %s %s along the head fins against %s", output.Num(u.TempDiff(rb), 0), u.TempDiffU(), output.Num(u.TempDiff(ra), 0)))
+	}
+	if math.Abs(b.res.Barrel.AirIn-a.res.Barrel.AirIn) > 1 {
+		side(b.res.Barrel.AirIn > a.res.Barrel.AirIn, fmt.Sprintf("air reaching the barrel fins at %s %s against %s (on a series path the head has warmed it)",
+			fmtT(u, b.res.Barrel.AirIn), u.TempU(), fmtT(u, a.res.Barrel.AirIn)))
+	}
+	aa, ab := ha.TotalArea+a.res.Barrel.TotalArea, hb.TotalArea+b.res.Barrel.TotalArea
+	if math.Abs(ab-aa) > 0.03*aa {
+		side(ab < aa, fmt.Sprintf("finned surface %s against %s %s", output.Num(u.Area(ab), 3), output.Num(u.Area(aa), 3), u.AreaU()))
+	}
+	lda, ldb := ha.HeatLoad+a.res.Barrel.HeatLoad, hb.HeatLoad+b.res.Barrel.HeatLoad
+	if math.Abs(ldb-lda) > 0.02*math.Max(lda, 1) {
+		side(ldb > lda, fmt.Sprintf("heat load %s against %s W", output.Num(ldb, 0), output.Num(lda, 0)))
+	}
+	if len(worse) > 0 {
+		s += fmt.Sprintf(" Against %c: %s.", lb, strings.Join(worse, "; "))
+	}
+	if len(better) > 0 {
+		s += fmt.Sprintf(" In %c's favour: %s.", lb, strings.Join(better, "; "))
+	}
+	return s
+}
+
+func (e *env) tiltCmd() *cobra.Command {
+	var step float64
+	cmd := &cobra.Command{
+		Use:   "tilt DESIGN.toml",
+		Short: "Check orientation: the design from upright to laid over, annular against longitudinal fins",
+		Long: `tilt runs the design at its cruise condition with the cylinder axis from 0 (upright)
+to 90 degrees (laid over), once with both fin sets annular and once with both
+longitudinal. The other style keeps the fin height, thicknesses and the mean clear
+gap between fins, so the air sees the same fin density.`,
+		Args:              cobra.ExactArgs(1),
+		ValidArgsFunction: tomlArgs,
+		RunE: func(_ *cobra.Command, args []string) error {
+			d, err := e.load(args[0])
+			if err != nil {
+				return err
+			}
+			if !(step >= 1 && step <= 90) {
+				return fail(ExitUsage, fmt.Errorf("--step %g deg: allowed 1 to 90", step))
+			}
+			return e.tilt(d, step)
+		},
+	}
+	cmd.Flags().Float64Var(&step, "step", 15, "tilt step in degrees")
+	return cmd
+}
+
+func restyled(d *design.Design, st fins.Style) (*design.Design, error) {
+	cp := *d
+	var err error
+	if cp.Case.Head.Set, err = d.Case.Head.Set.Restyle(st); err != nil {
+		return nil, fmt.Errorf("head fins as %s: %w", st, err)
+	}
+	if cp.Case.Barrel.Set, err = d.Case.Barrel.Set.Restyle(st); err != nil {
+		return nil, fmt.Errorf("barrel fins as %s: %w", st, err)
+	}
+	return &cp, nil
+}
+
+func (e *env) tilt(d *design.Design, step float64) error {
+	_, u, err := e.settings()
+	if err != nil {
+		return err
+	}
+	an, err := restyled(d, fins.StyleAnnular)
+	if err != nil {
+		return fail(ExitDesign, err)
+	}
+	lo, err := restyled(d, fins.StyleLongitudinal)
+	if err != nil {
+		return fail(ExitDesign, err)
+	}
+	T := u.TempU()
+	g := output.Grid{Title: "Head and barrel temperature against tilt",
+		Header: []string{"tilt (deg)", "annular head (" + T + ")", "annular barrel (" + T + ")", "longitudinal head (" + T + ")", "longitudinal barrel (" + T + ")", "cooler style"}}
+	var warns [][]string
+	var rows []map[string]any
+	cell := func(o outcome, r airflow.SetResult) string {
+		if o.err != nil && r.HeatRejected < r.HeatLoad {
+			return "over " + fmtT(u, airflow.SaneWallLimit)
+		}
+		return fmtT(u, r.WallTemp)
+	}
+	var tilts []float64
+	for t := 0.0; t < 90-1e-9; t += step {
+		tilts = append(tilts, t)
+	}
+	tilts = append(tilts, 90)
+	for _, t := range tilts {
+		var outs []outcome
+		for _, v := range []*design.Design{an, lo} {
+			cp := *v
+			cp.Case.Tilt = t * math.Pi / 180
+			o, err := evaluate(&cp, cp.Case.Speed)
+			if err != nil {
+				return modelError(d.Name, err)
+			}
+			outs = append(outs, o)
+			warns = append(warns, o.warnings())
+		}
+		a, l := outs[0], outs[1]
+		better := "annular"
+		if math.Max(l.res.Head.WallTemp, l.res.Barrel.WallTemp) < math.Max(a.res.Head.WallTemp, a.res.Barrel.WallTemp) {
+			better = "longitudinal"
+		}
+		g.Rows = append(g.Rows, []string{output.Num(t, 0), cell(a, a.res.Head), cell(a, a.res.Barrel), cell(l, l.res.Head), cell(l, l.res.Barrel), better})
+		rows = append(rows, map[string]any{"tilt_deg": t, "annular": a.res, "longitudinal": l.res,
+			"annular_equilibrium": a.err == nil, "longitudinal_equilibrium": l.err == nil})
+	}
+	hs, bs := an.Case.Head.Set, an.Case.Barrel.Set
+	hl, bl := lo.Case.Head.Set, lo.Case.Barrel.Set
+	lu := func(v float64) string { return output.Num(u.Len(v), u.LenDec()) + " " + u.LenU() }
+	doc := output.Doc{Title: fmt.Sprintf("%s: orientation check at %s %s, ambient %s %s", d.Name,
+		output.Num(u.Road(d.Case.Speed), 0), u.RoadU(), fmtT(u, d.Case.Ambient), u.TempU()), Grids: []output.Grid{g}, Caution: true}
+	doc.Notes = append(doc.Notes,
+		fmt.Sprintf("Annular variant: head %d fins at %s pitch, barrel %d fins at %s pitch. Longitudinal variant: head %d fins at %s root pitch, barrel %d fins at %s root pitch. Same heights, thicknesses and mean gap.",
+			hs.Count, lu(hs.Pitch), bs.Count, lu(bs.Pitch), hl.Count, lu(hl.Pitch), bl.Count, lu(bl.Pitch)),
+		"Annular fins take the road-speed share in their plane (cos tilt); longitudinal fins the share along the axis (sin tilt), head first then barrel in series. "+
+			"Broadside air is assumed to add nothing, so each style ends on natural convection and radiation alone at its unfavourable extreme.",
+		noteWall)
+	doc.Warnings = warningsOf(warns...)
+	doc.JSON = map[string]any{"design": d.Name, "rows": rows, "warnings": doc.Warnings, "caution": output.Caution}
+	return e.emit(doc)
+}
+
+func (e *env) marchCmd() *cobra.Command {
+	return &cobra.Command{
+		Use:               "march DESIGN.toml",
+		Short:             "Show the segment-by-segment march of the cooling air along the fin passages",
+		Args:              cobra.ExactArgs(1),
+		ValidArgsFunction: tomlArgs,
+		RunE: func(_ *cobra.Command, args []string) error {
+			d, err := e.load(args[0])
+			if err != nil {
+				return err
+			}
+			return e.march(d)
+		},
+	}
+}
+
+func (e *env) march(d *design.Design) error {
+	_, u, err := e.settings()
+	if err != nil {
+		return err
+	}
+	o, err := evaluate(d, d.Case.Speed)
+	if err != nil {
+		return modelError(d.Name, err)
+	}
+	T, L := u.TempU(), u.LenU()
+	g := output.Grid{Title: "March along one air path of each fin set (heat and flux summed over all parallel paths)",
+		Header: []string{"set", "segment", "x (" + L + ")", "air in (" + T + ")", "air out (" + T + ")", "h (" + u.HU() + ")", "fin eff", "flux (" + u.FluxU() + ")", "heat (W)"}, Left: 1}
+	for _, s := range []airflow.SetResult{o.res.Head, o.res.Barrel} {
+		for i, sg := range s.March {
+			g.Rows = append(g.Rows, []string{s.Name, fmt.Sprint(i + 1), output.Num(u.Len(sg.X), u.LenDec()), fmtT(u, sg.AirIn), fmtT(u, sg.AirOut),
+				output.Num(u.H(sg.H), 1), output.Num(sg.FinEff, 3), output.Num(u.Flux(sg.Flux), 0), output.Num(sg.Heat, 1)})
+		}
+	}
+	doc := output.Doc{Title: fmt.Sprintf("%s: march at %s %s (head wall %s %s, barrel wall %s %s)", d.Name,
+		output.Num(u.Road(d.Case.Speed), 0), u.RoadU(), fmtT(u, o.res.Head.WallTemp), T, fmtT(u, o.res.Barrel.WallTemp), T),
+		Grids: []output.Grid{g}, Caution: true}
+	for _, s := range []airflow.SetResult{o.res.Head, o.res.Barrel} {
+		if len(s.March) == 0 {
+			doc.Notes = append(doc.Notes, fmt.Sprintf("The %s fins get no forced flow at this tilt and speed: natural convection and radiation only.", s.Name))
+			continue
+		}
+		first, last := s.March[0], s.March[len(s.March)-1]
+		doc.Notes = append(doc.Notes, fmt.Sprintf("%s: the air warms from %s to %s %s along %s %s; the local heat flux falls from %s to %s %s (%s%% of its entry value).",
+			title(s.Name), fmtT(u, s.AirIn), fmtT(u, s.AirOut), T, output.Num(u.Len(s.PathLength), 0), L,
+			output.Num(u.Flux(first.Flux), 0), output.Num(u.Flux(last.Flux), 0), u.FluxU(), output.Num(100*last.Flux/first.Flux, 0)))
+	}
+	if o.err != nil {
+		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.err.Error()+"; the march is shown at the search limit.")
+	}
+	doc.Notes = append(doc.Notes, fmt.Sprintf("Energy check: heat from the metal equals the air's enthalpy rise to %.1e (relative).", o.res.MaxImbal))
+	doc.Warnings = o.warnings()
+	doc.JSON = map[string]any{"design": d.Name, "head": o.res.Head, "barrel": o.res.Barrel, "energy_imbalance": o.res.MaxImbal,
+		"equilibrium": o.err == nil, "warnings": doc.Warnings, "caution": output.Caution}
+	if err := e.emit(doc); err != nil {
+		return err
+	}
+	if o.err != nil {
+		return modelError(d.Name, o.err)
+	}
+	return nil
+}
+
+func (e *env) speedsCmd() *cobra.Command {
+	var from, to, step string
+	cmd := &cobra.Command{
+		Use:               "speeds DESIGN.toml",
+		Short:             "Sweep road speed: head and barrel temperature and margin at each speed",
+		Args:              cobra.ExactArgs(1),
+		ValidArgsFunction: tomlArgs,
+		RunE: func(_ *cobra.Command, args []string) error {
+			d, err := e.load(args[0])
+			if err != nil {
+				return err
+			}
+			var v [3]float64
+			for i, s := range []struct{ name, val string }{{"--from", from}, {"--to", to}, {"--step", step}} {
+				x, err := design.ParseValue[design.Speed](s.val)
+				if err != nil {
+					return fail(ExitUsage, fmt.Errorf("%s: %w", s.name, err))
+				}
+				v[i] = x
+			}
+			if !(v[0] >= 0 && v[1] >= v[0] && v[1] <= 400/3.6 && v[2] > 0) || (v[1]-v[0])/v[2] > 1000 {
+				return fail(ExitUsage, fmt.Errorf("speed range %s to %s by %s: need 0 <= from <= to <= 400 km/h, a positive step and at most 1000 rows", from, to, step))
+			}
+			return e.speeds(d, v[0], v[1], v[2])
+		},
+	}
+	cmd.Flags().StringVar(&from, "from", "0 km/h", "lowest road speed, with unit")
+	cmd.Flags().StringVar(&to, "to", "140 km/h", "highest road speed, with unit")
+	cmd.Flags().StringVar(&step, "step", "10 km/h", "speed step, with unit")
+	return cmd
+}
+
+func (e *env) speeds(d *design.Design, from, to, step float64) error {
+	_, u, err := e.settings()
+	if err != nil {
+		return err
+	}
+	T := u.TempU()
+	g := output.Grid{Title: "Temperatures against road speed",
+		Header: []string{"speed (" + u.RoadU() + ")", "head load (W)", "barrel load (W)", "head (" + T + ")", "barrel (" + T + ")", "head margin (" + u.TempDiffU() + ")", "status"}}
+	var warns [][]string
+	var rows []map[string]any
+	for i := 0; ; i++ {
+		v := from + float64(i)*step
+		if v > to+1e-9 {
+			break
+		}
+		o, err := evaluate(d, v)
+		if err != nil {
+			return modelError(d.Name, err)
+		}
+		warns = append(warns, o.warnings())
+		ht, bt := fmtT(u, o.res.Head.WallTemp), fmtT(u, o.res.Barrel.WallTemp)
+		if o.err != nil {
+			if o.res.Head.HeatRejected < o.res.Head.HeatLoad {
+				ht = "over " + fmtT(u, airflow.SaneWallLimit)
+			}
+			if o.res.Barrel.HeatRejected < o.res.Barrel.HeatLoad {
+				bt = "over " + fmtT(u, airflow.SaneWallLimit)
+			}
+		}
+		g.Rows = append(g.Rows, []string{output.Num(u.Road(v), 0), output.Num(o.res.Head.HeatLoad, 0), output.Num(o.res.Barrel.HeatLoad, 0),
+			ht, bt, fmtDT(u, o.headMargin()), o.status()})
+		rows = append(rows, map[string]any{"speed_m_s": v, "load": o.load, "head": summary(o.res.Head), "barrel": summary(o.res.Barrel),
+			"head_margin_K": o.headMargin(), "status": o.status(), "equilibrium": o.err == nil})
+	}
+	doc := output.Doc{Title: fmt.Sprintf("%s: road-speed sweep, ambient %s %s, tilt %.0f deg", d.Name, fmtT(u, d.Case.Ambient), T, d.Case.Tilt*180/math.Pi),
+		Grids: []output.Grid{g}, Caution: true}
+	if !d.Load.Direct {
+		doc.Notes = append(doc.Notes, "The heat load follows the road load at each speed. At 0 speed the road load is nil; give head_heat and barrel_heat for an idle check.")
+	} else {
+		doc.Notes = append(doc.Notes, "The heat load is the design's fixed head_heat and barrel_heat at every speed.")
+	}
+	doc.Notes = append(doc.Notes, noteWall)
+	doc.Warnings = warningsOf(warns...)
+	doc.JSON = map[string]any{"design": d.Name, "rows": rows, "warnings": doc.Warnings, "caution": output.Caution}
+	return e.emit(doc)
+}
+
+// summary drops the march arrays from a set result for compact JSON rows.
+func summary(r airflow.SetResult) airflow.SetResult {
+	r.March = nil
+	return r
+}
+
+func (e *env) alloysCmd() *cobra.Command {
+	return &cobra.Command{
+		Use:   "alloys",
+		Short: "List the alloy catalogue with its sources",
+		Args:  cobra.NoArgs,
+		RunE: func(*cobra.Command, []string) error {
+			_, u, err := e.settings()
+			if err != nil {
+				return err
+			}
+			g := output.Grid{Header: []string{"name", "kind", "k at 300 K (W/mK)", "density (kg/m3)", "cp (J/kgK)", "emissivity bare / painted", "max service (" + u.TempU() + ")"}, Left: 2}
+			var notes []string
+			for _, a := range materials.All() {
+				g.Rows = append(g.Rows, []string{a.Name, a.Kind, output.Num(a.K300, 1), output.Num(a.Density, 0), output.Num(a.Cp, 0),
+					output.Num(a.EmissBare, 2) + " / " + output.Num(a.EmissPaint, 2), fmtT(u, a.MaxService)})
+				notes = append(notes, fmt.Sprintf("%s: %s. Emissivity: %s. Limit: %s.", a.Name, a.Source, a.EmissSource, a.LimitSource))
+			}
+			return e.emit(output.Doc{Title: "Alloy catalogue", Grids: []output.Grid{g}, Notes: notes, JSON: materials.All()})
+		},
+	}
+}
+
+func (e *env) newCmd() *cobra.Command {
+	return &cobra.Command{
+		Use:   "new DESIGN.toml",
+		Short: "Write a commented starter design (the upright demo) to a new file",
+		Args:  cobra.ExactArgs(1),
+		RunE: func(_ *cobra.Command, args []string) error {
+			if err := writeFile(args[0], demo.Upright, e.opt.force); err != nil {
+				return err
+			}
+			fmt.Fprintf(e.stdout, "wrote %s; edit it, then run: finmarch estimate %s\n", args[0], args[0])
+			return nil
+		},
+	}
+}

@@ -1,0 +1,185 @@
+package app
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"finmarch/cmd/internal/design"
+	"finmarch/cmd/internal/output"
+	"finmarch/fins"
+	"finmarch/fins/validity"
+	"finmarch/materials"
+)
+
+var profiles = []string{"rectangular", "triangular", "trapezoidal", "annular", "annular-tapered"}
+
+func (e *env) finCmd() *cobra.Command {
+	var profile, height, root, tip, dia, alloy, k, h, wall, air string
+	cmd := &cobra.Command{
+		Use:   "fin",
+		Short: "Single-fin calculator: efficiency and heat rate of one fin",
+		Long: `fin computes the efficiency and heat rate of one fin by its closed form, and checks
+it with the general finite-volume fin solver. Straight profiles are per metre of
+fin width; annular profiles per fin.
+
+  finmarch fin --profile annular-tapered --height 35mm --root-thickness 4mm \
+      --tip-thickness 2mm --root-diameter 90mm --alloy A356-T6 --h "60 W/m2K"`,
+		Args: cobra.NoArgs,
+		RunE: func(*cobra.Command, []string) error {
+			in := finInput{profile: strings.ToLower(profile)}
+			var err error
+			lens := []struct {
+				flag string
+				s    string
+				dst  *float64
+				need bool
+			}{{"--height", height, &in.L, true}, {"--root-thickness", root, &in.t0, true}, {"--tip-thickness", tip, &in.t1, false}, {"--root-diameter", dia, &in.d, false}}
+			for _, l := range lens {
+				if l.s == "" {
+					if l.need {
+						return fail(ExitUsage, fmt.Errorf("%s is required", l.flag))
+					}
+					continue
+				}
+				if *l.dst, err = design.ParseValue[design.Length](l.s); err != nil {
+					return fail(ExitUsage, fmt.Errorf("%s: %w", l.flag, err))
+				}
+				if !(*l.dst >= 0 && *l.dst < 1) {
+					return fail(ExitUsage, fmt.Errorf("%s %s: allowed 0 to 1 m", l.flag, l.s))
+				}
+			}
+			if tip == "" {
+				in.t1 = in.t0
+			}
+			if h == "" {
+				return fail(ExitUsage, fmt.Errorf(`--h is required (for example --h "60 W/m2K")`))
+			}
+			if in.h, err = design.ParseValue[design.HCoef](h); err != nil || !(in.h > 0 && in.h < 1e5) {
+				return fail(ExitUsage, fmt.Errorf("--h %s: a positive heat-transfer coefficient below 1e5 W/m2K (%v)", h, err))
+			}
+			a, err := materials.Lookup(alloy)
+			if err != nil {
+				return fail(ExitUsage, fmt.Errorf("--alloy: %w", err))
+			}
+			in.alloy = a
+			if in.tw, err = design.ParseValue[design.Temperature](wall); err != nil {
+				return fail(ExitUsage, fmt.Errorf("--wall: %w", err))
+			}
+			if in.ta, err = design.ParseValue[design.Temperature](air); err != nil {
+				return fail(ExitUsage, fmt.Errorf("--air: %w", err))
+			}
+			if !(in.ta > 150 && in.tw > in.ta && in.tw < 1500) {
+				return fail(ExitUsage, fmt.Errorf("--wall (%s) must be above --air (%s), both absolute temperatures above 150 K", wall, air))
+			}
+			in.k = a.Conductivity(in.tw)
+			if k != "" {
+				if in.k, err = design.ParseValue[design.Conductivity](k); err != nil || !(in.k > 0 && in.k < 5000) {
+					return fail(ExitUsage, fmt.Errorf("--k %s: a positive conductivity (%v)", k, err))
+				}
+			}
+			return e.fin(in)
+		},
+	}
+	f := cmd.Flags()
+	f.StringVar(&profile, "profile", "annular-tapered", "fin profile: "+strings.Join(profiles, ", "))
+	f.StringVar(&height, "height", "", "fin height, root to tip, with unit (required)")
+	f.StringVar(&root, "root-thickness", "", "thickness at the root, with unit (required)")
+	f.StringVar(&tip, "tip-thickness", "", "thickness at the tip (default: the root thickness)")
+	f.StringVar(&dia, "root-diameter", "", "root diameter for annular fins, with unit")
+	f.StringVar(&alloy, "alloy", "A356-T6", "catalogue alloy (see 'finmarch alloys')")
+	f.StringVar(&k, "k", "", "thermal conductivity instead of the alloy's, e.g. \"150 W/mK\"")
+	f.StringVar(&h, "h", "", "heat-transfer coefficient, e.g. \"60 W/m2K\" (required)")
+	f.StringVar(&wall, "wall", "200 C", "fin root temperature, for the heat rate")
+	f.StringVar(&air, "air", "35 C", "air temperature, for the heat rate")
+	_ = cmd.RegisterFlagCompletionFunc("profile", func(*cobra.Command, []string, string) ([]string, cobra.ShellCompDirective) {
+		return profiles, cobra.ShellCompDirectiveNoFileComp
+	})
+	return cmd
+}
+
+type finInput struct {
+	profile      string
+	L, t0, t1, d float64
+	h, k, tw, ta float64
+	alloy        materials.Alloy
+}
+
+func (e *env) fin(in finInput) error {
+	_, u, err := e.settings()
+	if err != nil {
+		return err
+	}
+	var log validity.Log
+	if in.t0 <= 0 || in.L <= 0 {
+		return fail(ExitUsage, fmt.Errorf("--height and --root-thickness must be positive"))
+	}
+	if in.t1 > in.t0 {
+		return fail(ExitUsage, fmt.Errorf("--tip-thickness %s %s is thicker than the root %s %s", output.Num(u.Len(in.t1), 2), u.LenU(), output.Num(u.Len(in.t0), 2), u.LenU()))
+	}
+	annular := strings.HasPrefix(in.profile, "annular")
+	if annular && !(in.d > 0) {
+		return fail(ExitUsage, fmt.Errorf("--root-diameter is required for %s fins", in.profile))
+	}
+	r1 := in.d / 2
+	r2 := r1 + in.L
+	var eta, area float64
+	var fin fins.Fin
+	lin := func(a, b float64) func(float64) float64 { return func(s float64) float64 { return a + (b-a)*s/in.L } }
+	per := "per metre of width"
+	switch in.profile {
+	case "rectangular":
+		eta = fins.StraightRectangular(in.h, in.k, in.t0, in.L, &log)
+		area = 2 * (in.L + in.t0/2)
+		fin = fins.Fin{Shape: fins.Straight, Length: in.L + in.t0/2, Thickness: lin(in.t0, in.t0)}
+	case "triangular":
+		eta = fins.StraightTriangular(in.h, in.k, in.t0, in.L, &log)
+		area = 2 * in.L
+		fin = fins.Fin{Shape: fins.Straight, Length: in.L, Thickness: lin(in.t0, 0)}
+	case "trapezoidal":
+		eta = fins.StraightTrapezoidal(in.h, in.k, in.t0, in.t1, in.L, &log)
+		area = 2*in.L + in.t1
+		fin = fins.Fin{Shape: fins.Straight, Length: in.L, Thickness: lin(in.t0, in.t1), Tip: fins.ConvectiveTip}
+	case "annular":
+		eta = fins.AnnularRectangular(in.h, in.k, in.t0, r1, r2, &log)
+		r2c := r2 + in.t0/2
+		area = 2 * math.Pi * (r2c*r2c - r1*r1)
+		fin = fins.Fin{Shape: fins.Annular, RootRadius: r1, Length: in.L + in.t0/2, Thickness: lin(in.t0, in.t0)}
+		per = "per fin"
+	case "annular-tapered":
+		eta = fins.AnnularTapered(in.h, in.k, in.t0, in.t1, r1, r2, &log)
+		area = 2*math.Pi*(r2*r2-r1*r1) + 2*math.Pi*r2*in.t1
+		fin = fins.Fin{Shape: fins.Annular, RootRadius: r1, Length: in.L, Thickness: lin(in.t0, in.t1), Tip: fins.ConvectiveTip}
+		per = "per fin"
+	default:
+		return fail(ExitUsage, fmt.Errorf("--profile %q: use %s", in.profile, strings.Join(profiles, ", ")))
+	}
+	sol, err := fins.Solve(fin, in.k, fins.Uniform(in.h), in.tw-in.ta, fins.SolveOptions{Cells: 400})
+	if err != nil {
+		return fail(ExitUsage, err)
+	}
+	dT := in.tw - in.ta
+	q := eta * in.h * area * dT
+	m := math.Sqrt(2 * in.h / (in.k * in.t0))
+	g := output.Grid{Header: []string{"quantity", "value", "unit"}, Left: 1}
+	add := func(q, v, unit string) { g.Rows = append(g.Rows, []string{q, v, unit}) }
+	add("profile", in.profile, "")
+	add("conductivity ("+in.alloy.Name+" at the wall temperature)", output.Num(in.k, 1), "W/mK")
+	add("fin parameter m = sqrt(2h/(k t_root))", output.Num(m, 2), "1/m")
+	add("m x height", output.Num(m*in.L, 3), "-")
+	add("Biot number h t_root/(2k)", fmt.Sprintf("%.2g", in.h*in.t0/(2*in.k)), "-")
+	add("fin efficiency (closed form)", output.Num(eta, 4), "-")
+	add("fin efficiency (finite-volume check, 400 cells)", output.Num(sol.Efficiency, 4), "-")
+	add("heated area "+per, output.Num(u.Area(area)*map[bool]float64{true: 1e4, false: 1}[!u.US && annular], 2), map[bool]string{true: "cm2", false: u.AreaU()}[!u.US && annular])
+	add("heat rate "+per+" at "+fmtT(u, in.tw)+" wall, "+fmtT(u, in.ta)+" air ("+u.TempU()+")", output.Num(q, 1), "W")
+	doc := output.Doc{Title: "Single fin", Grids: []output.Grid{g}, Caution: true,
+		Notes: []string{"Efficiency is heat over the heat of the whole fin at the root temperature; sources in 'go doc finmarch/fins'."}}
+	for _, w := range log.Warnings() {
+		doc.Warnings = append(doc.Warnings, w.String())
+	}
+	doc.JSON = map[string]any{"profile": in.profile, "efficiency": eta, "solver_efficiency": sol.Efficiency, "heat_rate_W": q,
+		"area_m2": area, "m_per_m": m, "mL": m * in.L, "biot": in.h * in.t0 / (2 * in.k), "per": per, "warnings": doc.Warnings, "caution": output.Caution}
+	return e.emit(doc)
+}

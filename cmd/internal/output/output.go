@@ -1,0 +1,202 @@
+// Package output renders finmarch results for people (tables, Markdown)
+// and for programs (CSV, JSON), in metric or US units. It is the only place
+// where SI values become display units.
+package output
+
+import (
+	"encoding/csv"
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"strconv"
+	"strings"
+
+	"github.com/olekukonko/tablewriter"
+	"github.com/olekukonko/tablewriter/renderer"
+	"github.com/olekukonko/tablewriter/tw"
+)
+
+// Caution is printed with every estimate.
+const Caution = "Caution: this is an estimate, not a measurement. Measure head temperature on the running engine " +
+	"(a spark-plug-seat thermocouple), and follow the engine maker's limits, local regulations and qualified practice. " +
+	"An overheated engine can seize."
+
+// Format is an output format.
+type Format string
+
+// The formats.
+const (
+	Table    Format = "table"
+	Markdown Format = "markdown"
+	CSV      Format = "csv"
+	JSON     Format = "json"
+)
+
+// ParseFormat checks a --format value.
+func ParseFormat(s string) (Format, error) {
+	switch f := Format(strings.ToLower(s)); f {
+	case Table, Markdown, CSV, JSON:
+		return f, nil
+	case "md":
+		return Markdown, nil
+	}
+	return "", fmt.Errorf("format %q: use table, markdown, csv or json", s)
+}
+
+// Grid is one table of a document.
+type Grid struct {
+	Title  string
+	Header []string
+	Rows   [][]string
+	Left   int // number of leading columns aligned left (labels)
+}
+
+// Doc is what a command prints.
+type Doc struct {
+	Title    string
+	Grids    []Grid   // the first is the primary grid, the one CSV writes
+	Notes    []string // explanations printed after the tables
+	Warnings []string // also sent to stderr by the caller
+	Caution  bool
+	JSON     any // the structured payload for --format json
+}
+
+// Write renders d to w in format f.
+func Write(w io.Writer, d Doc, f Format) error {
+	switch f {
+	case JSON:
+		enc := json.NewEncoder(w)
+		enc.SetIndent("", "  ")
+		return enc.Encode(d.JSON)
+	case CSV:
+		if len(d.Grids) == 0 {
+			return nil
+		}
+		cw := csv.NewWriter(w)
+		g := d.Grids[0]
+		if err := cw.Write(g.Header); err != nil {
+			return err
+		}
+		for _, r := range g.Rows {
+			if err := cw.Write(r); err != nil {
+				return err
+			}
+		}
+		cw.Flush()
+		return cw.Error()
+	case Markdown:
+		if d.Title != "" {
+			fmt.Fprintf(w, "## %s\n\n", d.Title)
+		}
+		for _, g := range d.Grids {
+			if g.Title != "" {
+				fmt.Fprintf(w, "**%s**\n\n", g.Title)
+			}
+			t := tablewriter.NewTable(w, tablewriter.WithRenderer(renderer.NewMarkdown()),
+				tablewriter.WithConfig(config(g)), tablewriter.WithHeaderAutoFormat(tw.Off))
+			if err := fill(t, g); err != nil {
+				return err
+			}
+			fmt.Fprintln(w)
+		}
+		for _, n := range d.Notes {
+			fmt.Fprintf(w, "- %s\n", n)
+		}
+		if len(d.Warnings) > 0 {
+			fmt.Fprintln(w)
+			for _, n := range d.Warnings {
+				fmt.Fprintf(w, "- Warning: %s\n", n)
+			}
+		}
+		if d.Caution {
+			fmt.Fprintf(w, "\n> %s\n", Caution)
+		}
+		return nil
+	default:
+		if d.Title != "" {
+			fmt.Fprintf(w, "%s\n\n", d.Title)
+		}
+		for _, g := range d.Grids {
+			if g.Title != "" {
+				fmt.Fprintf(w, "%s\n", g.Title)
+			}
+			t := tablewriter.NewTable(w,
+				tablewriter.WithRenderer(renderer.NewBlueprint(tw.Rendition{Symbols: tw.NewSymbols(tw.StyleASCII)})),
+				tablewriter.WithConfig(config(g)), tablewriter.WithHeaderAutoFormat(tw.Off))
+			if err := fill(t, g); err != nil {
+				return err
+			}
+			fmt.Fprintln(w)
+		}
+		for _, n := range d.Notes {
+			fmt.Fprintln(w, wrap(n, 100, "  "))
+		}
+		if d.Caution {
+			fmt.Fprintf(w, "\n%s\n", wrap(Caution, 100, ""))
+		}
+		return nil
+	}
+}
+
+func config(g Grid) tablewriter.Config {
+	al := make([]tw.Align, len(g.Header))
+	for i := range al {
+		if i < g.Left {
+			al[i] = tw.AlignLeft
+		} else {
+			al[i] = tw.AlignRight
+		}
+	}
+	return tablewriter.Config{Row: tw.CellConfig{Alignment: tw.CellAlignment{PerColumn: al}}}
+}
+
+func fill(t *tablewriter.Table, g Grid) error {
+	h := make([]any, len(g.Header))
+	for i, s := range g.Header {
+		h[i] = s
+	}
+	t.Header(h...)
+	for _, r := range g.Rows {
+		row := make([]any, len(r))
+		for i, s := range r {
+			row[i] = s
+		}
+		if err := t.Append(row...); err != nil {
+			return err
+		}
+	}
+	return t.Render()
+}
+
+// wrap folds a note at width with an indent on continuation lines.
+func wrap(s string, width int, indent string) string {
+	words := strings.Fields(s)
+	var b strings.Builder
+	col := 0
+	for i, w := range words {
+		if i > 0 && col+1+len(w) > width {
+			b.WriteString("\n" + indent)
+			col = len(indent)
+		} else if i > 0 {
+			b.WriteByte(' ')
+			col++
+		}
+		b.WriteString(w)
+		col += len(w)
+	}
+	return b.String()
+}
+
+// Num formats a finite value with the given decimals; NaN and Inf become
+// "n/a" so that no NaN reaches a table.
+func Num(v float64, dec int) string {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return "n/a"
+	}
+	s := strconv.FormatFloat(v, 'f', dec, 64)
+	if s == "-0" || strings.HasPrefix(s, "-0.") && strings.Trim(s[3:], "0") == "" {
+		s = strings.TrimPrefix(s, "-")
+	}
+	return s
+}
