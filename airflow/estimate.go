@@ -29,6 +29,10 @@ const (
 	// (common practice; it lumps the blockage of frame, tank and legs and
 	// should be calibrated against a measured head temperature).
 	DefaultRecovery = 0.5
+	// minDrive is the driving pressure (Pa) below which a passage is taken
+	// to have no forced flow: a road-speed component under about 1 mm/s,
+	// such as cos 90 deg in floating point.
+	minDrive = 1e-6
 	// SaneWallLimit is the highest wall temperature the balance searches,
 	// 500 C: aluminium heads are long past their limits there.
 	SaneWallLimit = 773.15
@@ -258,7 +262,7 @@ func (p *prepared) friction(pt Path, v float64) float64 {
 // dp = 0.5 rho V^2 (K_in + K_out + 4 f_app L/Dh), and returns the mass
 // flow per path (kg/s).
 func (p *prepared) parallelFlow(pt Path, dp float64) (float64, error) {
-	if dp <= 0 {
+	if dp <= minDrive {
 		return 0, nil
 	}
 	rho := p.amb.Rho
@@ -266,19 +270,31 @@ func (p *prepared) parallelFlow(pt Path, dp float64) (float64, error) {
 		return 0.5*rho*v*v*(p.kin+p.kout+p.friction(pt, v)) - dp
 	}
 	vmax := math.Sqrt(2*dp/(rho*(p.kin+p.kout))) * 1.0001
-	v, err := roots.Brent(g, 1e-12, vmax, 1e-10*vmax, 200)
+	v, err := roots.Brent(g, 1e-9*vmax, vmax, 1e-10*vmax, 200)
 	if err != nil {
 		return 0, fmt.Errorf("passage velocity: %w", err)
 	}
 	return rho * v * pt.FlowArea, nil
 }
 
+// change is the loss, in units of 0.5 rho, where the flow passes from the
+// head passages (velocity v1, total area a1) to the barrel passages (v2,
+// a2): a sudden expansion loses (v1 - v2)^2 (Borda-Carnot); a sudden
+// contraction loses 0.5 (1 - a2/a1) v2^2 (the common approximation of
+// Idelchik 1994, Diagram 3-9; from memory).
+func change(v1, v2, a1, a2 float64) float64 {
+	if v1 >= v2 {
+		return sq(v1 - v2)
+	}
+	return 0.5 * (1 - a2/a1) * v2 * v2
+}
+
 // seriesFlow solves the total mass flow (kg/s) through the head passages
-// and then the barrel passages: entry loss and friction in the head,
-// a Borda-Carnot loss 0.5 rho (V_h - V_b)^2 at the change of passage
-// (Idelchik 1994, from memory), friction and exit loss in the barrel.
+// and then the barrel passages: entry loss and friction in the head, the
+// loss of the change of passage area, friction and exit loss in the
+// barrel.
 func (p *prepared) seriesFlow(dp float64) (float64, error) {
-	if dp <= 0 {
+	if dp <= minDrive {
 		return 0, nil
 	}
 	rho := p.amb.Rho
@@ -286,10 +302,10 @@ func (p *prepared) seriesFlow(dp float64) (float64, error) {
 	ab := float64(p.bp.Paths) * p.bp.FlowArea
 	g := func(w float64) float64 {
 		vh, vb := w/(rho*ah), w/(rho*ab)
-		return 0.5*rho*(vh*vh*(p.kin+p.friction(p.hp, vh))+sq(vh-vb)+vb*vb*(p.kout+p.friction(p.bp, vb))) - dp
+		return 0.5*rho*(vh*vh*(p.kin+p.friction(p.hp, vh))+change(vh, vb, ah, ab)+vb*vb*(p.kout+p.friction(p.bp, vb))) - dp
 	}
 	wmax := math.Sqrt(2*dp*rho/(p.kin/(ah*ah)+p.kout/(ab*ab))) * 1.0001
-	w, err := roots.Brent(g, 1e-15, wmax, 1e-10*wmax, 200)
+	w, err := roots.Brent(g, 1e-9*wmax, wmax, 1e-10*wmax, 200)
 	if err != nil {
 		return 0, fmt.Errorf("series passage flow: %w", err)
 	}

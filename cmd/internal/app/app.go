@@ -65,6 +65,9 @@ func Run(args []string, stdout, stderr io.Writer) (code int) {
 	}()
 	e := &env{stdout: stdout, stderr: stderr, opt: &options{}}
 	root := e.rootCmd()
+	if args == nil {
+		args = []string{} // cobra reads os.Args when given nil
+	}
 	root.SetArgs(args)
 	root.SetOut(stdout)
 	root.SetErr(stderr)

@@ -121,7 +121,11 @@ func (e *env) estimate(d *design.Design) error {
 		row("Reynolds number (2 x gap)", "-", pair(func(r airflow.SetResult) string { return output.Num(r.Reynolds, 0) })),
 		row("flow regime", "", pair(func(r airflow.SetResult) string { return r.Regime })),
 		row("air paths x path length", u.LenU(), pair(func(r airflow.SetResult) string {
-			return fmt.Sprintf("%d x %s", r.Paths, output.Num(u.Len(r.PathLength), 0))
+			dec := 0
+			if u.US {
+				dec = 1
+			}
+			return fmt.Sprintf("%d x %s", r.Paths, output.Num(u.Len(r.PathLength), dec))
 		})),
 		row("mean h (forced)", u.HU(), pair(func(r airflow.SetResult) string { return output.Num(u.H(r.MeanH), 1) })),
 		row("fin efficiency", "-", pair(func(r airflow.SetResult) string { return output.Num(r.FinEfficiency, 3) })),

@@ -369,6 +369,7 @@ type rangeCheck struct {
 	offset   float64
 	required bool
 	set      bool
+	bare     bool
 }
 
 func (r rangeCheck) show(v float64) string {
@@ -383,16 +384,20 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 	}
 	def := func(key, what string) { d.Defaults = append(d.Defaults, key+": "+what) }
 	checks := []rangeCheck{}
-	need := func(key string, q interface{ Or(float64) float64 }, set bool, lo, hi float64, unit string, scale, offset float64) float64 {
-		checks = append(checks, rangeCheck{key: key, v: q.Or(math.NaN()), lo: lo, hi: hi, unit: unit, scale: scale, offset: offset, required: true, set: set})
+	type quantity interface {
+		Or(float64) float64
+		IsBare() bool
+	}
+	need := func(key string, q quantity, set bool, lo, hi float64, unit string, scale, offset float64) float64 {
+		checks = append(checks, rangeCheck{key: key, v: q.Or(math.NaN()), lo: lo, hi: hi, unit: unit, scale: scale, offset: offset, required: true, set: set, bare: q.IsBare()})
 		return q.Or(math.NaN())
 	}
-	opt := func(key string, q interface{ Or(float64) float64 }, set bool, dflt, lo, hi float64, unit string, scale, offset float64, why string) float64 {
+	opt := func(key string, q quantity, set bool, dflt, lo, hi float64, unit string, scale, offset float64, why string) float64 {
 		if !set {
 			def(key, why)
 			return dflt
 		}
-		checks = append(checks, rangeCheck{key: key, v: q.Or(dflt), lo: lo, hi: hi, unit: unit, scale: scale, offset: offset, set: true})
+		checks = append(checks, rangeCheck{key: key, v: q.Or(dflt), lo: lo, hi: hi, unit: unit, scale: scale, offset: offset, set: true, bare: q.IsBare()})
 		return q.Or(dflt)
 	}
 	const mm, C = 1e-3, 273.15
@@ -578,7 +583,7 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 			add(r.key, "missing (%s)", rangeText(r))
 		case math.IsNaN(r.v) || r.v < r.lo || r.v > r.hi:
 			msg := fmt.Sprintf("%s %s is outside the allowed range %s", r.show(r.v), r.unit, rangeText(r))
-			if hint := unitHint(r.key); hint != "" {
+			if hint := unitHint(r.key); hint != "" && r.bare {
 				msg += "; " + hint
 			}
 			add(r.key, "%s", strings.Replace(msg, "  ", " ", -1))

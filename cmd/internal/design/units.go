@@ -190,8 +190,9 @@ func (SpecificHeat) dim() *dimension { return dimSpecificHeat }
 // Q is a quantity read from the design file, held in SI. Set records
 // whether the key was present.
 type Q[D Dim] struct {
-	SI  float64
-	Set bool
+	SI   float64
+	Set  bool
+	Bare bool // written as a bare number (taken as SI)
 }
 
 // UnmarshalTOML implements toml.Unmarshaler.
@@ -201,9 +202,13 @@ func (q *Q[D]) UnmarshalTOML(v any) error {
 	if err != nil {
 		return err
 	}
-	q.SI, q.Set = si, true
+	_, isStr := v.(string)
+	q.SI, q.Set, q.Bare = si, true, !isStr
 	return nil
 }
+
+// IsBare reports a value written without a unit.
+func (q Q[D]) IsBare() bool { return q.Bare }
 
 // Or returns the value, or def when the key was absent.
 func (q Q[D]) Or(def float64) float64 {

@@ -1,0 +1,201 @@
+package app
+
+import (
+	"bytes"
+	"encoding/json"
+	"flag"
+	"os"
+	"path/filepath"
+	"regexp"
+	"strings"
+	"testing"
+
+	"finmarch/cmd/internal/demo"
+)
+
+var update = flag.Bool("update", false, "rewrite the golden files of the command-line tests")
+
+const goldenDir = "../../../testdata/golden"
+
+func run(t *testing.T, args ...string) (string, string, int) {
+	t.Helper()
+	var out, errb bytes.Buffer
+	code := Run(args, &out, &errb)
+	return out.String(), errb.String(), code
+}
+
+// designs writes the two demo designs to a temporary folder.
+func designs(t *testing.T) (string, string) {
+	dir := t.TempDir()
+	up := filepath.Join(dir, "upright.toml")
+	lo := filepath.Join(dir, "laid-over.toml")
+	if err := os.WriteFile(up, demo.Upright, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(lo, demo.LaidOver, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return up, lo
+}
+
+var tmpPath = regexp.MustCompile(`/tmp/[^ ]*/(upright|laid-over)\.toml`)
+
+func golden(t *testing.T, name, got string) {
+	t.Helper()
+	got = tmpPath.ReplaceAllString(got, "$1.toml")
+	path := filepath.Join(goldenDir, name)
+	if *update {
+		if err := os.WriteFile(path, []byte(got), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		return
+	}
+	want, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatalf("%v (run go test ./cmd/internal/app -update to create it)", err)
+	}
+	if string(want) != got {
+		t.Errorf("%s differs from the golden file; if the change is intended, run go test ./cmd/internal/app -update and review the diff.\n--- got ---\n%s", name, got)
+	}
+}
+
+// Golden tests of every subcommand's output (the numbers are this
+// program's own; the golden files catch unintended changes, while the
+// physics is checked against outside sources in fins and airflow).
+func TestGoldenOutputs(t *testing.T) {
+	up, lo := designs(t)
+	cases := []struct {
+		name string
+		args []string
+	}{
+		{"demo.txt", nil},
+		{"estimate.txt", []string{"estimate", up}},
+		{"estimate-us.md", []string{"estimate", "--units", "us", "--format", "markdown", lo}},
+		{"compare.txt", []string{"compare", up, lo}},
+		{"tilt.txt", []string{"tilt", "--step", "30", up}},
+		{"march.csv", []string{"march", "--format", "csv", "--segments", "8", lo}},
+		{"speeds.txt", []string{"speeds", "--from", "30 km/h", "--to", "150 km/h", "--step", "30 km/h", up}},
+		{"fin.txt", []string{"fin", "--profile", "annular-tapered", "--height", "35mm", "--root-thickness", "4mm", "--tip-thickness", "2mm", "--root-diameter", "90mm", "--h", "60 W/m2K"}},
+		{"alloys.txt", []string{"alloys"}},
+	}
+	for _, c := range cases {
+		out, errs, code := run(t, c.args...)
+		if code != 0 && c.name != "compare.txt" && c.name != "demo.txt" {
+			t.Errorf("%s: exit %d: %s", c.name, code, errs)
+		}
+		golden(t, c.name, out)
+	}
+}
+
+func TestEstimateJSON(t *testing.T) {
+	up, lo := designs(t)
+	for _, f := range []string{up, lo} {
+		out, errs, code := run(t, "estimate", "--format", "json", f)
+		if code != 0 && code != ExitModel {
+			t.Fatalf("exit %d: %s", code, errs)
+		}
+		var v map[string]any
+		if err := json.Unmarshal([]byte(out), &v); err != nil {
+			t.Fatalf("not JSON: %v\n%s", err, out)
+		}
+		res := v["result"].(map[string]any)
+		for _, set := range []string{"head", "barrel"} {
+			s := res[set].(map[string]any)
+			for _, k := range []string{"heat_rejected_W", "wall_temperature_K", "mean_h_W_m2K", "fin_efficiency", "air_inlet_K", "air_outlet_K", "passage_velocity_m_s", "march"} {
+				if _, ok := s[k]; !ok {
+					t.Errorf("%s: JSON lacks %s.%s", f, set, k)
+				}
+			}
+		}
+		if imb := v["energy_imbalance"].(float64); !(imb < 1e-6) {
+			t.Errorf("energy imbalance %g", imb)
+		}
+		if !strings.Contains(v["caution"].(string), "not a measurement") {
+			t.Error("JSON lacks the caution")
+		}
+	}
+}
+
+func TestExitCodesAndFiles(t *testing.T) {
+	up, _ := designs(t)
+	dir := filepath.Dir(up)
+	if _, _, code := run(t, "estimate"); code != ExitUsage {
+		t.Errorf("missing argument: exit %d", code)
+	}
+	if _, _, code := run(t, "frobnicate"); code != ExitUsage {
+		t.Errorf("unknown command: exit %d", code)
+	}
+	if _, e, code := run(t, "estimate", filepath.Join(dir, "nope.toml")); code != ExitIO || !strings.Contains(e, "cannot read") {
+		t.Errorf("missing file: exit %d %s", code, e)
+	}
+	bad := filepath.Join(dir, "bad.toml")
+	os.WriteFile(bad, []byte(strings.Replace(string(demo.Upright), `pitch = "9 mm"`, `pitch = "9 mmm"`, 1)), 0o644)
+	if _, e, code := run(t, "estimate", bad); code != ExitDesign || !strings.Contains(e, "bad.toml:21: head.pitch") {
+		t.Errorf("bad design: exit %d %s", code, e)
+	}
+	// new refuses to overwrite; --force allows it
+	if _, e, code := run(t, "new", up); code != ExitIO || !strings.Contains(e, "already exists") {
+		t.Errorf("new over an existing file: exit %d %s", code, e)
+	}
+	fresh := filepath.Join(dir, "fresh.toml")
+	if _, _, code := run(t, "new", fresh); code != 0 {
+		t.Fatal("new failed")
+	}
+	if _, _, code := run(t, "estimate", fresh); code != 0 {
+		t.Error("the starter design does not estimate cleanly")
+	}
+	// --output writes atomically and does not overwrite without --force
+	outf := filepath.Join(dir, "r.csv")
+	if _, _, code := run(t, "estimate", "-f", "csv", "-o", outf, up); code != 0 {
+		t.Fatal("--output failed")
+	}
+	before, _ := os.ReadFile(outf)
+	if _, _, code := run(t, "estimate", "-f", "json", "-o", outf, up); code != ExitIO {
+		t.Errorf("overwrote without --force: exit %d", code)
+	}
+	after, _ := os.ReadFile(outf)
+	if !bytes.Equal(before, after) {
+		t.Error("file changed without --force")
+	}
+	if _, _, code := run(t, "estimate", "-f", "json", "-o", outf, "--force", up); code != 0 {
+		t.Error("--force refused")
+	}
+	ents, _ := os.ReadDir(dir)
+	for _, e := range ents {
+		if strings.Contains(e.Name(), ".tmp-") {
+			t.Errorf("temporary file left behind: %s", e.Name())
+		}
+	}
+	if _, _, code := run(t, "estimate", "--format", "xml", up); code != ExitUsage {
+		t.Errorf("bad format: exit %d", code)
+	}
+}
+
+// The README's first two commands: the demo and the tests.
+func TestReadmeCommands(t *testing.T) {
+	b, err := os.ReadFile("../../../README.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var cmds []string
+	in := false
+	for _, l := range strings.Split(string(b), "\n") {
+		if strings.HasPrefix(l, "```") {
+			in = !in
+			continue
+		}
+		if in && strings.TrimSpace(l) != "" {
+			cmds = append(cmds, strings.TrimSpace(l))
+		}
+		if len(cmds) >= 2 {
+			break
+		}
+	}
+	if len(cmds) < 2 || cmds[0] != "go run ./cmd/finmarch" || cmds[1] != "go test ./..." {
+		t.Fatalf("README must open with the demo and test commands, found %q", cmds)
+	}
+	out, _, code := run(t)
+	if code != 0 || !strings.Contains(out, "upright against laid over") || !strings.Contains(out, "not a measurement") {
+		t.Errorf("the demo (README's first command) failed: exit %d\n%s", code, out)
+	}
+}
