@@ -503,3 +503,29 @@ func BenchmarkSolve200(b *testing.B) {
 		sink += sol.Efficiency
 	}
 }
+
+// Restyle keeps heights, thicknesses and the mean gap, and gives a valid
+// set of the other style; a round trip returns close to the start.
+func TestRestyle(t *testing.T) {
+	a := Set{Style: StyleAnnular, Count: 8, Pitch: 0.009, Height: 0.04, RootThickness: 0.004, TipThickness: 0.002, RootDiameter: 0.12, Length: 0.072}
+	ga, _ := a.Geometry()
+	l, err := a.Restyle(StyleLongitudinal)
+	if err != nil {
+		t.Fatal(err)
+	}
+	gl, _ := l.Geometry()
+	if l.Style != StyleLongitudinal || l.Height != a.Height || l.RootThickness != a.RootThickness {
+		t.Fatalf("restyle changed the wrong things: %+v", l)
+	}
+	// the count is rounded down, so the gap can only grow, by less than one pitch's share
+	if !(gl.GapMean >= ga.GapMean-1e-12 && gl.GapMean < ga.GapMean*1.05) {
+		t.Errorf("mean gap %.3f mm against %.3f mm", gl.GapMean*1e3, ga.GapMean*1e3)
+	}
+	back, err := l.Restyle(StyleAnnular)
+	if err != nil || back.Count < a.Count-1 || back.Count > a.Count {
+		t.Errorf("round trip: %+v %v", back, err)
+	}
+	if same, _ := a.Restyle(StyleAnnular); same != a {
+		t.Error("restyle to the same style must not change the set")
+	}
+}

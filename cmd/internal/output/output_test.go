@@ -1,0 +1,82 @@
+package output
+
+import (
+	"bytes"
+	"encoding/json"
+	"math"
+	"strings"
+	"testing"
+)
+
+// Display conversions against their definitions: F = C 9/5 + 32, mph =
+// 0.44704 m/s, inch = 25.4 mm, lb = 0.45359237 kg (exact by definition);
+// 1 Btu/(h ft2 F) = 5.678263 W/(m2 K) (NIST SP 811, 2008, Appendix B).
+func TestUnits(t *testing.T) {
+	us := Units{US: true}
+	m := Units{}
+	near := func(name string, got, want float64) {
+		t.Helper()
+		if math.Abs(got-want) > 1e-9*math.Max(1, math.Abs(want)) {
+			t.Errorf("%s = %.12g, want %.12g", name, got, want)
+		}
+	}
+	near("C", m.Temp(373.15), 100)
+	near("F", us.Temp(373.15), 212)
+	near("dF", us.TempDiff(10), 18)
+	near("km/h", m.Road(25), 90)
+	near("mph", us.Road(26.8224), 60)
+	near("in", us.Len(0.0254), 1)
+	near("mm", m.Len(0.0254), 25.4)
+	near("lb", us.Mass(0.45359237), 1)
+	near("Btu h", us.H(5.678263), 1)
+	near("ft2", us.Area(0.09290304), 1)
+	near("inHg", us.Press(3386.389), 1)
+	if _, err := ParseUnits("cubits"); err == nil {
+		t.Error("bad units accepted")
+	}
+}
+
+func TestNum(t *testing.T) {
+	cases := map[float64]string{1.25: "1.2", -0.04: "0.0", math.NaN(): "n/a", math.Inf(1): "n/a", 12.36: "12.4"}
+	for v, want := range cases {
+		if got := Num(v, 1); got != want {
+			t.Errorf("Num(%g) = %q, want %q", v, got, want)
+		}
+	}
+}
+
+func TestWriteFormats(t *testing.T) {
+	d := Doc{Title: "T", Grids: []Grid{{Title: "g", Header: []string{"q", "v (C)"}, Rows: [][]string{{"a", "1"}, {"b, c", "2"}}, Left: 1}},
+		Notes: []string{"note"}, Warnings: []string{"w"}, Caution: true, JSON: map[string]any{"x": 1.5}}
+	var b bytes.Buffer
+	if err := Write(&b, d, Table); err != nil || !strings.Contains(b.String(), "v (C)") || !strings.Contains(b.String(), "not a measurement") {
+		t.Errorf("table: %v\n%s", err, b.String())
+	}
+	b.Reset()
+	if err := Write(&b, d, Markdown); err != nil || !strings.Contains(b.String(), "|:--") || !strings.Contains(b.String(), "> Caution") {
+		t.Errorf("markdown: %v\n%s", err, b.String())
+	}
+	b.Reset()
+	if err := Write(&b, d, CSV); err != nil || b.String() != "q,v (C)\na,1\n\"b, c\",2\n" {
+		t.Errorf("csv: %v\n%q", err, b.String())
+	}
+	b.Reset()
+	if err := Write(&b, d, JSON); err != nil {
+		t.Fatal(err)
+	}
+	var v map[string]float64
+	if json.Unmarshal(b.Bytes(), &v) != nil || v["x"] != 1.5 {
+		t.Errorf("json: %s", b.String())
+	}
+	// NaN never reaches JSON output: encoding refuses it
+	b.Reset()
+	if err := Write(&b, Doc{JSON: map[string]float64{"x": math.NaN()}}, JSON); err == nil {
+		t.Error("NaN encoded")
+	}
+	if _, err := ParseFormat("xml"); err == nil {
+		t.Error("xml accepted")
+	}
+	if f, _ := ParseFormat("md"); f != Markdown {
+		t.Error("md alias")
+	}
+}
