@@ -509,7 +509,11 @@ func (c Case) Balance(load HeatLoad) (Result, error) {
 	}
 	solve := func(fs FinSet, g fins.Geometry, pt Path, tin, mdot, q float64) (SetResult, marchOut, error) {
 		if q == 0 {
-			r, m := p.setHeat(fs, g, pt, c.Ambient+1e-9, tin, mdot, true)
+			// no load: the wall sits at the temperature of the air it meets
+			keep := p.log
+			p.log = nil
+			r, m := p.setHeat(fs, g, pt, tin+1e-9, tin, mdot, true)
+			p.log = keep
 			return r, m, nil
 		}
 		// the search must not record range warnings for trial wall

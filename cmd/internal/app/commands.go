@@ -580,15 +580,25 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 				bt = "over " + fmtT(u, airflow.SaneWallLimit)
 			}
 		}
+		st, margin := o.status(), fmtDT(u, o.headMargin())
+		if !o.fixed && o.load.Head == 0 && o.load.Barrel == 0 {
+			st, margin, ht, bt = "no load", "-", "-", "-"
+		}
 		g.Rows = append(g.Rows, []string{output.Num(u.Road(v), 0), output.Num(o.res.Head.HeatLoad, 0), output.Num(o.res.Barrel.HeatLoad, 0),
-			ht, bt, fmtDT(u, o.headMargin()), o.status()})
+			ht, bt, margin, st})
 		rows = append(rows, map[string]any{"speed_m_s": v, "load": o.load, "head": summary(o.res.Head), "barrel": summary(o.res.Barrel),
 			"head_margin_K": o.headMargin(), "status": o.status(), "equilibrium": o.err == nil})
 	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: road-speed sweep, ambient %s %s, tilt %.0f deg", d.Name, fmtT(u, d.Case.Ambient), T, d.Case.Tilt*180/math.Pi),
 		Grids: []output.Grid{g}, Caution: true}
 	if !d.Load.Direct {
-		doc.Notes = append(doc.Notes, "The heat load follows the road load at each speed. At 0 speed the road load is nil; give head_heat and barrel_heat for an idle check.")
+		note := "The heat load follows the road load at each speed."
+		if d.Load.IdleSet {
+			note += fmt.Sprintf(" It never falls below load.idle_heat = %.0f W, the engine at idle.", d.Load.Idle)
+		} else if from == 0 {
+			note += " At 0 speed the road load is nil: set load.idle_heat (heat to the fins at idle) for an idle check."
+		}
+		doc.Notes = append(doc.Notes, note)
 	} else {
 		doc.Notes = append(doc.Notes, "The heat load is the design's fixed head_heat and barrel_heat at every speed.")
 	}

@@ -78,6 +78,7 @@ type LoadT struct {
 	Cylinders           int         `toml:"cylinders"`
 	Grade               Q[Percent]  `toml:"grade"`
 	ExtraPower          Q[Power]    `toml:"extra_power"`
+	IdleHeat            Q[Power]    `toml:"idle_heat"`
 }
 
 // LimitsT is the [limits] table.
@@ -108,6 +109,8 @@ type LoadSpec struct {
 	Direct       bool
 	Head, Barrel float64 // W, when Direct
 	Road         airflow.RoadLoad
+	Idle         float64 // W to the fins of one cylinder at idle, the least the road load gives (road load only)
+	IdleSet      bool
 }
 
 // Design is a checked design, ready for the physics.
@@ -131,7 +134,15 @@ func (d *Design) Heat(v float64) (airflow.HeatLoad, error) {
 		return airflow.HeatLoad{Head: d.Load.Head, Barrel: d.Load.Barrel}, nil
 	}
 	rho := d.Case.Pressure / (airflow.RAir * d.Case.Ambient)
-	return d.Load.Road.Heat(v, rho)
+	l, err := d.Load.Road.Heat(v, rho)
+	if err != nil {
+		return l, err
+	}
+	// the engine never rejects less than at idle
+	if h := d.Load.Road.HeadShare; d.Load.IdleSet && l.Head+l.Barrel < d.Load.Idle {
+		l.Head, l.Barrel = h*d.Load.Idle, (1-h)*d.Load.Idle
+	}
+	return l, nil
 }
 
 // Error is one problem in a design file.
@@ -551,6 +562,10 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 		r.CoolShare = opt("load.cooling_share", l.CoolingShare, l.CoolingShare.Set, airflow.DefaultCoolShare, 0.05, 0.6, "", 1, 0, "0.22 (Heywood 1988 Table 12.1; from memory)")
 		r.HeadShare = opt("load.head_share", l.HeadShare, l.HeadShare.Set, airflow.DefaultHeadShare, 0, 1, "", 1, 0, "0.65 (common practice)")
 		r.GradePct = opt("load.grade", l.Grade, l.Grade.Set, 0, -20, 20, "%", 1, 0, "0 % (level road)")
+		if l.IdleHeat.Set {
+			d.Load.IdleSet = true
+			d.Load.Idle = opt("load.idle_heat", l.IdleHeat, true, 0, 0, 20e3, "kW", 1e3, 0, "")
+		}
 		r.ExtraPowerW = opt("load.extra_power", l.ExtraPower, l.ExtraPower.Set, 0, 0, 100e3, "kW", 1e3, 0, "0 W")
 		r.Cylinders = 1
 		if md.IsDefined("load", "cylinders") {

@@ -274,3 +274,26 @@ func FuzzQuantity(f *testing.F) {
 		}
 	})
 }
+
+// The idle heat is the floor of the road load and the load at speed 0.
+func TestIdleHeat(t *testing.T) {
+	d, err := Parse(demo.Upright, "u.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !d.Load.IdleSet || d.Load.Idle != 500 {
+		t.Fatalf("idle heat %g", d.Load.Idle)
+	}
+	for _, v := range []float64{0, 3, 25} {
+		l, err := d.Heat(v)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if l.Head+l.Barrel < 500-1e-9 {
+			t.Errorf("at %g m/s the load %g W is below idle", v, l.Head+l.Barrel)
+		}
+	}
+	if l, _ := d.Heat(25); l.Head+l.Barrel <= 500 {
+		t.Error("cruise load should exceed idle")
+	}
+}
