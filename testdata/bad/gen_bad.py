@@ -1,0 +1,192 @@
+#!/usr/bin/python3
+"""Writes the corpus of bad design files and expect.tsv (file, exit code,
+line, message fragment). Run from the repository root:
+
+    /usr/bin/python3 testdata/bad/gen_bad.py
+
+The Go test cmd/internal/app TestBadDesignCorpus runs every file through
+the real command and checks the exit code, the line and the message.
+"""
+import os
+base = '''name = "corpus base"
+
+[cylinder]
+tilt = "0 deg"
+head_diameter = "120 mm"
+head_length = "72 mm"
+barrel_diameter = "92 mm"
+barrel_length = "108 mm"
+
+[head]
+style = "annular"
+count = 8
+pitch = "9 mm"
+height = "40 mm"
+root_thickness = "4 mm"
+tip_thickness = "2 mm"
+alloy = "A356-T6"
+finish = "as-cast"
+
+[barrel]
+style = "annular"
+count = 12
+pitch = "9 mm"
+height = "30 mm"
+root_thickness = "3.5 mm"
+tip_thickness = "1.8 mm"
+alloy = "A356-T6"
+finish = "painted"
+
+[air]
+speed = "90 km/h"
+pressure_recovery = 0.5
+ambient = "35 C"
+altitude = "0 m"
+
+[load]
+mass = "230 kg"
+cda = "0.45 m2"
+
+[limits]
+head = "220 C"
+'''
+L = base.split('\n')
+def line_of(text, start=0):
+    for i, l in enumerate(L):
+        if i >= start and l.strip().startswith(text):
+            return i + 1
+    raise SystemExit('no line ' + text)
+def barrel_line(text):
+    return line_of(text, line_of('[barrel]') - 1)
+
+cases = []  # (name, content, exit, line, fragment)
+def repl(name, old, new, frag, line=None, exit=3, count=1, after=None, mark=None):
+    src = base
+    if after is not None:
+        idx = src.index(after)
+        head, tail = src[:idx], src[idx:]
+        assert old in tail, old
+        src = head + tail.replace(old, new, 1)
+    else:
+        assert old in src, old
+        src = src.replace(old, new, count)
+    if line is None:
+        # the line where the new text starts, or where its marked part is
+        pos = src.index(new) if after is None else src.index(new, src.index(after))
+        if mark is not None:
+            pos = src.index(mark, pos)
+        line = src[:pos].count('\n') + 1
+    cases.append((name, src, exit, line, frag))
+
+# syntax
+repl('syntax-unclosed-table', '[head]', '[head', "expected '.' or ']'", line=11)
+repl('syntax-unterminated-string', 'name = "corpus base"', 'name = "corpus base', 'newlines', line=1)
+repl('syntax-missing-equals', 'count = 8', 'count 8', 'expected', line=12)
+repl('syntax-duplicate-key', 'count = 8', 'count = 8\ncount = 9', 'already been defined', line=13)
+repl('syntax-duplicate-table', '[limits]', '[head]\n[limits]', 'already been defined', line=None)
+repl('syntax-bad-number', 'count = 8', 'count = 08', 'leading zero', line=12)
+# types
+repl('type-count-float', 'count = 8', 'count = 8.5', 'wrong type', line=12)
+repl('type-count-string', 'count = 8', 'count = "eight"', 'wrong type', line=12)
+repl('type-style-number', 'style = "annular"', 'style = 1', 'wrong type', line=11)
+repl('type-pitch-bool', 'pitch = "9 mm"', 'pitch = true', 'want a number or a quoted length', line=13)
+repl('type-name-table', 'name = "corpus base"', 'name = ["a", "b"]', 'wrong type', line=1)
+repl('type-speed-array', 'speed = "90 km/h"', 'speed = [90]', 'speed', line=None)
+# unknown keys
+repl('unknown-key-typo-pitch', 'pitch = "9 mm"', 'pich = "9 mm"', 'did you mean "head.pitch"', line=13)
+repl('unknown-key-typo-ambient', 'ambient = "35 C"', 'ambiant = "35 C"', 'did you mean "air.ambient"', line=None)
+repl('unknown-key-wrong-table', 'mass = "230 kg"', 'mass = "230 kg"\nspeed2 = 1', 'unknown key', line=None, mark='speed2')
+repl('unknown-table', '[limits]', '[limitz]', 'unknown key', line=None)
+repl('unknown-key-top', 'name = "corpus base"', 'name = "corpus base"\nsegmnts = 40', 'did you mean "segments"', line=2)
+repl('unknown-key-in-wrong-table', 'ambient = "35 C"', 'ambient = "35 C"\ncount = 3', 'did you mean', line=None, mark='count = 3')
+# units
+repl('unit-missing-bare-ambient', 'ambient = "35 C"', 'ambient = 35', 'a bare number is kelvin', line=None)
+repl('unit-missing-string', 'pitch = "9 mm"', 'pitch = "9"', 'has no unit', line=13)
+repl('unit-wrong-kind', 'pitch = "9 mm"', 'pitch = "9 kg"', 'not a length unit', line=13)
+repl('unit-unknown', 'speed = "90 km/h"', 'speed = "90 furlongs/fortnight"', 'not a speed unit', line=None)
+repl('unit-no-number', 'height = "40 mm"', 'height = "mm"', 'has no number', line=14)
+repl('unit-temperature-as-length', 'ambient = "35 C"', 'ambient = "35 m"', 'not a temperature unit', line=None)
+repl('unit-bare-tilt-degrees', 'tilt = "0 deg"', 'tilt = 90', 'a bare number is radians', line=4)
+# sizes
+repl('size-negative-pitch', 'pitch = "9 mm"', 'pitch = "-9 mm"', 'outside the allowed range', line=13)
+repl('size-zero-height', 'height = "40 mm"', 'height = "0 mm"', 'outside the allowed range', line=14)
+repl('size-zero-count', 'count = 8', 'count = 0', 'allowed 1 to 400', line=12)
+repl('size-negative-count', 'count = 8', 'count = -3', 'allowed 1 to 400', line=12)
+repl('size-zero-thickness', 'root_thickness = "4 mm"', 'root_thickness = "0 mm"', 'outside the allowed range', line=15)
+repl('size-negative-diameter', 'barrel_diameter = "92 mm"', 'barrel_diameter = "-92 mm"', 'outside the allowed range', line=7)
+repl('size-huge-length', 'head_length = "72 mm"', 'head_length = "5 m"', 'outside the allowed range', line=6)
+repl('size-negative-mass', 'mass = "230 kg"', 'mass = "-230 kg"', 'outside the allowed range', line=None)
+repl('size-zero-cda', 'cda = "0.45 m2"', 'cda = "0 m2"', 'outside the allowed range', line=None)
+# geometry
+repl('geom-pitch-not-above-thickness', 'pitch = "9 mm"', 'pitch = "4 mm"', 'not larger than the root thickness', line=13)
+repl('geom-pitch-equal-thickness', 'pitch = "9 mm"', 'pitch = "3.5 mm"', 'not larger than the root thickness', line=None, after='[barrel]')
+repl('geom-tip-thicker', 'tip_thickness = "2 mm"', 'tip_thickness = "5 mm"', 'thicker than the root', line=16)
+repl('geom-fins-do-not-fit', 'count = 8', 'count = 9', 'need', line=12)
+repl('geom-longitudinal-do-not-fit', 'style = "annular"\ncount = 8', 'style = "longitudinal"\ncount = 80', 'circumference', line=12)
+repl('geom-height-absurd', 'height = "40 mm"', 'height = "130 mm"', 'taller than the cylinder is wide', line=14)
+repl('geom-barrel-too-short', 'barrel_length = "108 mm"', 'barrel_length = "50 mm"', 'need', line=22)
+# materials and finishes
+repl('alloy-unknown', 'alloy = "A356-T6"', 'alloy = "A365-T6"', 'did you mean "A356-T6"', line=17)
+repl('alloy-unknown-far', 'alloy = "A356-T6"', 'alloy = "unobtainium"', 'not in the alloy catalogue', line=17)
+repl('alloy-missing', 'alloy = "A356-T6"\n', '', 'name an alloy', line=10)
+repl('alloy-custom-incomplete', 'alloy = "A356-T6"', 'alloy = "shop"', 'missing for the custom alloy', line=None)
+cases[-1] = (cases[-1][0], cases[-1][1] + '\n[alloys.shop]\nconductivity = "140 W/mK"\n', 3, 0, 'missing for the custom alloy')
+repl('alloy-custom-unphysical', 'alloy = "A356-T6"', 'alloy = "shop"', 'conductivity', line=None)
+cases[-1] = (cases[-1][0], cases[-1][1] + '\n[alloys.shop]\nconductivity = "9000 W/mK"\ndensity = "2700 kg/m3"\nspecific_heat = "900 J/kgK"\n', 3, 0, 'conductivity = 9000')
+repl('finish-unknown', 'finish = "as-cast"', 'finish = "chrome"', 'not a finish', line=18)
+repl('style-unknown', 'style = "annular"', 'style = "spiral"', 'not a fin style', line=11)
+repl('emissivity-above-one', 'finish = "as-cast"', 'emissivity = 1.5', 'outside the allowed range', line=18)
+# temperatures and air
+repl('ambient-above-head-limit', 'head = "220 C"', 'head = "70 C"\n', 'not above the ambient', line=None)
+cases[-1] = (cases[-1][0], cases[-1][1].replace('ambient = "35 C"', 'ambient = "60 C"').replace('head = "70 C"', 'head = "60 C"'), 3, 0, 'not above the ambient')
+repl('ambient-below-absolute-zero', 'ambient = "35 C"', 'ambient = "-300 C"', 'outside the allowed range', line=None)
+repl('ambient-kelvin-negative', 'ambient = "35 C"', 'ambient = "-5 K"', 'outside the allowed range', line=None)
+repl('ambient-fahrenheit-absurd', 'ambient = "35 C"', 'ambient = "-500 F"', 'outside the allowed range', line=None)
+repl('limit-below-absolute-zero', 'head = "220 C"', 'head = "-280 C"', 'outside the allowed range', line=None)
+repl('speed-beyond-road-vehicles', 'speed = "90 km/h"', 'speed = "1200 km/h"', 'outside the allowed range 0 to 400 km/h', line=None)
+repl('speed-negative', 'speed = "90 km/h"', 'speed = "-10 km/h"', 'outside the allowed range', line=None)
+repl('speed-mach', 'speed = "90 km/h"', 'speed = "700 mph"', 'outside the allowed range', line=None)
+repl('recovery-zero', 'pressure_recovery = 0.5', 'pressure_recovery = 0', 'outside the allowed range', line=None)
+repl('recovery-above-one', 'pressure_recovery = 0.5', 'pressure_recovery = "150 %"', 'outside the allowed range', line=None)
+repl('altitude-and-pressure', 'altitude = "0 m"', 'altitude = "0 m"\npressure = "101 kPa"', 'not both', line=None, mark='pressure')
+repl('altitude-space', 'altitude = "0 m"', 'altitude = "100 km"', 'outside the allowed range', line=None)
+repl('pressure-vacuum', 'altitude = "0 m"', 'pressure = "0 kPa"', 'outside the allowed range', line=None)
+# NaN and Inf
+repl('nan-number', 'pressure_recovery = 0.5', 'pressure_recovery = nan', 'not a finite number', line=None)
+repl('inf-number', 'pressure_recovery = 0.5', 'pressure_recovery = inf', 'not a finite number', line=None)
+repl('nan-in-string', 'pitch = "9 mm"', 'pitch = "nan mm"', 'has no number', line=13)
+repl('inf-in-string', 'height = "40 mm"', 'height = "inf mm"', 'has no number', line=14)
+repl('overflow-in-string', 'height = "40 mm"', 'height = "1e400 mm"', 'not a number', line=14)
+# load
+repl('load-missing', '[load]\nmass = "230 kg"\ncda = "0.45 m2"\n', '', 'missing table [load]', line=0)
+repl('load-both-ways', 'mass = "230 kg"', 'mass = "230 kg"\nhead_heat = "2 kW"\nbarrel_heat = "1 kW"', 'not used when head_heat', line=None)
+repl('load-cda-missing', 'cda = "0.45 m2"\n', '', 'load.cda: missing', line=0)
+repl('load-cylinders-zero', 'cda = "0.45 m2"', 'cda = "0.45 m2"\ncylinders = 0', 'allowed 1 to 16', line=None, mark='cylinders')
+repl('load-efficiency-above-one', 'cda = "0.45 m2"', 'cda = "0.45 m2"\nthermal_efficiency = 1.2', 'outside the allowed range', line=None, mark='thermal')
+repl('load-head-share-negative', 'cda = "0.45 m2"', 'cda = "0.45 m2"\nhead_share = -0.1', 'outside the allowed range', line=None, mark='head_share')
+# missing things
+repl('missing-head-table', '[head]', '[headfins]', 'unknown key', line=None)
+repl('missing-speed', 'speed = "90 km/h"\n', '', 'air.speed: missing', line=0)
+repl('missing-diameter', 'head_diameter = "120 mm"\n', '', 'cylinder.head_diameter: missing', line=0)
+repl('segments-zero', 'name = "corpus base"', 'name = "corpus base"\nsegments = 0', 'allowed 1 to 10000', line=2)
+repl('override-wall-below-ambient', '[limits]', '[override]\nhead_wall = "20 C"\nbarrel_wall = "150 C"\n\n[limits]', 'not above the ambient', line=None, mark='head_wall')
+
+out = []
+for name, src, code, line, frag in cases:
+    fn = name + '.toml'
+    with open(os.path.join('testdata/bad', fn), 'w') as f:
+        f.write(src)
+    out.append(f'{fn}\t{code}\t{line}\t{frag}')
+# empty, whitespace, binary
+open('testdata/bad/empty.toml', 'w').write('')
+out.append('empty.toml\t3\t0\tfile is empty')
+open('testdata/bad/only-comments.toml', 'w').write('# nothing here\n\n')
+out.append('only-comments.toml\t3\t0\tmissing')
+open('testdata/bad/binary-garbage.toml', 'wb').write(bytes(range(256)) * 4)
+out.append('binary-garbage.toml\t3\t0\tnot text')
+open('testdata/bad/utf16.toml', 'wb').write(base.encode('utf-16'))
+out.append('utf16.toml\t3\t0\tnot text')
+with open('testdata/bad/expect.tsv', 'w') as f:
+    f.write('# file\texit code\tline (0: no line check)\tmessage fragment\n')
+    f.write('\n'.join(out) + '\n')
+print(len(out), 'cases')
