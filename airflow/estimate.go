@@ -455,9 +455,9 @@ func (p *prepared) setHeat(fs FinSet, g fins.Geometry, pt Path, tw, tin, mdot fl
 	ts := p.c.Ambient + r.SurfaceEfficiency*(tw-p.c.Ambient)
 	r.RadiationHeat = fs.Emissivity * Sigma * g.EnvelopeArea * (ts*ts*ts*ts - math.Pow(p.c.Ambient, 4))
 	r.HeatRejected = qc + r.RadiationHeat
-	if m.q > 0 {
-		r.EnergyImbalance = math.Abs(m.qMetal-m.q) / m.q
-	}
+	// relative to the heat, or to a milliwatt when the heat is nil (a wall
+	// at the temperature of its inlet air) and only rounding is left
+	r.EnergyImbalance = math.Abs(m.qMetal-m.q) / math.Max(math.Abs(m.q), 1e-3)
 	return r, m
 }
 
@@ -525,7 +525,10 @@ func (c Case) Balance(load HeatLoad) (Result, error) {
 			p.log = keep
 			return r.HeatRejected - q
 		}
-		lo := math.Max(c.Ambient, tin) + 1e-6
+		// On a series path the barrel may sit below the air the head sends
+		// it (heat then flows from that air into the barrel and out by
+		// natural convection and radiation), so the search starts at ambient.
+		lo := c.Ambient + 1e-6
 		if top := f(SaneWallLimit); top < 0 {
 			r, m := p.setHeat(fs, g, pt, SaneWallLimit, tin, mdot, true)
 			r.HeatLoad = q
@@ -547,8 +550,5 @@ func (c Case) Balance(load HeatLoad) (Result, error) {
 	}
 	br, _, errB := solve(c.Barrel, p.bg, p.bp, tin, p.bm, load.Barrel)
 	res := p.result(hr, br, &log, errH == nil && errB == nil)
-	if errH != nil {
-		return res, errH
-	}
-	return res, errB
+	return res, errors.Join(errH, errB)
 }
