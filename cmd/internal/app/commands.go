@@ -141,7 +141,7 @@ func (e *env) estimate(d *design.Design) error {
 			100*d.Load.Road.CoolShare, d.Load.Road.Cylinders, 100*d.Load.Road.HeadShare))
 	}
 	doc.Notes = append(doc.Notes, orientationNote(d, o.res), noteWall,
-		fmt.Sprintf("Energy check: heat taken from the metal equals the air's enthalpy rise to %.1e (relative).", o.res.MaxImbal),
+		energyNote(o.res.MaxImbal),
 		noteModel)
 	if o.err != nil {
 		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.err.Error()+".")
@@ -162,6 +162,16 @@ func (e *env) estimate(d *design.Design) error {
 		return modelError(d.Name, o.err)
 	}
 	return nil
+}
+
+// energyNote reports the energy check; below 1e-9 it says so rather than
+// print rounding noise.
+func energyNote(imb float64) string {
+	v := fmt.Sprintf("%.1e", imb)
+	if imb < 1e-9 {
+		v = "better than 1e-9"
+	}
+	return "Energy check: heat taken from the metal equals the air's enthalpy rise to " + v + " (relative)."
 }
 
 func setStatus(err error, r airflow.SetResult, margin float64) string {
@@ -506,7 +516,7 @@ func (e *env) march(d *design.Design) error {
 	if o.err != nil {
 		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.err.Error()+"; the march is shown at the search limit.")
 	}
-	doc.Notes = append(doc.Notes, fmt.Sprintf("Energy check: heat from the metal equals the air's enthalpy rise to %.1e (relative).", o.res.MaxImbal))
+	doc.Notes = append(doc.Notes, energyNote(o.res.MaxImbal))
 	doc.Warnings = o.warnings()
 	doc.JSON = map[string]any{"design": d.Name, "head": o.res.Head, "barrel": o.res.Barrel, "energy_imbalance": o.res.MaxImbal,
 		"equilibrium": o.err == nil, "warnings": doc.Warnings, "caution": output.Caution}
