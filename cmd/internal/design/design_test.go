@@ -3,6 +3,8 @@ package design
 import (
 	"errors"
 	"math"
+	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 
@@ -242,6 +244,15 @@ func TestCustomAlloy(t *testing.T) {
 // FuzzParse: no input makes the parser panic, and an accepted design has
 // finite, physical values.
 func FuzzParse(f *testing.F) {
+	// seeds: the demo designs and every file of the bad-input corpus
+	ents, _ := os.ReadDir("../../../testdata/bad")
+	for _, e := range ents {
+		if strings.HasSuffix(e.Name(), ".toml") {
+			if b, err := os.ReadFile(filepath.Join("../../../testdata/bad", e.Name())); err == nil {
+				f.Add(b)
+			}
+		}
+	}
 	f.Add([]byte(minimal))
 	f.Add(demo.Upright)
 	f.Add(demo.LaidOver)
