@@ -199,3 +199,28 @@ func TestReadmeCommands(t *testing.T) {
 		t.Errorf("the demo (README's first command) failed: exit %d\n%s", code, out)
 	}
 }
+
+// --strict turns a range warning into exit 4 and writes no output; without
+// it the same run succeeds and warns once per cause on stderr.
+func TestStrict(t *testing.T) {
+	dir := t.TempDir()
+	// a -45 C ambient takes the air properties below their stated 250 K
+	p := filepath.Join(dir, "cold.toml")
+	src := strings.Replace(string(demo.Upright), `ambient = "35 C"`, `ambient = "-45 C"`, 1)
+	os.WriteFile(p, []byte(src), 0o644)
+	out, errs, code := run(t, "estimate", p)
+	if code != 0 || !strings.Contains(errs, "warning: air properties") || out == "" {
+		t.Fatalf("without --strict: exit %d, stderr %s", code, errs)
+	}
+	if n := strings.Count(errs, "warning: air properties (Sutherland"); n != 1 {
+		t.Errorf("the same cause warned %d times", n)
+	}
+	out, errs, code = run(t, "estimate", "--strict", p)
+	if code != ExitStrict || out != "" || !strings.Contains(errs, "--strict") {
+		t.Errorf("with --strict: exit %d, stdout %q, stderr %s", code, out, errs)
+	}
+	js, _, _ := run(t, "estimate", "-f", "json", p)
+	if !strings.Contains(js, `"warnings": [`) || !strings.Contains(js, "air properties") {
+		t.Error("JSON lacks the warnings")
+	}
+}

@@ -438,6 +438,9 @@ func (e *env) tilt(d *design.Design, step float64) error {
 			if err != nil {
 				return modelError(d.Name, err)
 			}
+			if err := o.check(); err != nil {
+				return fail(ExitInternal, err)
+			}
 			outs = append(outs, o)
 			warns = append(warns, o.warnings())
 		}
@@ -490,6 +493,9 @@ func (e *env) march(d *design.Design) error {
 	o, err := evaluate(d, d.Case.Speed)
 	if err != nil {
 		return modelError(d.Name, err)
+	}
+	if err := o.check(); err != nil {
+		return fail(ExitInternal, err)
 	}
 	T, L := u.TempU(), u.LenU()
 	g := output.Grid{Title: "March along one air path of each fin set (heat and flux summed over all parallel paths)",
@@ -579,6 +585,9 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 		o, err := evaluate(d, v)
 		if err != nil {
 			return modelError(d.Name, err)
+		}
+		if err := o.check(); err != nil {
+			return fail(ExitInternal, err)
 		}
 		warns = append(warns, o.warnings())
 		ht, bt := fmtT(u, o.res.Head.WallTemp), fmtT(u, o.res.Barrel.WallTemp)
