@@ -58,8 +58,10 @@ func Properties(T, p float64, log *validity.Log) Air {
 	var a Air
 	a.T, a.P = T, p
 	a.Rho = p / (RAir * T)
-	a.Mu = 1.716e-5 * math.Pow(T/273.15, 1.5) * (273.15 + 110.4) / (T + 110.4)
-	a.K = 0.0241 * math.Pow(T/273.15, 1.5) * (273.15 + 194) / (T + 194)
+	r := T / 273.15
+	r15 := r * math.Sqrt(r) // (T/T0)^1.5
+	a.Mu = 1.716e-5 * r15 * (273.15 + 110.4) / (T + 110.4)
+	a.K = 0.0241 * r15 * (273.15 + 194) / (T + 194)
 	a.Cp = 1000 * (28.11 + T*(0.1967e-2+T*(0.4802e-5-T*1.966e-9))) / MolarMassAir
 	a.Pr = a.Mu * a.Cp / a.K
 	a.Nu = a.Mu / a.Rho

@@ -13,6 +13,9 @@ const (
 	ReTurbulent = 1.0e4
 )
 
+// fTurb is the Petukhov factor at the turbulent end of transition.
+var fTurb = PetukhovFriction(ReTurbulent, nil)
+
 // ParallelPlatesNu returns the mean Nusselt number Nu = h Dh / k (Dh = 2 s,
 // s the plate spacing) for simultaneously developing laminar flow between
 // isothermal parallel plates, by Stephan's correlation as quoted in Shah &
@@ -25,7 +28,10 @@ const (
 // 0.1 <= Pr <= 1000 (Shah & London). Arguments are dimensionless.
 func ParallelPlatesNu(xStar, pr float64, log *validity.Log) float64 {
 	log.Check("Stephan developing laminar flow (Shah & London 1978)", "Prandtl number", pr, 0.1, 1000)
-	return 7.55 + 0.024*math.Pow(xStar, -1.14)/(1+0.0358*math.Pow(pr, 0.17)*math.Pow(xStar, -0.64))
+	// the powers through one logarithm each (math.Pow is several times
+	// slower and this sits in the march's inner loop)
+	lx := math.Log(xStar)
+	return 7.55 + 0.024*math.Exp(-1.14*lx)/(1+0.0358*math.Exp(0.17*math.Log(pr)-0.64*lx))
 }
 
 // ParallelPlatesFriction returns the apparent Fanning friction factor f_app
@@ -67,10 +73,17 @@ func GnielinskiNu(re, pr, dhOverL float64, log *validity.Log) float64 {
 	log.Check("Gnielinski turbulent duct flow", "Reynolds number", re, 3000, 5e6)
 	log.Check("Gnielinski turbulent duct flow", "Prandtl number", pr, 0.5, 2000)
 	log.Check("Gnielinski turbulent duct flow", "Dh/L", dhOverL, 0, 1)
-	f := PetukhovFriction(math.Max(re, 3000), nil)
+	var f float64
+	if re == ReTurbulent {
+		f = fTurb // the transition blend's fixed end
+	} else {
+		f = PetukhovFriction(math.Max(re, 3000), nil)
+	}
 	f8 := f / 8
-	nu := f8 * (re - 1000) * pr / (1 + 12.7*math.Sqrt(f8)*(math.Pow(pr, 2.0/3)-1))
-	return nu * (1 + math.Pow(dhOverL, 2.0/3))
+	c := math.Cbrt(pr)
+	nu := f8 * (re - 1000) * pr / (1 + 12.7*math.Sqrt(f8)*(c*c-1))
+	d := math.Cbrt(dhOverL)
+	return nu * (1 + d*d)
 }
 
 // ChannelFlow is the heat-transfer and friction state of flow through a fin
@@ -111,6 +124,22 @@ func Channel(re, pr, lOverDh float64, log *validity.Log) ChannelFlow {
 	nt, ft := turb(ReTurbulent)
 	g := (re - ReLaminar) / (ReTurbulent - ReLaminar)
 	return ChannelFlow{Nu: (1-g)*nl + g*nt, Fapp: (1-g)*fl + g*ft, Regime: "transition"}
+}
+
+// ChannelNu is the Nusselt number of Channel without the friction factor,
+// for the march, which needs only heat transfer.
+func ChannelNu(re, pr, lOverDh float64, log *validity.Log) (float64, string) {
+	if re <= ReLaminar {
+		return ParallelPlatesNu(lOverDh/(re*pr), pr, log), "laminar"
+	}
+	dh := math.Min(1/lOverDh, 1)
+	if re >= ReTurbulent {
+		return GnielinskiNu(re, pr, dh, log), "turbulent"
+	}
+	nl := ParallelPlatesNu(lOverDh/(ReLaminar*pr), pr, nil)
+	nt := GnielinskiNu(ReTurbulent, pr, dh, log)
+	g := (re - ReLaminar) / (ReTurbulent - ReLaminar)
+	return (1-g)*nl + g*nt, "transition"
 }
 
 // TeertstraNu returns the channel-average Nusselt number Nu_b = h b / k of

@@ -227,3 +227,16 @@ func BenchmarkChannel(b *testing.B) {
 	}
 	_ = s
 }
+
+// ChannelNu is Channel's Nusselt number exactly, in every regime.
+func TestChannelNuMatchesChannel(t *testing.T) {
+	for re := 50.0; re < 1e5; re *= 1.17 {
+		for _, ld := range []float64{1, 8, 40} {
+			nu, reg := ChannelNu(re, 0.7, ld, nil)
+			c := Channel(re, 0.7, ld, nil)
+			if nu != c.Nu || reg != c.Regime {
+				t.Fatalf("Re %g L/Dh %g: %g %s vs %g %s", re, ld, nu, reg, c.Nu, c.Regime)
+			}
+		}
+	}
+}

@@ -136,6 +136,7 @@ var ErrNoEquilibrium = errors.New("no equilibrium")
 type prepared struct {
 	c            Case
 	hg, bg       fins.Geometry
+	hc, bc       *fins.Curve // fin efficiency against h/k, filled as the march needs it
 	hp, bp       Path
 	hm, bm       float64 // mass flow per path, kg/s
 	hvel, bvel   float64 // passage velocity at inlet density, m/s
@@ -195,6 +196,7 @@ func (c Case) prepare(log *validity.Log) (*prepared, error) {
 	if p.bg, err = c.Barrel.Set.Geometry(); err != nil {
 		return nil, fmt.Errorf("barrel fins: %w", err)
 	}
+	p.hc, p.bc = c.Head.Set.NewCurve(p.hg), c.Barrel.Set.NewCurve(p.bg)
 	p.amb = Properties(c.Ambient, c.Pressure, log)
 	p.hp = path(c.Head.Set, p.hg, c.Speed, c.Tilt)
 	p.bp = path(c.Barrel.Set, p.bg, c.Speed, c.Tilt)
@@ -334,7 +336,7 @@ type marchOut struct {
 // efficiency at that h, and the exact exponential pick-up of heat,
 // T_out = T_w - (T_w - T_in) exp(-NTU), NTU = eta_o h A / (mdot cp), with
 // cp the mean over the segment's temperature rise.
-func (p *prepared) march(fs FinSet, g fins.Geometry, pt Path, tw, tin, mdot float64, keep bool) marchOut {
+func (p *prepared) march(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tw, tin, mdot float64, keep bool) marchOut {
 	var out marchOut
 	out.tOut = tin
 	if mdot <= 0 {
@@ -350,6 +352,7 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, pt Path, tw, tin, mdot floa
 	}
 	t := tin
 	prevXNu := 0.0
+	rise := 0.0 // the previous segment's air temperature rise
 	for i := 1; i <= n; i++ {
 		air := Properties(0.5*(tw+t), p.c.Pressure, p.log)
 		re := mdot / pt.FlowArea * pt.Dh / air.Mu
@@ -358,31 +361,48 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, pt Path, tw, tin, mdot floa
 		if p.c.FixedH > 0 {
 			h = p.c.FixedH
 		} else {
-			cf := Channel(re, air.Pr, x/pt.Dh, p.log)
-			xNu := x * cf.Nu
-			// the previous end with the same properties, for d(x Nu)/dx
-			if i > 1 {
-				prevXNu = (x - dx) * Channel(re, air.Pr, (x-dx)/pt.Dh, nil).Nu
-			} else {
-				prevXNu = 0
-			}
-			h = (xNu - prevXNu) / dx * air.K / pt.Dh
+			// segment mean of the local coefficient, d(x h_m)/dx, from the
+			// mean-Nu correlation at both segment ends; the upstream end
+			// carries the previous segment's film properties, so the sum of
+			// the segments telescopes to the correlation's mean over the path
+			nu, regime := ChannelNu(re, air.Pr, x/pt.Dh, p.log)
+			xNuK := x * nu * air.K
+			h = (xNuK - prevXNu) / dx / pt.Dh
+			prevXNu = xNuK
 			if i == n {
-				out.regime = cf.Regime
+				out.regime = regime
 			}
 		}
-		etaF := fs.Set.FinEfficiency(g, h, k, p.log)
+		etaF := cv.Efficiency(h, k, p.log)
 		etaO := g.SurfaceEfficiency(etaF)
 		ua := etaO * h * aSeg
+		// cp is the mean over the segment's rise, found by fixed-point
+		// passes from the previous segment's rise; each pass rescales
+		// exp(-NTU) by exp(NTU_old - NTU_new), a small argument summed by
+		// its series, so one exponential serves the segment
 		cp := air.Cp
-		var tOut, ntu float64
-		for it := 0; it < 4; it++ {
-			ntu = ua / (mdot * cp)
-			tOut = tw - (tw-t)*math.Exp(-ntu)
-			if math.Abs(tOut-t) > 1e-9 {
-				cp = (enthalpy(tOut) - enthalpy(t)) / (tOut - t)
-			}
+		if rise > 1e-9 {
+			cp = (enthalpy(t+rise) - enthalpy(t)) / rise
 		}
+		ntu := ua / (mdot * cp)
+		e := math.Exp(-ntu)
+		tOut := tw - (tw-t)*e
+		for it := 0; it < 8 && math.Abs(tOut-t) > 1e-9; it++ {
+			next := (enthalpy(tOut) - enthalpy(t)) / (tOut - t)
+			if math.Abs(next-cp) <= 1e-11*cp {
+				break
+			}
+			nn := ua / (mdot * next)
+			d := ntu - nn
+			if math.Abs(d) < 1e-3 {
+				e *= 1 + d*(1+d/2*(1+d/3*(1+d/4)))
+			} else {
+				e = math.Exp(-nn)
+			}
+			cp, ntu = next, nn
+			tOut = tw - (tw-t)*e
+		}
+		rise = tOut - t
 		qAir := mdot * (enthalpy(tOut) - enthalpy(t))
 		// metal side: UA times the exact mean driving difference of the segment
 		var qMetal float64
@@ -415,7 +435,7 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, pt Path, tw, tin, mdot floa
 // height equal to the tip diameter (annular) or the finned length
 // (longitudinal) by Bar-Cohen & Rohsenow (1984), with the fin efficiency
 // at that h. Orientation effects on free convection are not modelled.
-func (p *prepared) natural(fs FinSet, g fins.Geometry, tw float64) (float64, float64, float64) {
+func (p *prepared) natural(fs FinSet, g fins.Geometry, cv *fins.Curve, tw float64) (float64, float64, float64) {
 	dT := tw - p.c.Ambient
 	if dT <= 0 {
 		return 0, 0, 1
@@ -428,7 +448,7 @@ func (p *prepared) natural(fs FinSet, g fins.Geometry, tw float64) (float64, flo
 	s := g.GapMean
 	el := Rayleigh(air, s, dT) * s / L
 	h := VerticalChannelNaturalNu(el, p.log) * air.K / s
-	eta := fs.Set.FinEfficiency(g, h, fs.Alloy.Conductivity(tw), p.log)
+	eta := cv.Efficiency(h, fs.Alloy.Conductivity(tw), p.log)
 	return h * g.SurfaceEfficiency(eta) * g.TotalArea * dT, h, eta
 }
 
@@ -437,9 +457,9 @@ func (p *prepared) natural(fs FinSet, g fins.Geometry, tw float64) (float64, flo
 // Q^3 = Q_F^3 + Q_N^3 (Churchill 1977), and radiation from the envelope at
 // the mean fin surface temperature T_a + eta_o (T_w - T_a) to surroundings
 // at ambient (Incropera 6th ed. Eq. 1.7).
-func (p *prepared) setHeat(fs FinSet, g fins.Geometry, pt Path, tw, tin, mdot float64, keep bool) (SetResult, marchOut) {
-	m := p.march(fs, g, pt, tw, tin, mdot, keep)
-	qn, hn, etaN := p.natural(fs, g, tw)
+func (p *prepared) setHeat(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tw, tin, mdot float64, keep bool) (SetResult, marchOut) {
+	m := p.march(fs, g, cv, pt, tw, tin, mdot, keep)
+	qn, hn, etaN := p.natural(fs, g, cv, tw)
 	qc := math.Cbrt(m.q*m.q*m.q + qn*qn*qn)
 	r := SetResult{Name: fs.Name, Style: fs.Set.Style.String(), WallTemp: tw, AirIn: tin, AirOut: m.tOut,
 		ForcedHeat: m.q, NaturalHeat: qn, ConvectionHeat: qc, NaturalH: hn, Paths: pt.Paths, PathLength: pt.Length,
@@ -474,12 +494,12 @@ func (c Case) AtWall(headT, barrelT float64) (Result, error) {
 			return Result{}, fmt.Errorf("wall temperature %g K must lie between ambient (%g K) and 1000 K", t, c.Ambient)
 		}
 	}
-	hr, hm := p.setHeat(c.Head, p.hg, p.hp, headT, c.Ambient, p.hm, true)
+	hr, hm := p.setHeat(c.Head, p.hg, p.hc, p.hp, headT, c.Ambient, p.hm, true)
 	tin := c.Ambient
 	if p.seriesActive {
 		tin = hm.tOut
 	}
-	br, _ := p.setHeat(c.Barrel, p.bg, p.bp, barrelT, tin, p.bm, true)
+	br, _ := p.setHeat(c.Barrel, p.bg, p.bc, p.bp, barrelT, tin, p.bm, true)
 	return p.result(hr, br, &log, true), nil
 }
 
@@ -507,48 +527,65 @@ func (c Case) Balance(load HeatLoad) (Result, error) {
 	if !(load.Head >= 0) || !(load.Barrel >= 0) || math.IsInf(load.Head, 0) || math.IsInf(load.Barrel, 0) {
 		return Result{}, fmt.Errorf("heat load must be finite and not negative (head %g W, barrel %g W)", load.Head, load.Barrel)
 	}
-	solve := func(fs FinSet, g fins.Geometry, pt Path, tin, mdot, q float64) (SetResult, marchOut, error) {
+	solve := func(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tin, mdot, q float64) (SetResult, marchOut, error) {
 		if q == 0 {
 			// no load: the wall sits at the temperature of the air it meets
 			keep := p.log
 			p.log = nil
-			r, m := p.setHeat(fs, g, pt, tin+1e-9, tin, mdot, true)
+			r, m := p.setHeat(fs, g, cv, pt, tin+1e-9, tin, mdot, true)
 			p.log = keep
 			return r, m, nil
 		}
 		// the search must not record range warnings for trial wall
 		// temperatures the answer never takes; the final call does
+		memoX, memoF := math.NaN(), 0.0 // the secant re-evaluates its first point
 		f := func(tw float64) float64 {
+			if tw == memoX {
+				return memoF
+			}
 			keep := p.log
 			p.log = nil
-			r, _ := p.setHeat(fs, g, pt, tw, tin, mdot, false)
+			r, _ := p.setHeat(fs, g, cv, pt, tw, tin, mdot, false)
 			p.log = keep
-			return r.HeatRejected - q
+			memoX, memoF = tw, r.HeatRejected-q
+			return memoF
 		}
 		// On a series path the barrel may sit below the air the head sends
 		// it (heat then flows from that air into the barrel and out by
 		// natural convection and radiation), so the search starts at ambient.
 		lo := c.Ambient + 1e-6
-		if top := f(SaneWallLimit); top < 0 {
-			r, m := p.setHeat(fs, g, pt, SaneWallLimit, tin, mdot, true)
-			r.HeatLoad = q
-			return r, m, fmt.Errorf("%w for the %s fins: at %.0f C wall temperature they reject only %.0f W of the %.0f W load; add fin area, raise the air speed or pressure recovery, or lower the heat load",
-				ErrNoEquilibrium, fs.Name, SaneWallLimit-273.15, r.HeatRejected, q)
+		// Q(T_w) is smooth and nearly linear in T_w - T_a: a trial at
+		// 100 K above the inlet gives a conductance, whose balance point is
+		// the second guess; the safeguarded secant then needs a few steps.
+		t0 := math.Min(math.Max(tin, c.Ambient)+100, SaneWallLimit-1)
+		ua := (f(t0) + q) / (t0 - c.Ambient)
+		t1 := SaneWallLimit
+		if ua > 0 {
+			t1 = math.Min(c.Ambient+q/ua, SaneWallLimit)
 		}
-		tw, err := roots.Brent(f, lo, SaneWallLimit, 1e-7, 200)
+		if t1 == t0 {
+			t1 = t0 - 1
+		}
+		tw, err := roots.Secant(f, t0, t1, lo, SaneWallLimit, 1e-5, 100)
 		if err != nil {
+			if errors.Is(err, roots.ErrNoBracket) && f(SaneWallLimit) < 0 {
+				r, m := p.setHeat(fs, g, cv, pt, SaneWallLimit, tin, mdot, true)
+				r.HeatLoad = q
+				return r, m, fmt.Errorf("%w for the %s fins: at %.0f C wall temperature they reject only %.0f W of the %.0f W load; add fin area, raise the air speed or pressure recovery, or lower the heat load",
+					ErrNoEquilibrium, fs.Name, SaneWallLimit-273.15, r.HeatRejected, q)
+			}
 			return SetResult{}, marchOut{}, fmt.Errorf("%s wall temperature: %w", fs.Name, err)
 		}
-		r, m := p.setHeat(fs, g, pt, tw, tin, mdot, true)
+		r, m := p.setHeat(fs, g, cv, pt, tw, tin, mdot, true)
 		r.HeatLoad = q
 		return r, m, nil
 	}
-	hr, hm, errH := solve(c.Head, p.hg, p.hp, c.Ambient, p.hm, load.Head)
+	hr, hm, errH := solve(c.Head, p.hg, p.hc, p.hp, c.Ambient, p.hm, load.Head)
 	tin := c.Ambient
 	if p.seriesActive {
 		tin = hm.tOut
 	}
-	br, _, errB := solve(c.Barrel, p.bg, p.bp, tin, p.bm, load.Barrel)
+	br, _, errB := solve(c.Barrel, p.bg, p.bc, p.bp, tin, p.bm, load.Barrel)
 	res := p.result(hr, br, &log, errH == nil && errB == nil)
 	return res, errors.Join(errH, errB)
 }

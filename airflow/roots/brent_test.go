@@ -94,3 +94,42 @@ func BenchmarkBrent(b *testing.B) {
 		_, _ = Brent(f, 0, 1, 1e-12, 100)
 	}
 }
+
+// Secant on the classical equations above, from poor starting points, and
+// on a nearly linear heat-balance shape where it should take few steps.
+func TestSecant(t *testing.T) {
+	cases := []struct {
+		name     string
+		f        func(float64) float64
+		x0, x1   float64
+		lo, hi   float64
+		root     float64
+		maxEvals int
+	}{
+		{"Wallis", func(x float64) float64 { return x*x*x - 2*x - 5 }, 1, 1.5, 0, 10, 2.0945514815423265, 40},
+		{"Dottie", func(x float64) float64 { return math.Cos(x) - x }, 0, 0.1, -1, 2, 0.7390851332151607, 20},
+		{"ln10", func(x float64) float64 { return math.Exp(x) - 10 }, -5, -4, -5, 5, math.Ln10, 60},
+		{"near linear", func(x float64) float64 { return 15*(x-308) + 1e-9*math.Pow(x, 4) - 2700 }, 408, 500, 308, 773, 0, 8},
+		{"steep tanh", func(x float64) float64 { return math.Tanh(30 * (x - 0.3)) }, 0.9, 1.0, 0, 1, 0.3, 80},
+	}
+	for _, c := range cases {
+		evals := 0
+		f := func(x float64) float64 { evals++; return c.f(x) }
+		x, err := Secant(f, c.x0, c.x1, c.lo, c.hi, 1e-12, 100)
+		if err != nil {
+			t.Fatalf("%s: %v", c.name, err)
+		}
+		if c.root != 0 && math.Abs(x-c.root) > 1e-10 {
+			t.Errorf("%s: got %.15g, want %.15g", c.name, x, c.root)
+		}
+		if math.Abs(c.f(x)) > 1e-6 {
+			t.Errorf("%s: residual %g at %g", c.name, c.f(x), x)
+		}
+		if evals > c.maxEvals {
+			t.Errorf("%s: %d evaluations, want at most %d", c.name, evals, c.maxEvals)
+		}
+	}
+	if _, err := Secant(func(x float64) float64 { return x*x + 1 }, 0, 1, -2, 2, 1e-12, 50); !errors.Is(err, ErrNoBracket) {
+		t.Errorf("no root: %v", err)
+	}
+}

@@ -141,7 +141,7 @@ func (e *env) parse(src []byte, name string) (*design.Design, error) {
 		if e.opt.segments < 1 || e.opt.segments > 10000 {
 			return nil, fail(ExitUsage, fmt.Errorf("--segments %d: allowed 1 to 10000", e.opt.segments))
 		}
-		d.Case.Segments = e.opt.segments
+		d.OverrideSegments(e.opt.segments)
 	}
 	return d, nil
 }

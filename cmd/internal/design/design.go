@@ -126,6 +126,18 @@ type Design struct {
 	HeadWall    float64  // K
 	BarrelWall  float64  // K
 	Defaults    []string // defaults applied, for the report
+
+	file        *File // the decoded file, for With
+	md          toml.MetaData
+	loc         locator
+	segOverride bool
+}
+
+// OverrideSegments sets the march segments from the command line; designs
+// derived by With keep it.
+func (d *Design) OverrideSegments(n int) {
+	d.Case.Segments = n
+	d.segOverride = true
 }
 
 // Heat returns the heat load at the design's speed, or at speed v (m/s).
@@ -221,6 +233,7 @@ func Parse(src []byte, name string) (*Design, error) {
 		sort.SliceStable(errs, func(i, j int) bool { return errs[i].Line < errs[j].Line })
 		return nil, errs
 	}
+	d.file, d.md, d.loc = &f, md, loc
 	return d, nil
 }
 

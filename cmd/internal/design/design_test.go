@@ -308,3 +308,47 @@ func TestIdleHeat(t *testing.T) {
 		t.Error("cruise load should exceed idle")
 	}
 }
+
+func TestWith(t *testing.T) {
+	d, err := Parse(demo.Upright, "u.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	v, err := d.With(map[string]float64{"head.pitch": 0.01, "head.count": 7, "air.ambient": 313.15, "air.speed": 30})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if v.Case.Head.Set.Pitch != 0.01 || v.Case.Head.Set.Count != 7 || v.Case.Ambient != 313.15 || v.Case.Speed != 30 {
+		t.Errorf("With did not apply: %+v", v.Case.Head.Set)
+	}
+	if math.Abs(d.Case.Head.Set.Pitch-0.009) > 1e-15 {
+		t.Error("With changed the original")
+	}
+	// the same rules as Parse: a pitch below the root thickness is refused with the key and the line
+	_, err = d.With(map[string]float64{"head.pitch": 0.003})
+	if err == nil || !strings.Contains(err.Error(), "u.toml:21: head.pitch") {
+		t.Errorf("bad variant: %v", err)
+	}
+	if _, err := d.With(map[string]float64{"head.count": 7.5}); err == nil {
+		t.Error("fractional count accepted")
+	}
+	if _, err := d.With(map[string]float64{"head.colour": 1}); err == nil {
+		t.Error("unknown key accepted")
+	}
+	if x, err := ParseFor("head.pitch", "7 mm"); err != nil || x != 0.007 {
+		t.Errorf("ParseFor: %g %v", x, err)
+	}
+	if x, err := ParseFor("air.speed", "60 mph"); err != nil || math.Abs(x-26.8224) > 1e-9 {
+		t.Errorf("ParseFor speed: %g %v", x, err)
+	}
+	keys := VaryKeys()
+	for _, k := range []string{"head.pitch", "barrel.count", "air.ambient", "cylinder.tilt", "load.mass"} {
+		found := false
+		for _, kk := range keys {
+			found = found || kk == k
+		}
+		if !found {
+			t.Errorf("VaryKeys lacks %s: %v", k, keys)
+		}
+	}
+}

@@ -1,0 +1,137 @@
+package design
+
+import (
+	"fmt"
+	"math"
+	"reflect"
+	"sort"
+	"strconv"
+	"strings"
+)
+
+// quantityField is implemented by every Q[D].
+type quantityField interface {
+	dimension() *dimension
+	setSI(v float64)
+}
+
+func (q *Q[D]) dimension() *dimension { var d D; return d.dim() }
+func (q *Q[D]) setSI(v float64)       { q.SI, q.Set, q.Bare = v, true, false }
+
+// field finds the struct field of f named by a dotted key (toml tags).
+func field(f *File, key string) (reflect.Value, error) {
+	v := reflect.ValueOf(f).Elem()
+	parts := strings.Split(key, ".")
+	for i, p := range parts {
+		if v.Kind() != reflect.Struct {
+			return reflect.Value{}, fmt.Errorf("%q is not a key that can vary", key)
+		}
+		t := v.Type()
+		found := false
+		for j := 0; j < t.NumField(); j++ {
+			if t.Field(j).Tag.Get("toml") == p {
+				v = v.Field(j)
+				found = true
+				break
+			}
+		}
+		if !found {
+			return reflect.Value{}, fmt.Errorf("%q: no key %q under %q", key, p, strings.Join(parts[:i], "."))
+		}
+	}
+	return v, nil
+}
+
+// VaryKeys lists the numeric keys a sweep or the optimiser may vary.
+func VaryKeys() []string {
+	var out []string
+	for tbl, keys := range schema() {
+		if tbl == "" || strings.Contains(tbl, "*") || tbl == "alloys" {
+			continue
+		}
+		for _, k := range keys {
+			var f File
+			v, err := field(&f, tbl+"."+k)
+			if err != nil {
+				continue
+			}
+			if _, ok := v.Addr().Interface().(quantityField); ok || (v.Kind() == reflect.Int && k == "count") {
+				out = append(out, tbl+"."+k)
+			}
+		}
+	}
+	out = append(out, "segments")
+	sort.Strings(out)
+	return out
+}
+
+// ParseFor parses a value for a varied key, with the key's units ("6 mm"
+// for head.pitch); counts take whole numbers.
+func ParseFor(key, s string) (float64, error) {
+	var f File
+	v, err := field(&f, key)
+	if err != nil {
+		return 0, err
+	}
+	if q, ok := v.Addr().Interface().(quantityField); ok {
+		if x, err := strconv.ParseFloat(strings.TrimSpace(s), 64); err == nil {
+			return parseQuantity(x, q.dimension())
+		}
+		return parseString(s, q.dimension())
+	}
+	if v.Kind() == reflect.Int {
+		n, err := strconv.Atoi(strings.TrimSpace(s))
+		if err != nil {
+			return 0, fmt.Errorf("%s takes a whole number, not %q", key, s)
+		}
+		return float64(n), nil
+	}
+	return 0, fmt.Errorf("%q is not a numeric key", key)
+}
+
+// With returns the design with the given keys (dotted, SI values) changed,
+// checked by exactly the rules of Parse. The error lists what is wrong at
+// this point of a sweep; line numbers refer to the original file.
+func (d *Design) With(values map[string]float64) (*Design, error) {
+	if d.file == nil {
+		return nil, fmt.Errorf("design %q was not read from a file", d.Name)
+	}
+	f := *d.file
+	for key, val := range values {
+		if key == "segments" {
+			f.Segments = int(math.Round(val))
+			continue
+		}
+		v, err := field(&f, key)
+		if err != nil {
+			return nil, err
+		}
+		if q, ok := v.Addr().Interface().(quantityField); ok {
+			q.setSI(val)
+			continue
+		}
+		if v.Kind() == reflect.Int {
+			if val != math.Trunc(val) {
+				return nil, fmt.Errorf("%s = %g is not a whole number", key, val)
+			}
+			v.SetInt(int64(val))
+			continue
+		}
+		return nil, fmt.Errorf("%q is not a numeric key", key)
+	}
+	var errs Errors
+	add := func(key, format string, a ...any) {
+		errs = append(errs, &Error{File: d.Source, Line: d.loc.line(key), Key: key, Msg: fmt.Sprintf(format, a...)})
+	}
+	nd := build(&f, d.md, d.Source, add)
+	if len(errs) > 0 {
+		return nil, errs
+	}
+	nd.file, nd.md, nd.loc = d.file, d.md, d.loc
+	if d.Case.Segments != 0 && !hasKey(values, "segments") && d.segOverride {
+		nd.Case.Segments, nd.segOverride = d.Case.Segments, true
+	}
+	return nd, nil
+}
+
+func hasKey(m map[string]float64, k string) bool { _, ok := m[k]; return ok }
