@@ -1,0 +1,475 @@
+package app
+
+import (
+	"bufio"
+	"container/heap"
+	"encoding/csv"
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+	"runtime"
+	"sort"
+	"strconv"
+	"strings"
+	"sync"
+
+	"github.com/schollz/progressbar/v3"
+	"github.com/spf13/cobra"
+	"golang.org/x/term"
+
+	"finmarch/cmd/internal/design"
+	"finmarch/cmd/internal/output"
+	"finmarch/fins"
+)
+
+// axis is one varied key with its values (SI).
+type axis struct {
+	key  string
+	vals []float64
+}
+
+// parseAxis reads "key=from:to:step" (units allowed on each part) or
+// "key=v1,v2,v3".
+func parseAxis(spec string) (axis, error) {
+	k, rest, ok := strings.Cut(spec, "=")
+	k = strings.TrimSpace(k)
+	if !ok || k == "" || strings.TrimSpace(rest) == "" {
+		return axis{}, fmt.Errorf("--vary %q: write key=from:to:step, e.g. head.pitch=6mm:12mm:1mm, or key=a,b,c", spec)
+	}
+	a := axis{key: k}
+	parse := func(s string) (float64, error) {
+		v, err := design.ParseFor(k, s)
+		if err != nil {
+			return 0, fmt.Errorf("--vary %s: %w", k, err)
+		}
+		return v, nil
+	}
+	if strings.Contains(rest, ":") {
+		p := strings.Split(rest, ":")
+		if len(p) != 3 {
+			return axis{}, fmt.Errorf("--vary %q: a range is from:to:step", spec)
+		}
+		var v [3]float64
+		for i := range p {
+			x, err := parse(p[i])
+			if err != nil {
+				return axis{}, err
+			}
+			v[i] = x
+		}
+		if !(v[2] > 0) || v[1] < v[0] {
+			return axis{}, fmt.Errorf("--vary %q: need from <= to and a positive step", spec)
+		}
+		n := math.Floor((v[1]-v[0])/v[2]+1e-9) + 1
+		if n > 1e7 {
+			return axis{}, fmt.Errorf("--vary %q: %g values on one axis; at most 10 million", spec, n)
+		}
+		for i := 0; i < int(n); i++ {
+			a.vals = append(a.vals, v[0]+float64(i)*v[2])
+		}
+		return a, nil
+	}
+	for _, s := range strings.Split(rest, ",") {
+		x, err := parse(s)
+		if err != nil {
+			return axis{}, err
+		}
+		a.vals = append(a.vals, x)
+	}
+	return a, nil
+}
+
+type sweepRow struct {
+	idx          int
+	vals         []float64
+	ok           bool
+	equilibrium  bool
+	msg          string
+	headT, barrT float64
+	headM, barrM float64
+	mass, perKg  float64
+	hc, bc       int // fin counts of the evaluated design
+	status       string
+}
+
+// rowHeap keeps the best n rows by a key (a max-heap on the key, so the
+// worst of the kept rows is on top and is dropped first).
+type rowHeap struct {
+	rows []sweepRow
+	key  func(r sweepRow) float64
+}
+
+func (h rowHeap) Len() int           { return len(h.rows) }
+func (h rowHeap) Less(i, j int) bool { return h.key(h.rows[i]) > h.key(h.rows[j]) }
+func (h rowHeap) Swap(i, j int)      { h.rows[i], h.rows[j] = h.rows[j], h.rows[i] }
+func (h *rowHeap) Push(x any)        { h.rows = append(h.rows, x.(sweepRow)) }
+func (h *rowHeap) Pop() any {
+	r := h.rows[len(h.rows)-1]
+	h.rows = h.rows[:len(h.rows)-1]
+	return r
+}
+
+func keep(h *rowHeap, r sweepRow, n int) {
+	if h.Len() < n {
+		heap.Push(h, r)
+		return
+	}
+	if h.key(r) < h.key(h.rows[0]) {
+		h.rows[0] = r
+		heap.Fix(h, 0)
+	}
+}
+
+func (e *env) sweepCmd() *cobra.Command {
+	var vary []string
+	var workers, top int
+	var keepCount bool
+	cmd := &cobra.Command{
+		Use:   "sweep DESIGN.toml --vary KEY=FROM:TO:STEP [--vary ...]",
+		Short: "Sweep any numeric keys over a grid, in parallel, streaming rows to CSV or JSON lines",
+		Long: `sweep evaluates the design at every point of a grid over one or more numeric keys
+(several --vary flags make a grid) on all cores. With --format csv or json the rows
+stream out as they finish (JSON lines for json), in constant memory whatever the
+grid size; each row carries its grid index. A summary of the best rows follows (on
+stderr when the rows go to stdout). When pitch, root thickness, finned length or
+diameter vary and the count does not, each set gets as many fins as fit (use
+--keep-count to hold the design's counts). Keys: ` + strings.Join(design.VaryKeys(), ", ") + `.
+
+  finmarch sweep my.toml --vary head.pitch=6mm:14mm:1mm --vary air.speed=40km/h:120km/h:40km/h`,
+		Args:              cobra.ExactArgs(1),
+		ValidArgsFunction: tomlArgs,
+		RunE: func(_ *cobra.Command, args []string) error {
+			d, err := e.load(args[0])
+			if err != nil {
+				return err
+			}
+			if len(vary) == 0 {
+				return fail(ExitUsage, fmt.Errorf("give at least one --vary KEY=FROM:TO:STEP"))
+			}
+			var axes []axis
+			total := 1
+			for _, v := range vary {
+				a, err := parseAxis(v)
+				if err != nil {
+					return fail(ExitUsage, err)
+				}
+				axes = append(axes, a)
+				total *= len(a.vals)
+				if total > 100_000_000 {
+					return fail(ExitUsage, fmt.Errorf("the grid has more than 100 million points"))
+				}
+			}
+			if workers <= 0 {
+				workers = runtime.GOMAXPROCS(0)
+			}
+			if top < 1 || top > 1000 {
+				return fail(ExitUsage, fmt.Errorf("--top %d: allowed 1 to 1000", top))
+			}
+			return e.sweep(d, axes, total, workers, top, keepCount)
+		},
+	}
+	cmd.Flags().StringArrayVar(&vary, "vary", nil, "KEY=FROM:TO:STEP (units allowed) or KEY=A,B,C; repeat for a grid")
+	cmd.Flags().IntVar(&workers, "workers", 0, "parallel workers (default: all cores)")
+	cmd.Flags().IntVar(&top, "top", 10, "rows in each summary table")
+	cmd.Flags().BoolVar(&keepCount, "keep-count", false, "keep the fin counts of the design when pitch, thickness or length vary (default: as many fins as fit)")
+	return cmd
+}
+
+// runGrid evaluates every grid point on workers goroutines and hands each
+// row to sink on the calling goroutine, as the rows finish.
+func runGrid(d *design.Design, axes []axis, total, workers int, fit bool, sink func(sweepRow)) {
+	jobs := make(chan int, 4*workers)
+	rows := make(chan sweepRow, 4*workers)
+	var wg sync.WaitGroup
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range jobs {
+				rows <- evalPoint(d, axes, i, make(map[string]float64, len(axes)+2), fit)
+			}
+		}()
+	}
+	go func() {
+		for i := 0; i < total; i++ {
+			jobs <- i
+		}
+		close(jobs)
+		wg.Wait()
+		close(rows)
+	}()
+	for r := range rows {
+		sink(r)
+	}
+}
+
+// fitCounts sets the fin count of each set whose pitch, root thickness,
+// length or diameter varies (and whose count does not) to as many fins as
+// fit, so that a pitch sweep keeps the finned length filled.
+func fitCounts(d *design.Design, vals map[string]float64) {
+	for _, s := range []struct {
+		name string
+		set  fins.Set
+	}{{"head", d.Case.Head.Set}, {"barrel", d.Case.Barrel.Set}} {
+		if _, fixed := vals[s.name+".count"]; fixed {
+			continue
+		}
+		get := func(key string, def float64) float64 {
+			if v, ok := vals[key]; ok {
+				return v
+			}
+			return def
+		}
+		p := get(s.name+".pitch", s.set.Pitch)
+		t := get(s.name+".root_thickness", s.set.RootThickness)
+		L := get("cylinder."+s.name+"_length", s.set.Length)
+		D := get("cylinder."+s.name+"_diameter", s.set.RootDiameter)
+		touched := false
+		for _, k := range []string{s.name + ".pitch", s.name + ".root_thickness", "cylinder." + s.name + "_length", "cylinder." + s.name + "_diameter"} {
+			_, ok := vals[k]
+			touched = touched || ok
+		}
+		if !touched || !(p > 0) {
+			continue
+		}
+		n := 1
+		if s.set.Style == fins.StyleAnnular {
+			n = int(math.Floor((L-t)/p+1e-9)) + 1
+		} else {
+			n = int(math.Floor(math.Pi*D/p + 1e-9))
+		}
+		vals[s.name+".count"] = float64(max(n, 1))
+	}
+}
+
+func evalPoint(d *design.Design, axes []axis, i int, vals map[string]float64, fit bool) sweepRow {
+	r := sweepRow{idx: i, vals: make([]float64, len(axes))}
+	j := i
+	for k := len(axes) - 1; k >= 0; k-- {
+		a := axes[k]
+		r.vals[k] = a.vals[j%len(a.vals)]
+		vals[a.key] = r.vals[k]
+		j /= len(a.vals)
+	}
+	if fit {
+		fitCounts(d, vals)
+	}
+	v, err := d.With(vals)
+	if err != nil {
+		r.status, r.msg = "invalid", firstLine(err.Error())
+		return r
+	}
+	o, err := evaluate(v, v.Case.Speed)
+	if err == nil {
+		err = o.check()
+	}
+	if err != nil {
+		r.status, r.msg = "failed", firstLine(err.Error())
+		return r
+	}
+	r.ok, r.equilibrium = true, o.err == nil
+	r.hc, r.bc = v.Case.Head.Set.Count, v.Case.Barrel.Set.Count
+	r.headT, r.barrT = o.res.Head.WallTemp, o.res.Barrel.WallTemp
+	r.headM, r.barrM = o.headMargin(), o.barrelMargin()
+	r.mass = o.res.Head.FinMass + o.res.Barrel.FinMass
+	r.perKg = (o.res.Head.HeatRejected + o.res.Barrel.HeatRejected) / r.mass
+	r.status = o.status()
+	if o.err != nil {
+		r.msg = firstLine(o.err.Error())
+	}
+	return r
+}
+
+func firstLine(s string) string {
+	if i := strings.IndexByte(s, '\n'); i >= 0 {
+		return s[:i] + " (and more)"
+	}
+	return s
+}
+
+// displayFor converts a varied key's SI value to the display unit.
+func displayFor(u output.Units, key string, v float64) (string, string) {
+	switch {
+	case strings.HasSuffix(key, ".count") || key == "segments":
+		return strconv.Itoa(int(v)), ""
+	case strings.HasSuffix(key, "speed"):
+		return output.Num(u.Road(v), 2), u.RoadU()
+	case strings.HasSuffix(key, "ambient") || strings.HasPrefix(key, "limits.") || strings.HasSuffix(key, "_wall"):
+		return output.Num(u.Temp(v), 2), u.TempU()
+	case key == "cylinder.tilt":
+		return output.Num(v*180/math.Pi, 2), "deg"
+	case key == "air.altitude":
+		return output.Num(u.Alt(v), 1), u.AltU()
+	case strings.HasPrefix(key, "head.") || strings.HasPrefix(key, "barrel.") && !strings.HasSuffix(key, "emissivity") ||
+		strings.HasPrefix(key, "cylinder."):
+		if strings.HasSuffix(key, "emissivity") {
+			return output.Num(v, 3), ""
+		}
+		return output.Num(u.Len(v), u.LenDec()+2), u.LenU()
+	}
+	return strconv.FormatFloat(v, 'g', 6, 64), "SI"
+}
+
+func (e *env) sweep(d *design.Design, axes []axis, total, workers, top int, keepCount bool) error {
+	f, u, err := e.settings()
+	if err != nil {
+		return err
+	}
+	streaming := f == output.CSV || f == output.JSON
+	var dst io.Writer = e.stdout
+	var tmp *os.File
+	summaryTo := e.stdout
+	if streaming {
+		summaryTo = e.stderr
+	}
+	if e.opt.out != "" {
+		if !e.opt.force {
+			if _, err := os.Stat(e.opt.out); err == nil {
+				return fail(ExitIO, fmt.Errorf("%s already exists; add --force to replace it", e.opt.out))
+			}
+		}
+		tmp, err = os.CreateTemp(filepath.Dir(e.opt.out), "."+filepath.Base(e.opt.out)+".tmp-*")
+		if err != nil {
+			return fail(ExitIO, fmt.Errorf("cannot write %s: %w", e.opt.out, err))
+		}
+		defer os.Remove(tmp.Name()) // a no-op once renamed
+		dst = tmp
+		summaryTo = e.stdout
+	}
+	bw := bufio.NewWriterSize(dst, 1<<16)
+	cw := csv.NewWriter(bw)
+	T := u.TempU()
+	header := []string{"index"}
+	for _, a := range axes {
+		_, unit := displayFor(u, a.key, a.vals[0])
+		if unit != "" {
+			header = append(header, a.key+" ("+unit+")")
+		} else {
+			header = append(header, a.key)
+		}
+	}
+	header = append(header, "head fins", "barrel fins", "head ("+T+")", "barrel ("+T+")", "head margin ("+u.TempDiffU()+")", "barrel margin ("+u.TempDiffU()+")",
+		"fin mass ("+u.MassU()+")", "heat per kg (W/kg)", "status", "note")
+	if f == output.CSV {
+		if err := cw.Write(header); err != nil {
+			return fail(ExitIO, err)
+		}
+	}
+	cells := func(r sweepRow) []string {
+		c := []string{strconv.Itoa(r.idx)}
+		for k, a := range axes {
+			s, _ := displayFor(u, a.key, r.vals[k])
+			c = append(c, s)
+		}
+		if !r.ok {
+			return append(c, "", "", "", "", "", "", "", "", r.status, r.msg)
+		}
+		return append(c, strconv.Itoa(r.hc), strconv.Itoa(r.bc), fmtT(u, r.headT), fmtT(u, r.barrT), fmtDT(u, r.headM), fmtDT(u, r.barrM),
+			output.Num(u.Mass(r.mass), 3), output.Num(r.perKg, 0), r.status, r.msg)
+	}
+	var bar *progressbar.ProgressBar
+	if sf, ok := e.stderr.(*os.File); ok && !e.opt.quiet && total >= 200 && term.IsTerminal(int(sf.Fd())) {
+		bar = progressbar.NewOptions(total, progressbar.OptionSetWriter(os.Stderr), progressbar.OptionSetDescription("sweep"),
+			progressbar.OptionShowCount(), progressbar.OptionThrottle(100_000_000), progressbar.OptionClearOnFinish())
+	}
+	coolest := &rowHeap{key: func(r sweepRow) float64 { return r.headT }}
+	lightest := &rowHeap{key: func(r sweepRow) float64 { return r.mass }}
+	counts := map[string]int{}
+	var werr error
+	runGrid(d, axes, total, workers, !keepCount, func(r sweepRow) {
+		counts[r.status]++
+		if r.ok && r.equilibrium {
+			keep(coolest, r, top)
+			if r.headM >= 0 && r.barrM >= 0 {
+				keep(lightest, r, top)
+			}
+		}
+		if werr == nil {
+			switch f {
+			case output.CSV:
+				werr = cw.Write(cells(r))
+			case output.JSON:
+				m := map[string]any{"index": r.idx, "status": r.status}
+				for k, a := range axes {
+					m[a.key] = r.vals[k]
+				}
+				if r.ok {
+					m["head_K"], m["barrel_K"], m["head_margin_K"], m["barrel_margin_K"] = r.headT, r.barrT, r.headM, r.barrM
+					m["fin_mass_kg"], m["heat_per_kg_W"], m["equilibrium"] = r.mass, r.perKg, r.equilibrium
+					m["head_fins"], m["barrel_fins"] = r.hc, r.bc
+				}
+				if r.msg != "" {
+					m["note"] = r.msg
+				}
+				var b []byte
+				if b, werr = json.Marshal(m); werr == nil {
+					b = append(b, '\n')
+					_, werr = bw.Write(b)
+				}
+			}
+		}
+		if bar != nil {
+			_ = bar.Add(1)
+		}
+	})
+	if bar != nil {
+		_ = bar.Finish()
+	}
+	cw.Flush()
+	if werr == nil {
+		werr = cw.Error()
+	}
+	if werr == nil {
+		werr = bw.Flush()
+	}
+	if werr != nil {
+		return fail(ExitIO, fmt.Errorf("writing the sweep: %w", werr))
+	}
+	if tmp != nil {
+		if err := tmp.Close(); err != nil {
+			return fail(ExitIO, err)
+		}
+		if err := os.Rename(tmp.Name(), e.opt.out); err != nil {
+			return fail(ExitIO, fmt.Errorf("cannot write %s: %w", e.opt.out, err))
+		}
+	}
+	// summary
+	sorted := func(h *rowHeap) []sweepRow {
+		rs := append([]sweepRow(nil), h.rows...)
+		sort.Slice(rs, func(i, j int) bool {
+			return h.key(rs[i]) < h.key(rs[j]) || h.key(rs[i]) == h.key(rs[j]) && rs[i].idx < rs[j].idx
+		})
+		return rs
+	}
+	grid := func(title string, rs []sweepRow) output.Grid {
+		g := output.Grid{Title: title, Header: header[:len(header)-1]}
+		for _, r := range rs {
+			c := cells(r)
+			g.Rows = append(g.Rows, c[:len(c)-1])
+		}
+		return g
+	}
+	var keys []string
+	for k := range counts {
+		keys = append(keys, fmt.Sprintf("%s %d", k, counts[k]))
+	}
+	sort.Strings(keys)
+	doc := output.Doc{Title: fmt.Sprintf("%s: sweep of %d points on %d workers (%s)", d.Name, total, workers, strings.Join(keys, ", ")),
+		Grids: []output.Grid{grid(fmt.Sprintf("Coolest heads (best %d)", top), sorted(coolest)),
+			grid(fmt.Sprintf("Lightest fins within both limits (best %d)", top), sorted(lightest))},
+		Caution: true}
+	if counts["invalid"] > 0 {
+		doc.Notes = append(doc.Notes, "Invalid points break a design rule (the row's note says which) and are not estimated.")
+	}
+	sf := output.Table
+	if f == output.Markdown {
+		sf = output.Markdown
+	}
+	if err := output.Write(summaryTo, doc, sf); err != nil {
+		return fail(ExitIO, err)
+	}
+	return nil
+}

@@ -1,0 +1,83 @@
+package app
+
+import (
+	"bufio"
+	"encoding/csv"
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+func TestSweepCSVAndJSON(t *testing.T) {
+	up, _ := designs(t)
+	out, errs, code := run(t, "sweep", up, "-f", "csv", "--vary", "head.pitch=6mm:14mm:2mm", "--vary", "air.speed=50km/h,120km/h")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	recs, err := csv.NewReader(strings.NewReader(out)).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(recs) != 11 || recs[0][0] != "index" || recs[0][1] != "head.pitch (mm)" {
+		t.Fatalf("want header and 10 rows, got %d: %v", len(recs), recs[0])
+	}
+	seen := map[string]bool{}
+	for _, r := range recs[1:] {
+		seen[r[0]] = true
+		if r[len(r)-2] == "invalid" || r[len(r)-2] == "failed" {
+			t.Errorf("row %v", r)
+		}
+	}
+	if len(seen) != 10 {
+		t.Errorf("indices %v", seen)
+	}
+	if !strings.Contains(errs, "Coolest heads") {
+		t.Error("summary not on stderr")
+	}
+	// counts follow the pitch: 6 mm fits 12 fins in 72 mm, 14 mm fits 5
+	for _, r := range recs[1:] {
+		if r[1] == "6.000" && r[3] != "12" || r[1] == "14.000" && r[3] != "5" {
+			t.Errorf("fitted count wrong in %v", r)
+		}
+	}
+	// JSON lines
+	dir := t.TempDir()
+	jl := filepath.Join(dir, "s.jsonl")
+	out, errs, code = run(t, "sweep", up, "-f", "json", "-o", jl, "--vary", "head.height=20mm:40mm:10mm", "--vary", "head.pitch=3mm,9mm")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	if !strings.Contains(out, "Lightest fins") {
+		t.Error("summary should go to stdout when rows go to a file")
+	}
+	f, _ := os.Open(jl)
+	defer f.Close()
+	sc := bufio.NewScanner(f)
+	n, invalid := 0, 0
+	for sc.Scan() {
+		var m map[string]any
+		if err := json.Unmarshal(sc.Bytes(), &m); err != nil {
+			t.Fatalf("line %q: %v", sc.Text(), err)
+		}
+		if m["status"] == "invalid" {
+			invalid++
+			if !strings.Contains(m["note"].(string), "head.pitch") {
+				t.Errorf("invalid row without the reason: %v", m)
+			}
+		}
+		n++
+	}
+	if n != 6 || invalid != 3 {
+		t.Errorf("%d lines, %d invalid; want 6 and 3 (3 mm pitch is below the 4 mm root)", n, invalid)
+	}
+	if _, _, code := run(t, "sweep", up, "-f", "json", "-o", jl, "--vary", "head.height=20mm:40mm:10mm"); code != ExitIO {
+		t.Errorf("overwrote without --force: exit %d", code)
+	}
+	for _, bad := range [][]string{{"--vary", "head.pitch"}, {"--vary", "head.colour=1:2:1"}, {"--vary", "head.pitch=9mm:6mm:1mm"}, {}} {
+		if _, _, code := run(t, append([]string{"sweep", up}, bad...)...); code != ExitUsage {
+			t.Errorf("%v: exit %d", bad, code)
+		}
+	}
+}
