@@ -568,3 +568,33 @@ func BenchmarkCurve(b *testing.B) {
 		sink += c.Efficiency(50+float64(i&63), 151, nil)
 	}
 }
+
+// Casting limits: slacks computed by hand for one set.
+func TestCastingCheck(t *testing.T) {
+	p, err := LookupProcess("permanent-mold")
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := Set{Style: StyleAnnular, Count: 8, Pitch: 0.009, Height: 0.04, RootThickness: 0.004, TipThickness: 0.002, RootDiameter: 0.12, Length: 0.072}
+	v := p.Check(s)
+	want := map[string]float64{
+		"minimum thickness": 0.002 - 0.002,
+		"height to gap":     7 - 0.04/0.005,
+		"draft":             0.002/(2*0.04) - math.Tan(math.Pi/180),
+	}
+	for _, x := range v {
+		if math.Abs(x.Slack-want[x.Constraint]) > 1e-12 {
+			t.Errorf("%s slack %g, want %g", x.Constraint, x.Slack, want[x.Constraint])
+		}
+	}
+	if p.Feasible(s) {
+		t.Error("8:1 fins pass a 7:1 limit")
+	}
+	m, _ := LookupProcess("machined")
+	if !m.Feasible(s) {
+		t.Error("the set is machinable")
+	}
+	if _, err := LookupProcess("forged"); err == nil {
+		t.Error("unknown process accepted")
+	}
+}

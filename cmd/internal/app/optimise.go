@@ -1,0 +1,368 @@
+package app
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+	"sync"
+
+	"github.com/spf13/cobra"
+
+	"finmarch/cmd/internal/design"
+	"finmarch/cmd/internal/optimise"
+	"finmarch/cmd/internal/output"
+	"finmarch/fins"
+)
+
+type optVar struct {
+	name, key string // flag name, design key suffix
+	lo, hi    float64
+	integer   bool
+	isLength  bool
+}
+
+func (e *env) optimiseCmd() *cobra.Command {
+	var set, goal, process, limit, minThick, maxAspect, draft string
+	ranges := map[string]*string{}
+	var levels int
+	cmd := &cobra.Command{
+		Use:     "optimise DESIGN.toml",
+		Aliases: []string{"optimize"},
+		Short:   "Choose fin pitch, height, thicknesses and count for the coolest head or the lightest fins, within casting limits",
+		Long: `optimise varies one fin set's pitch, height, root and tip thickness and count within
+bounds (defaults around the design; set them with --pitch 6mm:14mm and so on) at the
+design's cruise point, keeping the casting limits of a process (minimum thickness,
+height-to-gap ratio, draft). --goal cool minimises the set's wall temperature;
+--goal light minimises its fin mass with the wall at or below the limit. It prints
+the optimum, the constraints that hold it, and the trade-off front of temperature
+against fin mass from every design it evaluated.`,
+		Args:              cobra.ExactArgs(1),
+		ValidArgsFunction: tomlArgs,
+		RunE: func(_ *cobra.Command, args []string) error {
+			d, err := e.load(args[0])
+			if err != nil {
+				return err
+			}
+			if d.WallFixed {
+				return fail(ExitUsage, fmt.Errorf("the design fixes the wall temperatures ([override]); remove them to optimise"))
+			}
+			if set != "head" && set != "barrel" {
+				return fail(ExitUsage, fmt.Errorf("--set %q: head or barrel", set))
+			}
+			if goal != "cool" && goal != "light" {
+				return fail(ExitUsage, fmt.Errorf("--goal %q: cool or light", goal))
+			}
+			p, err := fins.LookupProcess(process)
+			if err != nil {
+				return fail(ExitUsage, err)
+			}
+			for _, o := range []struct {
+				flag, s string
+				dst     *float64
+				parse   func(string) (float64, error)
+			}{
+				{"--min-thickness", minThick, &p.MinThickness, design.ParseValue[design.Length]},
+				{"--max-aspect", maxAspect, &p.MaxAspect, func(s string) (float64, error) { return design.ParseFor("air.pressure_recovery", s) }},
+				{"--draft", draft, &p.MinDraft, design.ParseValue[design.Angle]},
+			} {
+				if o.s == "" {
+					continue
+				}
+				v, err := o.parse(o.s)
+				if err != nil || v < 0 {
+					return fail(ExitUsage, fmt.Errorf("%s %q: %v", o.flag, o.s, err))
+				}
+				*o.dst = v
+				p.Name += " (adjusted)"
+			}
+			lim := d.HeadLimit
+			if set == "barrel" {
+				lim = d.BarrelLimit
+			}
+			if limit != "" {
+				if lim, err = design.ParseValue[design.Temperature](limit); err != nil {
+					return fail(ExitUsage, fmt.Errorf("--limit: %w", err))
+				}
+			}
+			if levels < 3 || levels > 9 {
+				return fail(ExitUsage, fmt.Errorf("--levels %d: allowed 3 to 9", levels))
+			}
+			vars, err := optBounds(d, set, p, ranges)
+			if err != nil {
+				return err
+			}
+			return e.optimise(d, set, goal, p, lim, vars, levels)
+		},
+	}
+	f := cmd.Flags()
+	f.StringVar(&set, "set", "head", "fin set to optimise: head or barrel")
+	f.StringVar(&goal, "goal", "cool", "cool (lowest wall temperature) or light (least fin mass within the limit)")
+	f.StringVar(&process, "process", "permanent-mould", "casting process: sand, permanent-mould, die-casting or machined")
+	f.StringVar(&limit, "limit", "", "wall temperature limit for --goal light (default: the design's limit)")
+	f.StringVar(&minThick, "min-thickness", "", "override the process's minimum fin thickness")
+	f.StringVar(&maxAspect, "max-aspect", "", "override the process's maximum height-to-gap ratio")
+	f.StringVar(&draft, "draft", "", "override the process's minimum draft angle per face, e.g. \"1 deg\"")
+	f.IntVar(&levels, "levels", 5, "grid levels per variable before the pattern search")
+	for _, v := range []string{"pitch", "height", "root-thickness", "tip-thickness", "count"} {
+		s := ""
+		ranges[v] = &s
+		f.StringVar(ranges[v], v, "", "bounds FROM:TO for the "+v+" (default: around the design)")
+	}
+	return cmd
+}
+
+func optBounds(d *design.Design, set string, p fins.Process, ranges map[string]*string) ([]optVar, error) {
+	s := d.Case.Head.Set
+	if set == "barrel" {
+		s = d.Case.Barrel.Set
+	}
+	tmin := p.MinThickness
+	vars := []optVar{
+		{name: "pitch", key: "pitch", lo: math.Max(0.6*s.Pitch, tmin+1e-3), hi: 1.6 * s.Pitch, isLength: true},
+		{name: "height", key: "height", lo: 0.5 * s.Height, hi: math.Min(1.5*s.Height, s.RootDiameter), isLength: true},
+		{name: "root-thickness", key: "root_thickness", lo: tmin, hi: math.Max(2*s.RootThickness, tmin+1e-3), isLength: true},
+		{name: "tip-thickness", key: "tip_thickness", lo: tmin, hi: math.Max(2*s.RootThickness, tmin+1e-3), isLength: true},
+		{name: "count", key: "count", lo: 1, integer: true},
+	}
+	for i := range vars {
+		v := &vars[i]
+		if r := *ranges[v.name]; r != "" {
+			a, b, ok := strings.Cut(r, ":")
+			if !ok {
+				return nil, fail(ExitUsage, fmt.Errorf("--%s %q: write FROM:TO", v.name, r))
+			}
+			var err error
+			key := set + "." + v.key
+			if v.lo, err = design.ParseFor(key, a); err == nil {
+				v.hi, err = design.ParseFor(key, b)
+			}
+			if err != nil || !(v.hi >= v.lo) || v.lo < 0 {
+				return nil, fail(ExitUsage, fmt.Errorf("--%s %q: need FROM <= TO with units (%v)", v.name, r, err))
+			}
+		}
+	}
+	if *ranges["count"] == "" {
+		minPitch := vars[0].lo
+		if s.Style == fins.StyleAnnular {
+			vars[4].hi = math.Floor((s.Length-vars[2].lo)/minPitch) + 1
+		} else {
+			vars[4].hi = math.Floor(math.Pi * s.RootDiameter / minPitch)
+		}
+		vars[4].hi = math.Max(vars[4].hi, 1)
+	}
+	return vars, nil
+}
+
+type optPoint struct {
+	x        []float64
+	t, mass  float64
+	feasible bool
+}
+
+func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit float64, vars []optVar, levels int) error {
+	_, u, err := e.settings()
+	if err != nil {
+		return err
+	}
+	base := d.Case.Head.Set
+	if set == "barrel" {
+		base = d.Case.Barrel.Set
+	}
+	var mu sync.Mutex
+	var pts []optPoint
+	setOf := func(x []float64) fins.Set {
+		s := base
+		s.Pitch, s.Height, s.RootThickness, s.TipThickness, s.Count = x[0], x[1], x[2], x[3], int(x[4])
+		return s
+	}
+	// measure evaluates the set at x; cast applies the process limits
+	measureAs := func(x []float64, cast bool) (float64, float64, bool) {
+		s := setOf(x)
+		if s.TipThickness > s.RootThickness || cast && !p.Feasible(s) {
+			return 0, 0, false
+		}
+		vals := map[string]float64{set + ".pitch": x[0], set + ".height": x[1], set + ".root_thickness": x[2], set + ".tip_thickness": x[3], set + ".count": x[4]}
+		v, err := d.With(vals)
+		if err != nil {
+			return 0, 0, false
+		}
+		o, err := evaluate(v, v.Case.Speed)
+		if err != nil || o.err != nil || o.check() != nil {
+			return 0, 0, false
+		}
+		r := o.res.Head
+		if set == "barrel" {
+			r = o.res.Barrel
+		}
+		return r.WallTemp, r.FinMass, true
+	}
+	measure := func(x []float64) (float64, float64, bool) { return measureAs(x, true) }
+	obj := func(x []float64) float64 {
+		t, m, ok := measure(x)
+		mu.Lock()
+		pts = append(pts, optPoint{x: append([]float64(nil), x...), t: t, mass: m, feasible: ok})
+		mu.Unlock()
+		switch {
+		case !ok:
+			return math.Inf(1)
+		case goal == "cool":
+			return t
+		case t > limit:
+			// an exact penalty, 1 kg per kelvin over the limit: far steeper
+			// than fin mass trades against temperature (a few 10 g per K),
+			// so the search walks into the limit and the optimum sits on it
+			return m + (t - limit)
+		}
+		return m
+	}
+	lo := make([]float64, len(vars))
+	hi := make([]float64, len(vars))
+	integer := make([]bool, len(vars))
+	for i, v := range vars {
+		lo[i], hi[i], integer[i] = v.lo, v.hi, v.integer
+	}
+	res := optimise.Minimize(obj, lo, hi, integer, optimise.Options{Levels: levels, Tol: 1e-3}, nil)
+	if goal == "light" && !math.IsInf(res.F, 1) {
+		if t, _, _ := measure(res.X); t > limit+1e-6 {
+			res.F = math.Inf(1)
+		}
+	}
+	if math.IsInf(res.F, 1) {
+		why := "no design within the bounds and casting limits reaches an equilibrium"
+		if goal == "light" {
+			why = fmt.Sprintf("no design within the bounds and casting limits keeps the %s at or below %s %s", set, fmtT(u, limit), u.TempU())
+		}
+		return fail(ExitModel, fmt.Errorf("%s: %s; widen the bounds (--pitch, --height, ...), choose a finer process, or lower the load", d.Name, why))
+	}
+	bt, bm, _ := measure(res.X)
+	dt, dm, dok := measureAs([]float64{base.Pitch, base.Height, base.RootThickness, base.TipThickness, float64(base.Count)}, false)
+	var broken []string
+	for _, v := range p.Check(base) {
+		if v.Slack < -1e-12 {
+			broken = append(broken, v.Constraint)
+		}
+	}
+	L := func(v float64) string { return output.Num(u.Len(v), u.LenDec()+1) }
+	g := output.Grid{Title: fmt.Sprintf("Optimum %s fins (%s, goal %s)", set, p.Name, goal), Header: []string{"quantity", "unit", "design", "optimum", "bounds"}, Left: 2}
+	for i, v := range vars {
+		cur := []float64{base.Pitch, base.Height, base.RootThickness, base.TipThickness, float64(base.Count)}[i]
+		if v.integer {
+			g.Rows = append(g.Rows, []string{v.name, "", fmt.Sprint(int(cur)), fmt.Sprint(int(res.X[i])), fmt.Sprintf("%d to %d", int(v.lo), int(v.hi))})
+			continue
+		}
+		g.Rows = append(g.Rows, []string{v.name, u.LenU(), L(cur), L(res.X[i]), L(v.lo) + " to " + L(v.hi)})
+	}
+	dT, dM := "n/a", "n/a"
+	if dok {
+		dT, dM = fmtT(u, dt), output.Num(u.Mass(dm), 3)
+	}
+	g.Rows = append(g.Rows, []string{set + " wall temperature", u.TempU(), dT, fmtT(u, bt), ""},
+		[]string{set + " fin mass", u.MassU(), dM, output.Num(u.Mass(bm), 3), ""})
+	if goal == "light" {
+		g.Rows = append(g.Rows, []string{"limit", u.TempU(), "", fmtT(u, limit), ""})
+	}
+	c := output.Grid{Title: "Constraints at the optimum (slack 0 = active)", Header: []string{"constraint", "limit", "value", "slack", "active"}, Left: 1}
+	opt := setOf(res.X)
+	for _, v := range p.Check(opt) {
+		var lim, val string
+		switch v.Constraint {
+		case "minimum thickness":
+			lim, val = L(p.MinThickness)+" "+u.LenU(), L(opt.TipThickness)+" "+u.LenU()
+		case "height to gap":
+			lim, val = output.Num(p.MaxAspect, 2), output.Num(opt.Height/(opt.Pitch-opt.RootThickness), 2)
+		case "draft":
+			lim, val = output.Num(p.MinDraft*180/math.Pi, 2)+" deg", output.Num(math.Atan((opt.RootThickness-opt.TipThickness)/(2*opt.Height))*180/math.Pi, 2)+" deg"
+		}
+		// active: within 2% of the limit's own size
+		scale := map[string]float64{"minimum thickness": p.MinThickness, "height to gap": p.MaxAspect, "draft": math.Tan(p.MinDraft)}[v.Constraint]
+		active := "no"
+		if v.Slack <= 0.02*scale+1e-9 {
+			active = "yes"
+		}
+		c.Rows = append(c.Rows, []string{v.Constraint, lim, val, fmt.Sprintf("%.3g", v.Slack), active})
+	}
+	for i, v := range vars {
+		span := v.hi - v.lo
+		if span > 0 && (res.X[i]-v.lo <= 1e-3*span || v.hi-res.X[i] <= 1e-3*span) {
+			c.Rows = append(c.Rows, []string{v.name + " bound", L(v.lo) + " to " + L(v.hi), L(res.X[i]), "0", "yes"})
+			if v.integer {
+				c.Rows[len(c.Rows)-1] = []string{v.name + " bound", fmt.Sprintf("%d to %d", int(v.lo), int(v.hi)), fmt.Sprint(int(res.X[i])), "0", "yes"}
+			}
+		}
+	}
+	if goal == "light" {
+		c.Rows = append(c.Rows, []string{set + " temperature limit", fmtT(u, limit) + " " + u.TempU(), fmtT(u, bt) + " " + u.TempU(), fmtDT(u, limit-bt), map[bool]string{true: "yes", false: "no"}[limit-bt < 1]})
+	}
+	front := pareto(pts)
+	fg := output.Grid{Title: "Trade-off front: wall temperature against fin mass (every evaluated design that no other beats on both)",
+		Header: []string{"fin mass (" + u.MassU() + ")", set + " (" + u.TempU() + ")", "pitch (" + u.LenU() + ")", "height (" + u.LenU() + ")", "root (" + u.LenU() + ")", "tip (" + u.LenU() + ")", "count"}}
+	for _, q := range front {
+		fg.Rows = append(fg.Rows, []string{output.Num(u.Mass(q.mass), 3), fmtT(u, q.t), L(q.x[0]), L(q.x[1]), L(q.x[2]), L(q.x[3]), fmt.Sprint(int(q.x[4]))})
+	}
+	doc := output.Doc{Title: fmt.Sprintf("%s: fin optimisation at %s %s, ambient %s %s", d.Name, output.Num(u.Road(d.Case.Speed), 0), u.RoadU(), fmtT(u, d.Case.Ambient), u.TempU()),
+		Grids: []output.Grid{g, c, fg}, Caution: true,
+		Notes: []string{
+			fmt.Sprintf("Casting limits (%s): %s.", p.Name, processSource(p)),
+			fmt.Sprintf("%d designs evaluated: a grid of %d levels per variable, then compass search from the best grid points.", res.Evals, levels),
+			designNote(broken, p),
+			"The other fin set and everything else stay as the design has them; check the result with 'finmarch estimate' after editing the design.",
+		}}
+	doc.JSON = map[string]any{"design": d.Name, "set": set, "goal": goal, "process": p, "optimum": map[string]any{
+		"pitch_m": res.X[0], "height_m": res.X[1], "root_thickness_m": res.X[2], "tip_thickness_m": res.X[3], "count": int(res.X[4]),
+		"wall_K": bt, "fin_mass_kg": bm}, "constraints": p.Check(opt), "front": frontJSON(front), "evaluations": res.Evals, "caution": output.Caution}
+	return e.emit(doc)
+}
+
+func designNote(broken []string, p fins.Process) string {
+	if len(broken) == 0 {
+		return "The design itself keeps the " + p.Name + " limits."
+	}
+	return "The design itself breaks the " + p.Name + " limits on " + strings.Join(broken, " and ") + "; its column shows it as drawn."
+}
+
+func processSource(p fins.Process) string {
+	for _, q := range fins.Processes {
+		if strings.HasPrefix(p.Name, q.Name) {
+			return q.Source
+		}
+	}
+	return "user supplied"
+}
+
+// pareto returns the feasible points not dominated in (mass, temperature),
+// lightest first, thinned to at most 12 rows spread along the front.
+func pareto(pts []optPoint) []optPoint {
+	var f []optPoint
+	for _, p := range pts {
+		if p.feasible {
+			f = append(f, p)
+		}
+	}
+	sort.Slice(f, func(i, j int) bool { return f[i].mass < f[j].mass || f[i].mass == f[j].mass && f[i].t < f[j].t })
+	var front []optPoint
+	best := math.Inf(1)
+	for _, p := range f {
+		if p.t < best-1e-9 {
+			front = append(front, p)
+			best = p.t
+		}
+	}
+	if len(front) <= 12 {
+		return front
+	}
+	out := make([]optPoint, 0, 12)
+	for i := 0; i < 12; i++ {
+		out = append(out, front[i*(len(front)-1)/11])
+	}
+	return out
+}
+
+func frontJSON(f []optPoint) []map[string]float64 {
+	var out []map[string]float64
+	for _, p := range f {
+		out = append(out, map[string]float64{"fin_mass_kg": p.mass, "wall_K": p.t, "pitch_m": p.x[0], "height_m": p.x[1],
+			"root_thickness_m": p.x[2], "tip_thickness_m": p.x[3], "count": p.x[4]})
+	}
+	return out
+}

@@ -1,0 +1,95 @@
+package app
+
+import (
+	"encoding/json"
+	"math"
+	"testing"
+
+	"finmarch/cmd/internal/demo"
+	"finmarch/cmd/internal/design"
+	"finmarch/fins"
+)
+
+// The optimiser keeps every casting limit and every bound, and its optimum
+// is no worse than the best point of a fine grid (9 levels on each free
+// variable) over the same bounds with the same limits.
+func TestOptimiserAgainstFineGrid(t *testing.T) {
+	up, _ := designs(t)
+	for _, goal := range []string{"cool", "light"} {
+		args := []string{"optimise", up, "-f", "json", "--goal", goal, "--limit", "205 C", "--process", "permanent-mould",
+			"--pitch", "8mm:12mm", "--height", "30mm:50mm", "--root-thickness", "3mm:5mm", "--tip-thickness", "2mm:2mm", "--count", "7:7"}
+		out, errs, code := run(t, args...)
+		if code != 0 {
+			t.Fatalf("%s: exit %d: %s", goal, code, errs)
+		}
+		var v struct {
+			Optimum struct {
+				Pitch  float64 `json:"pitch_m"`
+				Height float64 `json:"height_m"`
+				Root   float64 `json:"root_thickness_m"`
+				Tip    float64 `json:"tip_thickness_m"`
+				Count  int     `json:"count"`
+				Wall   float64 `json:"wall_K"`
+				Mass   float64 `json:"fin_mass_kg"`
+			} `json:"optimum"`
+		}
+		if err := json.Unmarshal([]byte(out), &v); err != nil {
+			t.Fatal(err)
+		}
+		o := v.Optimum
+		p, _ := fins.LookupProcess("permanent-mould")
+		d, _ := design.Parse(demo.Upright, "u.toml")
+		s := d.Case.Head.Set
+		s.Pitch, s.Height, s.RootThickness, s.TipThickness, s.Count = o.Pitch, o.Height, o.Root, o.Tip, o.Count
+		if !p.Feasible(s) {
+			t.Errorf("%s: optimum breaks a casting limit: %+v", goal, p.Check(s))
+		}
+		if o.Pitch < 0.008-1e-12 || o.Pitch > 0.012+1e-12 || o.Height < 0.03-1e-12 || o.Height > 0.05+1e-12 || o.Root < 0.003-1e-12 || o.Root > 0.005+1e-12 || o.Count != 7 || math.Abs(o.Tip-0.002) > 1e-12 {
+			t.Errorf("%s: optimum outside the bounds: %+v", goal, o)
+		}
+		limit := 205 + 273.15
+		if goal == "light" && o.Wall > limit+1e-6 {
+			t.Errorf("light: wall %.3f K above the limit", o.Wall)
+		}
+		// the fine grid
+		best := math.Inf(1)
+		for i := 0; i < 9; i++ {
+			for j := 0; j < 9; j++ {
+				for k := 0; k < 9; k++ {
+					q := s
+					q.Pitch, q.Height, q.RootThickness = 0.008+0.004*float64(i)/8, 0.03+0.02*float64(j)/8, 0.003+0.002*float64(k)/8
+					if !p.Feasible(q) {
+						continue
+					}
+					vd, err := d.With(map[string]float64{"head.pitch": q.Pitch, "head.height": q.Height, "head.root_thickness": q.RootThickness, "head.tip_thickness": 0.002, "head.count": 7})
+					if err != nil {
+						continue
+					}
+					r, err := evaluate(vd, vd.Case.Speed)
+					if err != nil || r.err != nil {
+						continue
+					}
+					f := r.res.Head.WallTemp
+					if goal == "light" {
+						if f > limit {
+							continue
+						}
+						f = r.res.Head.FinMass
+					}
+					best = math.Min(best, f)
+				}
+			}
+		}
+		got := o.Wall
+		if goal == "light" {
+			got = o.Mass
+		}
+		if math.IsInf(best, 1) {
+			t.Fatalf("%s: the fine grid found no feasible point", goal)
+		}
+		if got > best+1e-9 {
+			t.Errorf("%s: optimum %.6f is worse than the fine grid's %.6f", goal, got, best)
+		}
+		t.Logf("%s: optimum %.5f, fine grid %.5f", goal, got, best)
+	}
+}
