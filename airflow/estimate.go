@@ -137,6 +137,8 @@ type prepared struct {
 	c            Case
 	hg, bg       fins.Geometry
 	hc, bc       *fins.Curve // fin efficiency against h/k, filled as the march needs it
+	scratch      validity.Log
+	segBuf       []Segment // the march of the latest trial
 	hp, bp       Path
 	hm, bm       float64 // mass flow per path, kg/s
 	hvel, bvel   float64 // passage velocity at inlet density, m/s
@@ -348,7 +350,7 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tw
 	k := fs.Alloy.Conductivity(tw)
 	paths := float64(pt.Paths)
 	if keep {
-		out.seg = make([]Segment, 0, n)
+		out.seg = p.segBuf[:0]
 	}
 	t := tin
 	prevXNu := 0.0
@@ -427,6 +429,9 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tw
 		out.regime = "fixed h"
 	}
 	out.tOut = t
+	if keep {
+		p.segBuf = out.seg // keep the grown buffer for the next trial
+	}
 	return out
 }
 
@@ -481,6 +486,12 @@ func (p *prepared) setHeat(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, 
 	return r, m
 }
 
+// own gives a result its own copy of the march, which setHeat leaves in the
+// shared trial buffer.
+func own(r *SetResult) {
+	r.March = append([]Segment(nil), r.March...)
+}
+
 // AtWall evaluates the case with both wall temperatures fixed (K): how much
 // heat each set rejects.
 func (c Case) AtWall(headT, barrelT float64) (Result, error) {
@@ -495,11 +506,13 @@ func (c Case) AtWall(headT, barrelT float64) (Result, error) {
 		}
 	}
 	hr, hm := p.setHeat(c.Head, p.hg, p.hc, p.hp, headT, c.Ambient, p.hm, true)
+	own(&hr)
 	tin := c.Ambient
 	if p.seriesActive {
 		tin = hm.tOut
 	}
 	br, _ := p.setHeat(c.Barrel, p.bg, p.bc, p.bp, barrelT, tin, p.bm, true)
+	own(&br)
 	return p.result(hr, br, &log, true), nil
 }
 
@@ -533,21 +546,28 @@ func (c Case) Balance(load HeatLoad) (Result, error) {
 			keep := p.log
 			p.log = nil
 			r, m := p.setHeat(fs, g, cv, pt, tin+1e-9, tin, mdot, true)
+			own(&r)
 			p.log = keep
 			return r, m, nil
 		}
 		// the search must not record range warnings for trial wall
 		// temperatures the answer never takes; the final call does
-		memoX, memoF := math.NaN(), 0.0 // the secant re-evaluates its first point
+		// Each trial records its warnings in a scratch log and its march
+		// in a scratch buffer; the answer reuses the last trial when the
+		// root finder ends on it, and otherwise evaluates once more.
+		memoX, memoF := math.NaN(), 0.0
+		var memoR SetResult
+		var memoM marchOut
+		keep := p.log
 		f := func(tw float64) float64 {
 			if tw == memoX {
 				return memoF
 			}
-			keep := p.log
-			p.log = nil
-			r, _ := p.setHeat(fs, g, cv, pt, tw, tin, mdot, false)
+			p.scratch.Reset()
+			p.log = &p.scratch
+			memoR, memoM = p.setHeat(fs, g, cv, pt, tw, tin, mdot, true)
 			p.log = keep
-			memoX, memoF = tw, r.HeatRejected-q
+			memoX, memoF = tw, memoR.HeatRejected-q
 			return memoF
 		}
 		// On a series path the barrel may sit below the air the head sends
@@ -570,13 +590,20 @@ func (c Case) Balance(load HeatLoad) (Result, error) {
 		if err != nil {
 			if errors.Is(err, roots.ErrNoBracket) && f(SaneWallLimit) < 0 {
 				r, m := p.setHeat(fs, g, cv, pt, SaneWallLimit, tin, mdot, true)
+				own(&r)
 				r.HeatLoad = q
 				return r, m, fmt.Errorf("%w for the %s fins: at %.0f C wall temperature they reject only %.0f W of the %.0f W load; add fin area, raise the air speed or pressure recovery, or lower the heat load",
 					ErrNoEquilibrium, fs.Name, SaneWallLimit-273.15, r.HeatRejected, q)
 			}
 			return SetResult{}, marchOut{}, fmt.Errorf("%s wall temperature: %w", fs.Name, err)
 		}
-		r, m := p.setHeat(fs, g, cv, pt, tw, tin, mdot, true)
+		if tw != memoX {
+			f(tw)
+		}
+		keep.Merge(&p.scratch)
+		r, m := memoR, memoM
+		r.March = append([]Segment(nil), memoM.seg...)
+		m.seg = r.March
 		r.HeatLoad = q
 		return r, m, nil
 	}

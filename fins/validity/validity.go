@@ -111,3 +111,13 @@ func (l *Log) Len() int {
 	}
 	return len(l.order)
 }
+
+// Reset forgets every warning and keeps the storage, so that a Log can be
+// reused for each trial of a search.
+func (l *Log) Reset() {
+	if l == nil {
+		return
+	}
+	clear(l.m)
+	l.order = l.order[:0]
+}

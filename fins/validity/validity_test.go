@@ -53,3 +53,16 @@ func TestMerge(t *testing.T) {
 		t.Fatalf("merge wrong: %+v", ws)
 	}
 }
+
+func TestReset(t *testing.T) {
+	var l Log
+	l.Check("c", "q", 5, 0, 1)
+	l.Reset()
+	if l.Len() != 0 || len(l.Warnings()) != 0 {
+		t.Fatal("reset kept warnings")
+	}
+	l.Check("c", "q", 7, 0, 1)
+	if ws := l.Warnings(); len(ws) != 1 || ws[0].SeenMin != 7 || ws[0].Count != 1 {
+		t.Errorf("after reset: %+v", ws)
+	}
+}

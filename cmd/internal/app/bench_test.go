@@ -1,0 +1,64 @@
+package app
+
+import (
+	"runtime"
+	"testing"
+
+	"finmarch/cmd/internal/demo"
+	"finmarch/cmd/internal/design"
+)
+
+// grid1000 is a 1000-point sweep of the upright demo: 100 head pitches by
+// 10 road speeds.
+func grid1000(b *testing.B) (*design.Design, []axis) {
+	d, err := design.Parse(demo.Upright, "u.toml")
+	if err != nil {
+		b.Fatal(err)
+	}
+	p, _ := parseAxis("head.pitch=5mm:14.9mm:0.1mm")
+	v, _ := parseAxis("air.speed=40km/h:130km/h:10km/h")
+	if len(p.vals)*len(v.vals) != 1000 {
+		b.Fatalf("grid has %d points", len(p.vals)*len(v.vals))
+	}
+	return d, []axis{p, v}
+}
+
+func benchSweep(b *testing.B, workers int) {
+	d, axes := grid1000(b)
+	b.ReportAllocs()
+	b.ResetTimer()
+	n := 0
+	for i := 0; i < b.N; i++ {
+		runGrid(d, axes, 1000, workers, true, func(r sweepRow) {
+			if r.ok {
+				n++
+			}
+		})
+	}
+	b.ReportMetric(float64(1000*b.N)/b.Elapsed().Seconds(), "estimates/s")
+	if n == 0 {
+		b.Fatal("no point estimated")
+	}
+}
+
+func BenchmarkSweep1000OneCore(b *testing.B) { benchSweep(b, 1) }
+func BenchmarkSweep1000AllCores(b *testing.B) {
+	benchSweep(b, runtime.GOMAXPROCS(0))
+}
+
+// One full cruise estimate through the command-line path (design variant
+// build included), for comparison with airflow's BenchmarkEstimate*.
+func BenchmarkEstimateWithVariant(b *testing.B) {
+	d, _ := design.Parse(demo.Upright, "u.toml")
+	vals := map[string]float64{"head.pitch": 0.0095}
+	b.ReportAllocs()
+	for i := 0; i < b.N; i++ {
+		v, err := d.With(vals)
+		if err != nil {
+			b.Fatal(err)
+		}
+		if _, err := evaluate(v, v.Case.Speed); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
