@@ -111,7 +111,7 @@ func Channel(re, pr, lOverDh float64, log *validity.Log) ChannelFlow {
 		}
 	}
 	turb := func(r float64) (float64, float64) {
-		nu := GnielinskiNu(r, pr, math.Min(1/lOverDh, 1), log)
+		nu := GnielinskiNu(r, pr, 1/lOverDh, log)
 		f := PetukhovFriction(r, nil)/4 + 0.674/(4*lOverDh) // entrance excess, Shah & London
 		return nu, f
 	}
@@ -132,7 +132,7 @@ func ChannelNu(re, pr, lOverDh float64, log *validity.Log) (float64, string) {
 	if re <= ReLaminar {
 		return ParallelPlatesNu(lOverDh/(re*pr), pr, log), "laminar"
 	}
-	dh := math.Min(1/lOverDh, 1)
+	dh := 1/lOverDh
 	if re >= ReTurbulent {
 		return GnielinskiNu(re, pr, dh, log), "turbulent"
 	}

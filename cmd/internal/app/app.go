@@ -115,7 +115,7 @@ upright with annular fins against laid over with longitudinal fins.`,
 		return []string{"metric", "us"}, cobra.ShellCompDirectiveNoFileComp
 	})
 	root.AddCommand(e.demoCmd(), e.estimateCmd(), e.compareCmd(), e.tiltCmd(), e.marchCmd(), e.speedsCmd(),
-		e.sweepCmd(), e.optimiseCmd(), e.finCmd(), e.alloysCmd(), e.newCmd())
+		e.sweepCmd(), e.optimiseCmd(), e.plotCmd(), e.finCmd(), e.alloysCmd(), e.newCmd())
 	return root
 }
 

@@ -224,3 +224,23 @@ func TestStrict(t *testing.T) {
 		t.Error("JSON lacks the warnings")
 	}
 }
+
+// The README's "What the demo prints" block is the demo's real output.
+func TestReadmeDemoBlock(t *testing.T) {
+	b, err := os.ReadFile("../../../README.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := string(b)
+	const head = "## What the demo prints\n\n```\n"
+	i := strings.Index(s, head)
+	if i < 0 {
+		t.Fatal("README lacks the demo section")
+	}
+	block := s[i+len(head):]
+	block = block[:strings.Index(block, "```")]
+	out, _, _ := run(t)
+	if strings.TrimSpace(block) != strings.TrimSpace(out) {
+		t.Errorf("README demo block is stale; paste the output of 'go run ./cmd/finmarch'.\n--- demo prints ---\n%s", out)
+	}
+}

@@ -295,10 +295,20 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 		c.Rows = append(c.Rows, []string{set + " temperature limit", fmtT(u, limit) + " " + u.TempU(), fmtT(u, bt) + " " + u.TempU(), fmtDT(u, limit-bt), map[bool]string{true: "yes", false: "no"}[limit-bt < 1]})
 	}
 	front := pareto(pts)
-	fg := output.Grid{Title: "Trade-off front: wall temperature against fin mass (every evaluated design that no other beats on both)",
-		Header: []string{"fin mass (" + u.MassU() + ")", set + " (" + u.TempU() + ")", "pitch (" + u.LenU() + ")", "height (" + u.LenU() + ")", "root (" + u.LenU() + ")", "tip (" + u.LenU() + ")", "count"}}
+	// the optimum always shows, in its place by mass
+	optP := optPoint{x: res.X, t: bt, mass: bm, feasible: true}
+	k := sort.Search(len(front), func(i int) bool { return front[i].mass >= bm })
+	if k >= len(front) || front[k].mass != bm {
+		front = append(front[:k], append([]optPoint{optP}, front[k:]...)...)
+	}
+	fg := output.Grid{Title: "Trade-off front: wall temperature against fin mass (evaluated designs that no other beats on both)",
+		Header: []string{"fin mass (" + u.MassU() + ")", set + " (" + u.TempU() + ")", "pitch (" + u.LenU() + ")", "height (" + u.LenU() + ")", "root (" + u.LenU() + ")", "tip (" + u.LenU() + ")", "count", ""}}
 	for _, q := range front {
-		fg.Rows = append(fg.Rows, []string{output.Num(u.Mass(q.mass), 3), fmtT(u, q.t), L(q.x[0]), L(q.x[1]), L(q.x[2]), L(q.x[3]), fmt.Sprint(int(q.x[4]))})
+		mark := ""
+		if q.mass == bm && q.t == bt {
+			mark = "optimum"
+		}
+		fg.Rows = append(fg.Rows, []string{output.Num(u.Mass(q.mass), 3), fmtT(u, q.t), L(q.x[0]), L(q.x[1]), L(q.x[2]), L(q.x[3]), fmt.Sprint(int(q.x[4])), mark})
 	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: fin optimisation at %s %s, ambient %s %s", d.Name, output.Num(u.Road(d.Case.Speed), 0), u.RoadU(), fmtT(u, d.Case.Ambient), u.TempU()),
 		Grids: []output.Grid{g, c, fg}, Caution: true,
@@ -351,9 +361,19 @@ func pareto(pts []optPoint) []optPoint {
 	if len(front) <= 12 {
 		return front
 	}
+	// twelve rows spread evenly in fin mass (the search crowds the front
+	// near its optimum), always keeping both ends
+	lo, hi := front[0].mass, front[len(front)-1].mass
 	out := make([]optPoint, 0, 12)
+	j := 0
 	for i := 0; i < 12; i++ {
-		out = append(out, front[i*(len(front)-1)/11])
+		target := lo + (hi-lo)*float64(i)/11
+		for j < len(front)-1 && math.Abs(front[j+1].mass-target) <= math.Abs(front[j].mass-target) {
+			j++
+		}
+		if len(out) == 0 || out[len(out)-1].mass != front[j].mass {
+			out = append(out, front[j])
+		}
 	}
 	return out
 }

@@ -60,6 +60,11 @@ func parseAxis(spec string) (axis, error) {
 			}
 			v[i] = x
 		}
+		// the step is a difference: with an offset unit ("5 C") take away
+		// the same unit's zero
+		if z, err := parse("0" + unitPart(p[2])); err == nil {
+			v[2] -= z
+		}
 		if !(v[2] > 0) || v[1] < v[0] {
 			return axis{}, fmt.Errorf("--vary %q: need from <= to and a positive step", spec)
 		}
@@ -80,6 +85,22 @@ func parseAxis(spec string) (axis, error) {
 		a.vals = append(a.vals, x)
 	}
 	return a, nil
+}
+
+// unitPart is what follows the leading number of a quantity ("5 C" -> " C").
+func unitPart(s string) string {
+	t := strings.TrimSpace(s)
+	i := 0
+	for i < len(t) && strings.ContainsRune("+-0123456789.eE_", rune(t[i])) {
+		if (t[i] == 'e' || t[i] == 'E') && (i+1 >= len(t) || !strings.ContainsRune("+-0123456789", rune(t[i+1]))) {
+			break
+		}
+		i++
+	}
+	if i == len(t) {
+		return ""
+	}
+	return " " + t[i:]
 }
 
 type sweepRow struct {

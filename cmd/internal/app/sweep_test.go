@@ -81,3 +81,23 @@ func TestSweepCSVAndJSON(t *testing.T) {
 		}
 	}
 }
+
+// A temperature step in C or F is a difference, not a temperature.
+func TestAxisTemperatureStep(t *testing.T) {
+	a, err := parseAxis("air.ambient=20C:30C:5C")
+	if err != nil || len(a.vals) != 3 || a.vals[1] != 298.15 {
+		t.Fatalf("%v %v", a.vals, err)
+	}
+	a, err = parseAxis("air.ambient=50F:104F:9F")
+	if err != nil || len(a.vals) != 7 {
+		t.Fatalf("F: %v %v", a.vals, err)
+	}
+	a, err = parseAxis("head.pitch=6mm:8mm:1mm")
+	if err != nil || len(a.vals) != 3 {
+		t.Fatalf("mm: %v %v", a.vals, err)
+	}
+	a, err = parseAxis("head.count=4,6,8")
+	if err != nil || len(a.vals) != 3 || a.vals[2] != 8 {
+		t.Fatalf("list: %v %v", a.vals, err)
+	}
+}

@@ -1,0 +1,258 @@
+package app
+
+import (
+	"bytes"
+	"fmt"
+	"path/filepath"
+	"sort"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"finmarch/airflow"
+	"finmarch/cmd/internal/demo"
+	"finmarch/cmd/internal/design"
+	"finmarch/cmd/internal/output"
+	"finmarch/cmd/internal/plots"
+)
+
+// designsOrDemo loads the named designs, or the built-in demo designs when
+// none is named.
+func (e *env) designsOrDemo(args []string) ([]*design.Design, error) {
+	var ds []*design.Design
+	if len(args) == 0 {
+		for _, f := range demo.Files {
+			d, err := e.parse(f.Src, f.Name)
+			if err != nil {
+				return nil, fail(ExitInternal, err)
+			}
+			ds = append(ds, d)
+		}
+		return ds, nil
+	}
+	for _, a := range args {
+		d, err := e.load(a)
+		if err != nil {
+			return nil, err
+		}
+		ds = append(ds, d)
+	}
+	return ds, nil
+}
+
+func (e *env) plotCmd() *cobra.Command {
+	cmd := &cobra.Command{
+		Use:   "plot",
+		Short: "Draw figures (SVG or PNG by the --output extension): march, speeds, compare",
+		Long: `plot draws a figure to the --output file; its extension (.svg or .png) picks the
+format. With no design files it uses the built-in demo designs.
+
+  finmarch plot march -o march.svg                 air temperature and local heat flux along the path
+  finmarch plot speeds my.toml -o speeds.png        head and barrel temperature against road speed, with the limits
+  finmarch plot compare a.toml b.toml -o cmp.svg    head temperature and heat per kg of fin, design by design`,
+	}
+	var from, to, step string
+	march := &cobra.Command{
+		Use: "march [DESIGN.toml ...]", Short: "Air temperature and local heat flux along the fin passages",
+		ValidArgsFunction: tomlArgs,
+		RunE: func(_ *cobra.Command, args []string) error {
+			ds, err := e.designsOrDemo(args)
+			if err != nil {
+				return err
+			}
+			fig, err := e.marchFigure(ds)
+			if err != nil {
+				return err
+			}
+			return e.writeFigure(fig)
+		},
+	}
+	speeds := &cobra.Command{
+		Use: "speeds [DESIGN.toml ...]", Short: "Head and barrel temperature against road speed, with the limits",
+		ValidArgsFunction: tomlArgs,
+		RunE: func(_ *cobra.Command, args []string) error {
+			ds, err := e.designsOrDemo(args)
+			if err != nil {
+				return err
+			}
+			var v [3]float64
+			for i, s := range []struct{ name, val string }{{"--from", from}, {"--to", to}, {"--step", step}} {
+				x, err := design.ParseValue[design.Speed](s.val)
+				if err != nil {
+					return fail(ExitUsage, fmt.Errorf("%s: %w", s.name, err))
+				}
+				v[i] = x
+			}
+			if !(v[0] >= 0 && v[1] > v[0] && v[2] > 0) || (v[1]-v[0])/v[2] > 400 {
+				return fail(ExitUsage, fmt.Errorf("speed range %s to %s by %s: need 0 <= from < to, a positive step, at most 400 points", from, to, step))
+			}
+			fig, err := e.speedFigure(ds, v[0], v[1], v[2])
+			if err != nil {
+				return err
+			}
+			return e.writeFigure(fig)
+		},
+	}
+	speeds.Flags().StringVar(&from, "from", "20 km/h", "lowest road speed")
+	speeds.Flags().StringVar(&to, "to", "140 km/h", "highest road speed")
+	speeds.Flags().StringVar(&step, "step", "5 km/h", "speed step")
+	compare := &cobra.Command{
+		Use: "compare [DESIGN.toml ...]", Short: "Head temperature and heat rejected per kg of fin, design by design",
+		ValidArgsFunction: tomlArgs,
+		RunE: func(_ *cobra.Command, args []string) error {
+			ds, err := e.designsOrDemo(args)
+			if err != nil {
+				return err
+			}
+			fig, err := e.compareFigure(ds)
+			if err != nil {
+				return err
+			}
+			return e.writeFigure(fig)
+		},
+	}
+	cmd.AddCommand(march, speeds, compare)
+	return cmd
+}
+
+func (e *env) writeFigure(fig *plots.Figure) error {
+	if e.opt.out == "" {
+		return fail(ExitUsage, fmt.Errorf("plot needs --output FILE.svg or FILE.png"))
+	}
+	ext := strings.TrimPrefix(strings.ToLower(filepath.Ext(e.opt.out)), ".")
+	if ext != "svg" && ext != "png" {
+		return fail(ExitUsage, fmt.Errorf("--output %s: the extension must be .svg or .png", e.opt.out))
+	}
+	var buf bytes.Buffer
+	if err := fig.Write(&buf, ext); err != nil {
+		return fail(ExitInternal, err)
+	}
+	if err := writeFile(e.opt.out, buf.Bytes(), e.opt.force); err != nil {
+		return err
+	}
+	fmt.Fprintf(e.stdout, "wrote %s\n", e.opt.out)
+	return nil
+}
+
+func letter(i int) string { return string(rune('A' + i)) }
+
+// marchFigure evaluates each design at its cruise point and draws the air
+// temperature and the local heat flux along each fin set's path; on a
+// series path the barrel continues where the head ends.
+func (e *env) marchFigure(ds []*design.Design) (*plots.Figure, error) {
+	_, u, err := e.settings()
+	if err != nil {
+		return nil, err
+	}
+	var temp, flux []plots.Series
+	for i, d := range ds {
+		o, err := evaluate(d, d.Case.Speed)
+		if err != nil {
+			return nil, modelError(d.Name, err)
+		}
+		if err := o.check(); err != nil {
+			return nil, fail(ExitInternal, err)
+		}
+		for k, s := range []airflow.SetResult{o.res.Head, o.res.Barrel} {
+			if len(s.March) == 0 {
+				continue
+			}
+			off := 0.0
+			if s.Series && s.Name == "barrel" {
+				off = o.res.Head.PathLength
+			}
+			t := plots.Series{Label: fmt.Sprintf("%s %s (%s)", letter(i), s.Name, s.Style), Design: i, Dashed: k == 1}
+			q := t
+			t.X, t.Y = []float64{u.Len(off)}, []float64{u.Temp(s.AirIn)}
+			for j, sg := range s.March {
+				t.X = append(t.X, u.Len(off+sg.X))
+				t.Y = append(t.Y, u.Temp(sg.AirOut))
+				start := 0.0
+				if j > 0 {
+					start = s.March[j-1].X
+				}
+				q.X = append(q.X, u.Len(off+(start+sg.X)/2))
+				q.Y = append(q.Y, u.Flux(sg.Flux)/1000)
+			}
+			temp, flux = append(temp, t), append(flux, q)
+		}
+	}
+	if len(temp) == 0 {
+		return nil, fail(ExitModel, fmt.Errorf("no fin set has forced flow at these conditions, so there is no march to draw"))
+	}
+	names := make([]string, len(ds))
+	for i, d := range ds {
+		names[i] = letter(i) + ": " + d.Name
+	}
+	return plots.March("Cooling air along the fin passages\n"+strings.Join(names, "    "),
+		"position along the air path ("+u.LenU()+")", "air temperature ("+u.TempU()+")", "local heat flux (k"+u.FluxU()+")", temp, flux)
+}
+
+func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.Figure, error) {
+	_, u, err := e.settings()
+	if err != nil {
+		return nil, err
+	}
+	var lines []plots.Series
+	limits := map[string]float64{}
+	var names []string
+	for i, d := range ds {
+		h := plots.Series{Label: letter(i) + " head", Design: i}
+		b := plots.Series{Label: letter(i) + " barrel", Design: i, Dashed: true}
+		for k := 0; ; k++ {
+			v := from + float64(k)*step
+			if v > to+1e-9 {
+				break
+			}
+			o, err := evaluate(d, v)
+			if err != nil {
+				return nil, modelError(d.Name, err)
+			}
+			if o.err != nil || o.check() != nil || (!o.fixed && o.load.Head+o.load.Barrel == 0) {
+				continue // no equilibrium or no load at this speed: leave a gap at the end
+			}
+			h.X, h.Y = append(h.X, u.Road(v)), append(h.Y, u.Temp(o.res.Head.WallTemp))
+			b.X, b.Y = append(b.X, u.Road(v)), append(b.Y, u.Temp(o.res.Barrel.WallTemp))
+		}
+		lines = append(lines, h, b)
+		limits[fmt.Sprintf("head limit %s %s", output.Num(u.Temp(d.HeadLimit), 0), u.TempU())] = u.Temp(d.HeadLimit)
+		names = append(names, letter(i)+": "+d.Name)
+	}
+	if len(limits) > 3 { // keep the legend readable
+		keys := make([]string, 0, len(limits))
+		for k := range limits {
+			keys = append(keys, k)
+		}
+		sort.Strings(keys)
+		for _, k := range keys[3:] {
+			delete(limits, k)
+		}
+	}
+	return plots.Speeds("Wall temperature against road speed\n"+strings.Join(names, "    "),
+		"road speed ("+u.RoadU()+")", "wall temperature at the fin roots ("+u.TempU()+")", lines, limits)
+}
+
+func (e *env) compareFigure(ds []*design.Design) (*plots.Figure, error) {
+	_, u, err := e.settings()
+	if err != nil {
+		return nil, err
+	}
+	var names []string
+	var ht, perKg []float64
+	for i, d := range ds {
+		o, err := evaluate(d, d.Case.Speed)
+		if err != nil {
+			return nil, modelError(d.Name, err)
+		}
+		if err := o.check(); err != nil {
+			return nil, fail(ExitInternal, err)
+		}
+		names = append(names, letter(i)+": "+d.Name)
+		ht = append(ht, u.Temp(o.res.Head.WallTemp))
+		perKg = append(perKg, (o.res.Head.HeatRejected+o.res.Barrel.HeatRejected)/(o.res.Head.FinMass+o.res.Barrel.FinMass))
+	}
+	return plots.Compare("Designs at cruise\n"+strings.Join(names, "    "), names, []plots.Panel{
+		{Label: "head temperature (" + u.TempU() + ")", Values: ht},
+		{Label: "heat rejected per kg of fin (W/kg)", Values: perKg},
+	})
+}

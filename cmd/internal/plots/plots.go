@@ -1,0 +1,213 @@
+// Package plots draws finmarch figures with gonum.org/v1/plot: the air
+// march along the fin passages, temperatures against road speed with the
+// limit, and a comparison of designs. Values arrive in display units; the
+// caller converts from SI.
+package plots
+
+import (
+	"fmt"
+	"image/color"
+	"io"
+	"math"
+	"strings"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/plotter"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+	"gonum.org/v1/plot/vg/vgimg"
+	"gonum.org/v1/plot/vg/vgsvg"
+)
+
+// Series is one line: x and y in display units.
+type Series struct {
+	Label  string
+	X, Y   []float64
+	Design int  // colour index
+	Dashed bool // second fin set of a design
+}
+
+// palette: dark, print-safe colours that stay distinct in grey.
+var palette = []color.Color{
+	color.RGBA{R: 0x1f, G: 0x4e, B: 0x9c, A: 0xff},
+	color.RGBA{R: 0xc2, G: 0x41, B: 0x0c, A: 0xff},
+	color.RGBA{R: 0x2f, G: 0x7d, B: 0x32, A: 0xff},
+	color.RGBA{R: 0x6a, G: 0x1b, B: 0x9a, A: 0xff},
+	color.RGBA{R: 0x5d, G: 0x40, B: 0x37, A: 0xff},
+}
+
+func colour(i int) color.Color { return palette[((i%len(palette))+len(palette))%len(palette)] }
+
+// Figure is one or more plots stacked vertically.
+type Figure struct {
+	Plots  []*plot.Plot
+	Width  vg.Length
+	Height vg.Length
+}
+
+func newPlot(title, x, y string) *plot.Plot {
+	p := plot.New()
+	p.Title.Text = title
+	p.Title.TextStyle.Font.Size = vg.Points(11)
+	p.X.Label.Text = x
+	p.Y.Label.Text = y
+	p.Add(plotter.NewGrid())
+	p.Legend.Top = true
+	p.Legend.Left = true
+	p.Legend.XOffs = vg.Millimeter * 3
+	p.Legend.TextStyle.Font.Size = vg.Points(9)
+	return p
+}
+
+func addLines(p *plot.Plot, ss []Series) error {
+	for _, s := range ss {
+		if len(s.X) == 0 {
+			continue
+		}
+		xy := make(plotter.XYs, len(s.X))
+		for i := range s.X {
+			if math.IsNaN(s.X[i]) || math.IsNaN(s.Y[i]) || math.IsInf(s.Y[i], 0) {
+				return fmt.Errorf("plots: %s has a non-finite point", s.Label)
+			}
+			xy[i].X, xy[i].Y = s.X[i], s.Y[i]
+		}
+		l, err := plotter.NewLine(xy)
+		if err != nil {
+			return err
+		}
+		l.Color = colour(s.Design)
+		l.Width = vg.Points(1.8)
+		if s.Dashed {
+			l.Dashes = []vg.Length{vg.Points(6), vg.Points(3)}
+		}
+		p.Add(l)
+		p.Legend.Add(s.Label, l)
+	}
+	return nil
+}
+
+// March is the figure of the air temperature (top) and the local heat flux
+// (bottom) along the air path of each design's fin sets.
+func March(title, xLabel, tLabel, qLabel string, temp, flux []Series) (*Figure, error) {
+	a := newPlot(title, xLabel, tLabel)
+	if err := addLines(a, temp); err != nil {
+		return nil, err
+	}
+	b := newPlot("", xLabel, qLabel)
+	if err := addLines(b, flux); err != nil {
+		return nil, err
+	}
+	// rising air temperature leaves the upper left free, falling flux
+	// the upper right; both panels start at the path entry
+	b.Legend.Left = false
+	b.Legend.XOffs = -vg.Millimeter * 3
+	a.X.Min, b.X.Min = 0, 0
+	b.Y.Min = 0
+	if b.X.Max < a.X.Max {
+		b.X.Max = a.X.Max
+	}
+	a.X.Max = b.X.Max
+	return &Figure{Plots: []*plot.Plot{a, b}, Width: 18 * vg.Centimeter, Height: 20 * vg.Centimeter}, nil
+}
+
+// Speeds is the figure of head and barrel temperature against road speed,
+// with each limit drawn as a dotted line.
+func Speeds(title, xLabel, tLabel string, lines []Series, limits map[string]float64) (*Figure, error) {
+	p := newPlot(title, xLabel, tLabel)
+	if err := addLines(p, lines); err != nil {
+		return nil, err
+	}
+	xmin, xmax := math.Inf(1), math.Inf(-1)
+	for _, s := range lines {
+		for _, x := range s.X {
+			xmin, xmax = math.Min(xmin, x), math.Max(xmax, x)
+		}
+	}
+	i := 0
+	for name, v := range limits {
+		if math.IsInf(xmin, 0) {
+			break
+		}
+		l, err := plotter.NewLine(plotter.XYs{{X: xmin, Y: v}, {X: xmax, Y: v}})
+		if err != nil {
+			return nil, err
+		}
+		l.Color = color.Gray{Y: 0x55}
+		l.Dashes = []vg.Length{vg.Points(1.5), vg.Points(2.5)}
+		l.Width = vg.Points(1.4 - 0.4*float64(i))
+		p.Add(l)
+		p.Legend.Add(name, l)
+		i++
+	}
+	return &Figure{Plots: []*plot.Plot{p}, Width: 18 * vg.Centimeter, Height: 11 * vg.Centimeter}, nil
+}
+
+// Compare is a figure of bar charts, one panel per quantity, one bar per
+// design.
+func Compare(title string, names []string, panels []Panel) (*Figure, error) {
+	var ps []*plot.Plot
+	for k, pn := range panels {
+		t := ""
+		if k == 0 {
+			t = title
+		}
+		p := newPlot(t, "", pn.Label)
+		vals := make(plotter.Values, len(pn.Values))
+		for i, v := range pn.Values {
+			if math.IsNaN(v) || math.IsInf(v, 0) {
+				return nil, fmt.Errorf("plots: %s of %s is not finite", pn.Label, names[i])
+			}
+			vals[i] = v
+		}
+		bc, err := plotter.NewBarChart(vals, vg.Points(28))
+		if err != nil {
+			return nil, err
+		}
+		bc.Color = colour(k)
+		bc.LineStyle.Width = 0
+		p.Add(bc)
+		// bars are lettered A, B, ... as in the comparison table; the
+		// caller's caption names them
+		short := make([]string, len(names))
+		for i := range names {
+			short[i] = fmt.Sprintf("%c", 'A'+i)
+		}
+		p.NominalX(short...)
+		p.Legend.Top = false
+		ps = append(ps, p)
+	}
+	return &Figure{Plots: ps, Width: 18 * vg.Centimeter, Height: vg.Length(len(ps)) * 8 * vg.Centimeter}, nil
+}
+
+// Panel is one bar-chart panel of Compare.
+type Panel struct {
+	Label  string
+	Values []float64
+}
+
+// Write renders the figure as "svg" or "png" to w.
+func (f *Figure) Write(w io.Writer, format string) error {
+	var c draw.Canvas
+	var out io.WriterTo
+	switch strings.ToLower(format) {
+	case "svg":
+		s := vgsvg.New(f.Width, f.Height)
+		c, out = draw.New(s), s
+	case "png":
+		img := vgimg.NewWith(vgimg.UseWH(f.Width, f.Height), vgimg.UseDPI(150))
+		c, out = draw.New(img), vgimg.PngCanvas{Canvas: img}
+	default:
+		return fmt.Errorf("plots: format %q: use svg or png", format)
+	}
+	rows := make([][]*plot.Plot, len(f.Plots))
+	for i, p := range f.Plots {
+		rows[i] = []*plot.Plot{p}
+	}
+	tiles := draw.Tiles{Rows: len(f.Plots), Cols: 1, PadY: vg.Millimeter * 4, PadTop: vg.Millimeter * 2, PadBottom: vg.Millimeter * 2, PadLeft: vg.Millimeter * 2, PadRight: vg.Millimeter * 3}
+	canvases := plot.Align(rows, tiles, c)
+	for i, p := range f.Plots {
+		p.Draw(canvases[i][0])
+	}
+	_, err := out.WriteTo(w)
+	return err
+}
