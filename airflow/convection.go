@@ -132,7 +132,7 @@ func ChannelNu(re, pr, lOverDh float64, log *validity.Log) (float64, string) {
 	if re <= ReLaminar {
 		return ParallelPlatesNu(lOverDh/(re*pr), pr, log), "laminar"
 	}
-	dh := 1/lOverDh
+	dh := 1 / lOverDh
 	if re >= ReTurbulent {
 		return GnielinskiNu(re, pr, dh, log), "turbulent"
 	}
