@@ -115,7 +115,7 @@ upright with annular fins against laid over with longitudinal fins.`,
 		return []string{"metric", "us"}, cobra.ShellCompDirectiveNoFileComp
 	})
 	root.AddCommand(e.demoCmd(), e.estimateCmd(), e.compareCmd(), e.tiltCmd(), e.marchCmd(), e.speedsCmd(),
-		e.sweepCmd(), e.optimiseCmd(), e.plotCmd(), e.finCmd(), e.alloysCmd(), e.newCmd())
+		e.sweepCmd(), e.optimiseCmd(), e.plotCmd(), e.reportCmd(), e.finCmd(), e.alloysCmd(), e.newCmd())
 	return root
 }
 
@@ -205,6 +205,7 @@ func writeFile(path string, data []byte, force bool) error {
 		return fail(ExitIO, fmt.Errorf("cannot write %s: %w", path, err))
 	}
 	name := tmp.Name()
+	_ = tmp.Chmod(0o644) // CreateTemp makes 0600; results are ordinary files
 	_, werr := tmp.Write(data)
 	cerr := tmp.Close()
 	if werr != nil || cerr != nil {

@@ -70,16 +70,32 @@ func (e *env) estimateCmd() *cobra.Command {
 }
 
 func (e *env) estimate(d *design.Design) error {
-	_, u, err := e.settings()
+	doc, o, err := e.estimateDoc(d)
 	if err != nil {
 		return err
 	}
+	if err := e.emit(doc); err != nil {
+		return err
+	}
+	if o.err != nil {
+		return modelError(d.Name, o.err)
+	}
+	return nil
+}
+
+// estimateDoc evaluates the design at cruise and builds the estimate's
+// document: the heat-balance grid, the notes, the warnings and the JSON.
+func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
+	_, u, err := e.settings()
+	if err != nil {
+		return output.Doc{}, outcome{}, err
+	}
 	o, err := evaluate(d, d.Case.Speed)
 	if err != nil {
-		return modelError(d.Name, err)
+		return output.Doc{}, o, modelError(d.Name, err)
 	}
 	if err := o.check(); err != nil {
-		return fail(ExitInternal, err)
+		return output.Doc{}, o, fail(ExitInternal, err)
 	}
 	h, b := o.res.Head, o.res.Barrel
 	c := d.Case
@@ -155,13 +171,7 @@ func (e *env) estimate(d *design.Design) error {
 		"fixed_walls": o.fixed, "equilibrium": o.err == nil, "energy_imbalance": o.res.MaxImbal,
 		"warnings": doc.Warnings, "defaults_applied": d.Defaults, "caution": output.Caution,
 	}
-	if err := e.emit(doc); err != nil {
-		return err
-	}
-	if o.err != nil {
-		return modelError(d.Name, o.err)
-	}
-	return nil
+	return doc, o, nil
 }
 
 // energyNote reports the energy check; below 1e-9 it says so rather than

@@ -136,6 +136,15 @@ func (e *env) writeFigure(fig *plots.Figure) error {
 
 func letter(i int) string { return string(rune('A' + i)) }
 
+// short cuts a design name for a figure title.
+func short(s string) string {
+	r := []rune(s)
+	if len(r) > 44 {
+		return string(r[:43]) + "…"
+	}
+	return s
+}
+
 // marchFigure evaluates each design at its cruise point and draws the air
 // temperature and the local heat flux along each fin set's path; on a
 // series path the barrel continues where the head ends.
@@ -182,7 +191,7 @@ func (e *env) marchFigure(ds []*design.Design) (*plots.Figure, error) {
 	}
 	names := make([]string, len(ds))
 	for i, d := range ds {
-		names[i] = letter(i) + ": " + d.Name
+		names[i] = letter(i) + ": " + short(d.Name)
 	}
 	return plots.March("Cooling air along the fin passages\n"+strings.Join(names, "    "),
 		"position along the air path ("+u.LenU()+")", "air temperature ("+u.TempU()+")", "local heat flux (k"+u.FluxU()+")", temp, flux)
@@ -216,7 +225,7 @@ func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.F
 		}
 		lines = append(lines, h, b)
 		limits[fmt.Sprintf("head limit %s %s", output.Num(u.Temp(d.HeadLimit), 0), u.TempU())] = u.Temp(d.HeadLimit)
-		names = append(names, letter(i)+": "+d.Name)
+		names = append(names, letter(i)+": "+short(d.Name))
 	}
 	if len(limits) > 3 { // keep the legend readable
 		keys := make([]string, 0, len(limits))
@@ -247,7 +256,7 @@ func (e *env) compareFigure(ds []*design.Design) (*plots.Figure, error) {
 		if err := o.check(); err != nil {
 			return nil, fail(ExitInternal, err)
 		}
-		names = append(names, letter(i)+": "+d.Name)
+		names = append(names, letter(i)+": "+short(d.Name))
 		ht = append(ht, u.Temp(o.res.Head.WallTemp))
 		perKg = append(perKg, (o.res.Head.HeatRejected+o.res.Barrel.HeatRejected)/(o.res.Head.FinMass+o.res.Barrel.FinMass))
 	}

@@ -357,6 +357,7 @@ func (e *env) sweep(d *design.Design, axes []axis, total, workers, top int, keep
 			return fail(ExitIO, fmt.Errorf("cannot write %s: %w", e.opt.out, err))
 		}
 		defer os.Remove(tmp.Name()) // a no-op once renamed
+		_ = tmp.Chmod(0o644)
 		dst = tmp
 		summaryTo = e.stdout
 	}

@@ -103,6 +103,18 @@ func March(title, xLabel, tLabel, qLabel string, temp, flux []Series) (*Figure, 
 	b.Legend.XOffs = -vg.Millimeter * 3
 	a.X.Min, b.X.Min = 0, 0
 	b.Y.Min = 0
+	// the developing boundary layer makes the flux of the first, shortest
+	// segments very large; cut the axis at twice the highest flux met
+	// past the first quarter of the segments so the rest of the curve reads
+	top := 0.0
+	for _, s := range flux {
+		for i := len(s.Y) / 4; i < len(s.Y); i++ {
+			top = math.Max(top, s.Y[i])
+		}
+	}
+	if top > 0 {
+		b.Y.Max = 2 * top
+	}
 	if b.X.Max < a.X.Max {
 		b.X.Max = a.X.Max
 	}
@@ -159,7 +171,7 @@ func Compare(title string, names []string, panels []Panel) (*Figure, error) {
 			}
 			vals[i] = v
 		}
-		bc, err := plotter.NewBarChart(vals, vg.Points(28))
+		bc, err := plotter.NewBarChart(vals, vg.Points(60))
 		if err != nil {
 			return nil, err
 		}
@@ -173,6 +185,8 @@ func Compare(title string, names []string, panels []Panel) (*Figure, error) {
 			short[i] = fmt.Sprintf("%c", 'A'+i)
 		}
 		p.NominalX(short...)
+		p.X.Min, p.X.Max = -0.7, float64(len(names))-0.3
+		p.Y.Min = 0
 		p.Legend.Top = false
 		ps = append(ps, p)
 	}

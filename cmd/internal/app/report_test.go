@@ -1,0 +1,143 @@
+package app
+
+import (
+	"context"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"regexp"
+	"strconv"
+	"strings"
+	"testing"
+	"time"
+
+	"finmarch/cmd/internal/demo"
+)
+
+// hostile is a design whose name holds markup and script.
+const hostileName = `<script>document.title="pwned"</script><img src=x onerror="document.title='pwned'">Bad & "quoted"`
+
+func reportFiles(t *testing.T) (string, string) {
+	dir := t.TempDir()
+	up, lo := designs(t)
+	bad := filepath.Join(dir, "hostile.toml")
+	src := strings.Replace(string(demo.LaidOver), `name = "demo single, laid over, longitudinal fins"`, `name = `+strconv.Quote(hostileName), 1)
+	if err := os.WriteFile(bad, []byte(src), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	out := filepath.Join(dir, "report.html")
+	if _, errs, code := run(t, "report", up, lo, bad, "-o", out); code != 0 {
+		t.Fatalf("report: exit %d: %s", code, errs)
+	}
+	return out, up
+}
+
+// The report is self-contained (no scripts, no external resources), every
+// user-supplied string is escaped, and it carries the key numbers, the
+// warnings section, the sources and the caution.
+func TestReportContent(t *testing.T) {
+	path, up := reportFiles(t)
+	b, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := string(b)
+	if strings.Contains(strings.ToLower(s), "<script") {
+		t.Error("report holds a script element")
+	}
+	if strings.Contains(s, "onerror=") && !strings.Contains(s, "onerror=&#34;") {
+		t.Error("an attribute from the design name reached the markup")
+	}
+	// no network: only the SVG namespace URIs may look like addresses
+	for _, m := range regexp.MustCompile(`<[a-zA-Z][^<>]*\s(src|href)\s*=\s*["']?([^"' >]+)`).FindAllStringSubmatch(s, -1) {
+		t.Errorf("external reference %s=%s", m[1], m[2])
+	}
+	for _, u := range regexp.MustCompile(`https?://[^"' <]+`).FindAllString(s, -1) {
+		if !strings.HasPrefix(u, "http://www.w3.org/") {
+			t.Errorf("network address in the report: %s", u)
+		}
+	}
+	if !strings.Contains(s, "&lt;script&gt;document.title=") {
+		t.Error("the hostile name does not appear as escaped text")
+	}
+	// the key numbers: the head temperature the estimate prints
+	est, _, _ := run(t, "estimate", up)
+	m := regexp.MustCompile(`wall temperature at fin roots \| C\s+\|\s+([0-9.]+) \|`).FindStringSubmatch(est)
+	if m == nil {
+		t.Fatalf("no head temperature in the estimate:\n%s", est)
+	}
+	if !strings.Contains(s, ">"+m[1]+"<") {
+		t.Errorf("report lacks the head temperature %s", m[1])
+	}
+	for _, want := range []string{"not a measurement", "Model and sources", "Warnings", "<svg", "Comparison", "Inputs", "Stephan"} {
+		if !strings.Contains(s, want) {
+			t.Errorf("report lacks %q", want)
+		}
+	}
+}
+
+// chromiumPath finds Debian's chromium; CI installs it (.ci/run).
+func chromiumPath(t *testing.T) string {
+	for _, p := range []string{"/usr/bin/chromium", "/usr/bin/chromium-browser"} {
+		if _, err := os.Stat(p); err == nil {
+			return p
+		}
+	}
+	if os.Getenv("CI") != "" {
+		t.Fatal("chromium is not installed; .ci/run installs Debian's chromium package")
+	}
+	t.Skip("chromium not installed (apt-get install chromium); CI runs this test")
+	return ""
+}
+
+func chromium(t *testing.T, bin, profile string, args ...string) (string, string) {
+	ctx, cancel := context.WithTimeout(context.Background(), 90*time.Second)
+	defer cancel()
+	base := []string{"--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
+		"--disable-background-networking", "--disable-component-update", "--disable-sync", "--disable-extensions",
+		"--user-data-dir=" + profile, "--enable-logging=stderr", "--v=0"}
+	cmd := exec.CommandContext(ctx, bin, append(base, args...)...)
+	var out, errb strings.Builder
+	cmd.Stdout, cmd.Stderr = &out, &errb
+	if err := cmd.Run(); err != nil {
+		t.Fatalf("chromium %v: %v\n%s", args, err, errb.String())
+	}
+	return out.String(), errb.String()
+}
+
+// The report opens in a real browser (headless Chromium): it renders with
+// no console errors, the DOM holds the key numbers and the escaped hostile
+// name as text (the page title unchanged by it), and a screenshot is saved
+// under the test's temporary folder.
+func TestReportInBrowser(t *testing.T) {
+	bin := chromiumPath(t)
+	path, _ := reportFiles(t)
+	dir := filepath.Dir(path)
+	url := "file://" + path
+	dom, logs := chromium(t, bin, filepath.Join(dir, "profile-dom"), "--virtual-time-budget=3000", "--dump-dom", url)
+	for _, l := range strings.Split(logs, "\n") {
+		if strings.Contains(l, ":CONSOLE") || strings.Contains(l, "Uncaught") {
+			t.Errorf("console message: %s", l)
+		}
+	}
+	if !strings.Contains(dom, "<title>finmarch report:") || strings.Contains(dom, "<title>pwned") {
+		t.Errorf("page title changed or missing: %.300s", dom)
+	}
+	if strings.Contains(dom, "<img") {
+		t.Error("the hostile name produced an element")
+	}
+	if !strings.Contains(dom, "&lt;script&gt;document.title=") {
+		t.Error("the hostile name is not shown as text")
+	}
+	for _, want := range []string{"not a measurement", "head temperature", "Model and sources", "<svg"} {
+		if !strings.Contains(dom, want) {
+			t.Errorf("rendered page lacks %q", want)
+		}
+	}
+	shot := filepath.Join(dir, "report.png")
+	chromium(t, bin, filepath.Join(dir, "profile-shot"), "--hide-scrollbars", "--window-size=1280,2400", "--screenshot="+shot, url)
+	if st, err := os.Stat(shot); err != nil || st.Size() < 20000 {
+		t.Errorf("screenshot missing or blank: %v", err)
+	}
+	t.Logf("screenshot: %s", shot)
+}
