@@ -70,3 +70,14 @@ func (c *Curve) Efficiency(h, k float64, log *validity.Log) float64 {
 	r := y0*(-t*(t-1)*(t-2)/6) + y1*((t+1)*(t-1)*(t-2)/2) + y2*(-(t+1)*t*(t-2)/2) + y3*((t+1)*t*(t-1)/6)
 	return r * c.ref(x)
 }
+
+// Count is the number of nodes computed so far (for benchmarks and tests).
+func (c *Curve) Count() int {
+	n := 0
+	for _, h := range c.have {
+		if h {
+			n++
+		}
+	}
+	return n
+}

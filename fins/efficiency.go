@@ -171,19 +171,19 @@ func AnnularRectangular(h, k, t, r1, r2 float64, log *validity.Log) float64 {
 	return 2 * r1 / (m * (r2c*r2c - r1*r1)) * num / den
 }
 
+// taperCells is the coarse mesh of AnnularTapered; the fine mesh doubles it.
+const taperCells = 16
+
 // AnnularTapered returns the efficiency of an annular fin whose thickness
 // falls linearly from tRoot at r1 to tTip at r2, convecting from both faces
 // and the tip face, relative to 2 pi (r2^2 - r1^2) + 2 pi r2 tTip. No
 // elementary closed form exists for this profile (Kraus, Aziz & Welty 2001,
 // Ch. 3 treat it numerically), so it is solved by the finite-volume method
-// of Solve on a fixed mesh of 24 and 48 cells combined by Richardson
+// of Solve on a fixed mesh of 16 and 32 cells combined by Richardson
 // extrapolation (Richardson 1911), which the tests hold to 1e-6 of a fine
 // solution and to AnnularRectangular at tTip = tRoot. It does not allocate.
 // Valid: 1-D fin, Biot at the root < 0.1, 0 <= tTip <= tRoot, r2 > r1 > 0.
 // Units as for AnnularRectangular.
-// taperCells is the coarse mesh of AnnularTapered; the fine mesh doubles it.
-const taperCells = 24
-
 func AnnularTapered(h, k, tRoot, tTip, r1, r2 float64, log *validity.Log) float64 {
 	checkBiot(log, "annular tapered fin", h, k, tRoot)
 	p := profile{annular: true, r1: r1, L: r2 - r1, t0: tRoot, t1: tTip, tipConv: true}

@@ -44,7 +44,7 @@ func loadFinRef(t testing.TB) []refRow {
 // with scipy.special (tolerance 1e-12: the same formula, double precision
 // both sides), and the tapered profiles by scipy.integrate.solve_bvp at
 // tol 1e-10 (tolerance 1e-6 for AnnularTapered, whose fixed mesh with
-// Richardson extrapolation is good to about 1e-7; 1e-9 for the exact
+// Richardson extrapolation is good to about 4e-7; 1e-9 for the exact
 // trapezoidal solution).
 func TestClosedFormsAgainstReference(t *testing.T) {
 	seen := map[string]int{}

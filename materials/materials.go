@@ -144,10 +144,10 @@ func All() []Alloy {
 	return out
 }
 
+var normReplacer = strings.NewReplacer(" ", "", "-", "", "_", "", ".", "")
+
 func norm(s string) string {
-	s = strings.ToLower(strings.TrimSpace(s))
-	r := strings.NewReplacer(" ", "", "-", "", "_", "", ".", "")
-	return r.Replace(s)
+	return normReplacer.Replace(strings.ToLower(strings.TrimSpace(s)))
 }
 
 // ErrUnknown is returned (wrapped) by Lookup for a name not in the catalogue.
