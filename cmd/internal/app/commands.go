@@ -53,10 +53,11 @@ func (e *env) runDemo() error {
 	return e.emit(doc)
 }
 
-func (e *env) estimateCmd() *cobra.Command {
+// oneDesign builds a command that reads one design file and runs fn on it.
+func (e *env) oneDesign(use, short string, fn func(*design.Design) error) *cobra.Command {
 	return &cobra.Command{
-		Use:               "estimate DESIGN.toml",
-		Short:             "Estimate head and barrel temperature (or heat rejected at given walls) at cruise",
+		Use:               use,
+		Short:             short,
 		Args:              cobra.ExactArgs(1),
 		ValidArgsFunction: tomlArgs,
 		RunE: func(_ *cobra.Command, args []string) error {
@@ -64,9 +65,26 @@ func (e *env) estimateCmd() *cobra.Command {
 			if err != nil {
 				return err
 			}
-			return e.estimate(d)
+			return fn(d)
 		},
 	}
+}
+
+// parseSpeedRange reads the --from, --to and --step flags of a speed range.
+func parseSpeedRange(from, to, step string) ([3]float64, error) {
+	var v [3]float64
+	for i, s := range []struct{ name, val string }{{"--from", from}, {"--to", to}, {"--step", step}} {
+		x, err := design.ParseValue[design.Speed](s.val)
+		if err != nil {
+			return v, fail(ExitUsage, fmt.Errorf("%s: %w", s.name, err))
+		}
+		v[i] = x
+	}
+	return v, nil
+}
+
+func (e *env) estimateCmd() *cobra.Command {
+	return e.oneDesign("estimate DESIGN.toml", "Estimate head and barrel temperature (or heat rejected at given walls) at cruise", e.estimate)
 }
 
 func (e *env) estimate(d *design.Design) error {
@@ -480,19 +498,7 @@ func (e *env) tilt(d *design.Design, step float64) error {
 }
 
 func (e *env) marchCmd() *cobra.Command {
-	return &cobra.Command{
-		Use:               "march DESIGN.toml",
-		Short:             "Show the segment-by-segment march of the cooling air along the fin passages",
-		Args:              cobra.ExactArgs(1),
-		ValidArgsFunction: tomlArgs,
-		RunE: func(_ *cobra.Command, args []string) error {
-			d, err := e.load(args[0])
-			if err != nil {
-				return err
-			}
-			return e.march(d)
-		},
-	}
+	return e.oneDesign("march DESIGN.toml", "Show the segment-by-segment march of the cooling air along the fin passages", e.march)
 }
 
 func (e *env) march(d *design.Design) error {
@@ -557,13 +563,9 @@ func (e *env) speedsCmd() *cobra.Command {
 			if err != nil {
 				return err
 			}
-			var v [3]float64
-			for i, s := range []struct{ name, val string }{{"--from", from}, {"--to", to}, {"--step", step}} {
-				x, err := design.ParseValue[design.Speed](s.val)
-				if err != nil {
-					return fail(ExitUsage, fmt.Errorf("%s: %w", s.name, err))
-				}
-				v[i] = x
+			v, err := parseSpeedRange(from, to, step)
+			if err != nil {
+				return err
 			}
 			if !(v[0] >= 0 && v[1] >= v[0] && v[1] <= 400/3.6 && v[2] > 0) || (v[1]-v[0])/v[2] > 1000 {
 				return fail(ExitUsage, fmt.Errorf("speed range %s to %s by %s: need 0 <= from <= to <= 400 km/h, a positive step and at most 1000 rows", from, to, step))

@@ -52,21 +52,7 @@ format. With no design files it uses the built-in demo designs.
   finmarch plot compare a.toml b.toml -o cmp.svg    head temperature and heat per kg of fin, design by design`,
 	}
 	var from, to, step string
-	march := &cobra.Command{
-		Use: "march [DESIGN.toml ...]", Short: "Air temperature and local heat flux along the fin passages",
-		ValidArgsFunction: tomlArgs,
-		RunE: func(_ *cobra.Command, args []string) error {
-			ds, err := e.designsOrDemo(args)
-			if err != nil {
-				return err
-			}
-			fig, err := e.marchFigure(ds)
-			if err != nil {
-				return err
-			}
-			return e.writeFigure(fig)
-		},
-	}
+	march := e.figureCmd("march [DESIGN.toml ...]", "Air temperature and local heat flux along the fin passages", e.marchFigure)
 	speeds := &cobra.Command{
 		Use: "speeds [DESIGN.toml ...]", Short: "Head and barrel temperature against road speed, with the limits",
 		ValidArgsFunction: tomlArgs,
@@ -75,13 +61,9 @@ format. With no design files it uses the built-in demo designs.
 			if err != nil {
 				return err
 			}
-			var v [3]float64
-			for i, s := range []struct{ name, val string }{{"--from", from}, {"--to", to}, {"--step", step}} {
-				x, err := design.ParseValue[design.Speed](s.val)
-				if err != nil {
-					return fail(ExitUsage, fmt.Errorf("%s: %w", s.name, err))
-				}
-				v[i] = x
+			v, err := parseSpeedRange(from, to, step)
+			if err != nil {
+				return err
 			}
 			if !(v[0] >= 0 && v[1] > v[0] && v[2] > 0) || (v[1]-v[0])/v[2] > 400 {
 				return fail(ExitUsage, fmt.Errorf("speed range %s to %s by %s: need 0 <= from < to, a positive step, at most 400 points", from, to, step))
@@ -96,23 +78,28 @@ format. With no design files it uses the built-in demo designs.
 	speeds.Flags().StringVar(&from, "from", "20 km/h", "lowest road speed")
 	speeds.Flags().StringVar(&to, "to", "140 km/h", "highest road speed")
 	speeds.Flags().StringVar(&step, "step", "5 km/h", "speed step")
-	compare := &cobra.Command{
-		Use: "compare [DESIGN.toml ...]", Short: "Head temperature and heat rejected per kg of fin, design by design",
-		ValidArgsFunction: tomlArgs,
+	compare := e.figureCmd("compare [DESIGN.toml ...]", "Head temperature and heat rejected per kg of fin, design by design", e.compareFigure)
+	cmd.AddCommand(march, speeds, compare)
+	return cmd
+}
+
+// figureCmd builds a plot subcommand that draws make's figure of the named
+// designs (or the demo).
+func (e *env) figureCmd(use, short string, make func([]*design.Design) (*plots.Figure, error)) *cobra.Command {
+	return &cobra.Command{
+		Use: use, Short: short, ValidArgsFunction: tomlArgs,
 		RunE: func(_ *cobra.Command, args []string) error {
 			ds, err := e.designsOrDemo(args)
 			if err != nil {
 				return err
 			}
-			fig, err := e.compareFigure(ds)
+			fig, err := make(ds)
 			if err != nil {
 				return err
 			}
 			return e.writeFigure(fig)
 		},
 	}
-	cmd.AddCommand(march, speeds, compare)
-	return cmd
 }
 
 func (e *env) writeFigure(fig *plots.Figure) error {
