@@ -77,6 +77,8 @@ func TestGoldenOutputs(t *testing.T) {
 		{"speeds.txt", []string{"speeds", "--from", "30 km/h", "--to", "150 km/h", "--step", "30 km/h", up}},
 		{"fin.txt", []string{"fin", "--profile", "annular-tapered", "--height", "35mm", "--root-thickness", "4mm", "--tip-thickness", "2mm", "--root-diameter", "90mm", "--h", "60 W/m2K"}},
 		{"alloys.txt", []string{"alloys"}},
+		{"sweep.csv", []string{"sweep", "-f", "csv", "--workers", "1", "--vary", "head.pitch=7mm:11mm:2mm", "--vary", "air.ambient=20C:40C:20C", up}},
+		{"optimise.txt", []string{"optimise", "--goal", "cool", "--pitch", "8mm:12mm", "--count", "6:8", up}},
 	}
 	for _, c := range cases {
 		out, errs, code := run(t, c.args...)
