@@ -626,11 +626,20 @@ func (c Case) Balance(load HeatLoad) (Result, error) {
 			}
 			guess(coarse)
 			tc, err := roots.Secant(coarse, t0, t1, lo, SaneWallLimit, 1e-3, 100)
-			p.n = full
+			// the coarse slope dQ/dT_w turns the full march's first
+			// residual into a Newton step, which usually lands within the
+			// stopping tolerance
+			var slope float64
 			if err == nil {
-				t0, t1 = tc, math.Min(tc+0.05, SaneWallLimit)
+				dt := math.Copysign(0.5, SaneWallLimit-1-tc)
+				slope = (coarse(tc+dt) - coarse(tc)) / dt
+			}
+			p.n = full
+			if err == nil && slope > 0 {
+				t0 = tc
+				t1 = math.Min(math.Max(tc-f(tc)/slope, lo), SaneWallLimit)
 				if t1 == t0 {
-					t1 = tc - 0.05
+					t1 = tc + 1e-4
 				}
 			} else {
 				guess(f)
