@@ -653,7 +653,7 @@ func (c Case) Balance(load HeatLoad) (Result, error) {
 				r, m := p.setHeat(fs, g, cv, pt, SaneWallLimit, tin, mdot, true)
 				own(&r)
 				r.HeatLoad = q
-				return r, m, fmt.Errorf("%w for the %s fins: at %.0f C wall temperature they reject only %.0f W of the %.0f W load; add fin area, raise the air speed or pressure recovery, or lower the heat load",
+				return r, m, fmt.Errorf("%w for the %s fins: at %.0f C wall temperature they reject only %.0f W of the %.0f W load; add fin area, improve the air supply to the fins (pressure recovery, ducting), or lower the heat load",
 					ErrNoEquilibrium, fs.Name, SaneWallLimit-273.15, r.HeatRejected, q)
 			}
 			return SetResult{}, marchOut{}, fmt.Errorf("%s wall temperature: %w", fs.Name, err)
