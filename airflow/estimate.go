@@ -63,6 +63,37 @@ type Case struct {
 	FixedH    float64 // W/(m2 K), a measured forced-convection coefficient; 0 uses the correlations
 	EntryLoss float64 // passage entry loss coefficient; 0 means DefaultEntryLoss
 	ExitLoss  float64 // passage exit loss coefficient; 0 means DefaultExitLoss
+	// Curves, when set, keeps the fin-efficiency curves of fin sets already
+	// seen, so that a sweep over speed, ambient or load does not tabulate
+	// the same fins again. It is not safe for concurrent use: give each
+	// goroutine its own.
+	Curves *CurveCache
+}
+
+// CurveCache holds fin-efficiency curves by fin set, at most a few hundred
+// (it starts afresh when full, so its memory stays bounded).
+type CurveCache struct {
+	m map[fins.Set]*fins.Curve
+}
+
+// NewCurveCache returns an empty cache.
+func NewCurveCache() *CurveCache { return &CurveCache{m: map[fins.Set]*fins.Curve{}} }
+
+const curveCacheSize = 256
+
+func (cc *CurveCache) get(s fins.Set, g fins.Geometry) *fins.Curve {
+	if cc == nil {
+		return s.NewCurve(g)
+	}
+	if c, ok := cc.m[s]; ok {
+		return c
+	}
+	if len(cc.m) >= curveCacheSize {
+		clear(cc.m)
+	}
+	c := s.NewCurve(g)
+	cc.m[s] = c
+	return c
 }
 
 // Segment is one step of the march along an air path. Heat and areas are
@@ -202,7 +233,7 @@ func (c Case) prepare(log *validity.Log) (*prepared, error) {
 	if p.bg, err = c.Barrel.Set.Geometry(); err != nil {
 		return nil, fmt.Errorf("barrel fins: %w", err)
 	}
-	p.hc, p.bc = c.Head.Set.NewCurve(p.hg), c.Barrel.Set.NewCurve(p.bg)
+	p.hc, p.bc = c.Curves.get(c.Head.Set, p.hg), c.Curves.get(c.Barrel.Set, p.bg)
 	p.amb = Properties(c.Ambient, c.Pressure, log)
 	p.hp = path(c.Head.Set, p.hg, c.Speed, c.Tilt)
 	p.bp = path(c.Barrel.Set, p.bg, c.Speed, c.Tilt)

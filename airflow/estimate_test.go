@@ -266,3 +266,25 @@ func BenchmarkEstimateLaidOver(b *testing.B) {
 		}
 	}
 }
+
+// A shared curve cache gives the same answer as fresh curves, to the last
+// bit, and is reused across cases with the same fin sets.
+func TestCurveCache(t *testing.T) {
+	cache := NewCurveCache()
+	for _, lo := range []bool{false, true} {
+		for _, v := range []float64{15, 25, 35} {
+			c := demoCase(t, lo)
+			c.Speed = v
+			plain := mustBalance(t, c, demoLoad)
+			c.Curves = cache
+			cached := mustBalance(t, c, demoLoad)
+			if plain.Head.WallTemp != cached.Head.WallTemp || plain.Barrel.WallTemp != cached.Barrel.WallTemp {
+				t.Errorf("laid over %v, %g m/s: cached %.9f / %.9f, fresh %.9f / %.9f", lo, v,
+					cached.Head.WallTemp, cached.Barrel.WallTemp, plain.Head.WallTemp, plain.Barrel.WallTemp)
+			}
+		}
+	}
+	if len(cache.m) != 4 {
+		t.Errorf("cache holds %d curves, want 4 (two sets, two designs)", len(cache.m))
+	}
+}

@@ -20,6 +20,7 @@ import (
 	"github.com/spf13/cobra"
 	"golang.org/x/term"
 
+	"finmarch/airflow"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
 	"finmarch/fins"
@@ -209,8 +210,9 @@ func runGrid(d *design.Design, axes []axis, total, workers int, fit bool, sink f
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
+			cache := airflow.NewCurveCache()
 			for i := range jobs {
-				rows <- evalPoint(d, axes, i, make(map[string]float64, len(axes)+2), fit)
+				rows <- evalPoint(d, axes, i, make(map[string]float64, len(axes)+2), fit, cache)
 			}
 		}()
 	}
@@ -266,7 +268,7 @@ func fitCounts(d *design.Design, vals map[string]float64) {
 	}
 }
 
-func evalPoint(d *design.Design, axes []axis, i int, vals map[string]float64, fit bool) sweepRow {
+func evalPoint(d *design.Design, axes []axis, i int, vals map[string]float64, fit bool, cache *airflow.CurveCache) sweepRow {
 	r := sweepRow{idx: i, vals: make([]float64, len(axes))}
 	j := i
 	for k := len(axes) - 1; k >= 0; k-- {
@@ -283,7 +285,7 @@ func evalPoint(d *design.Design, axes []axis, i int, vals map[string]float64, fi
 		r.status, r.msg = "invalid", firstLine(err.Error())
 		return r
 	}
-	o, err := evaluate(v, v.Case.Speed)
+	o, err := evaluateWith(v, v.Case.Speed, cache)
 	if err == nil {
 		err = o.check()
 	}
