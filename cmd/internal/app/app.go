@@ -179,6 +179,9 @@ func (e *env) emit(doc output.Doc) error {
 		for _, w := range doc.Warnings {
 			fmt.Fprintf(e.stderr, "warning: %s\n", w)
 		}
+		for _, a := range doc.Alerts {
+			fmt.Fprintf(e.stderr, "warning: %s\n", a)
+		}
 		if doc.Caution && f == output.CSV {
 			fmt.Fprintln(e.stderr, output.Caution)
 		}

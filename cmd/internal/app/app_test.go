@@ -246,3 +246,16 @@ func TestReadmeDemoBlock(t *testing.T) {
 		t.Errorf("README demo block is stale; paste the output of 'go run ./cmd/finmarch'.\n--- demo prints ---\n%s", out)
 	}
 }
+
+// A wall over its limit is said on stderr and in the JSON, whatever --strict.
+func TestLimitAlert(t *testing.T) {
+	_, lo := designs(t)
+	_, errs, code := run(t, "estimate", lo)
+	if code != 0 || !strings.Contains(errs, "warning: demo single, laid over, longitudinal fins: the head runs at") || !strings.Contains(errs, "over its 220.0 C limit") {
+		t.Errorf("exit %d, stderr %q", code, errs)
+	}
+	js, _, _ := run(t, "estimate", "-f", "json", lo)
+	if !strings.Contains(js, `"limit_warnings": [`) {
+		t.Error("JSON lacks limit_warnings")
+	}
+}

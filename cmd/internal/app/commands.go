@@ -181,8 +181,10 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.err.Error()+".")
 	}
 	doc.Warnings = o.warnings()
+	doc.Alerts = limitAlerts(u, o)
 	doc.JSON = map[string]any{
-		"design": d.Name, "source": d.Source, "tilt_deg": c.Tilt * 180 / math.Pi, "speed_m_s": c.Speed,
+		"limit_warnings": doc.Alerts,
+		"design":         d.Name, "source": d.Source, "tilt_deg": c.Tilt * 180 / math.Pi, "speed_m_s": c.Speed,
 		"ambient_K": c.Ambient, "pressure_Pa": c.Pressure, "altitude_m": d.Altitude,
 		"load": o.load, "result": o.res, "head_limit_K": d.HeadLimit, "barrel_limit_K": d.BarrelLimit,
 		"head_margin_K": o.headMargin(), "barrel_margin_K": o.barrelMargin(), "status": o.status(),
@@ -190,6 +192,26 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		"warnings": doc.Warnings, "defaults_applied": d.Defaults, "caution": output.Caution,
 	}
 	return doc, o, nil
+}
+
+// limitAlerts says which wall is over its limit, and by how much.
+func limitAlerts(u output.Units, o outcome) []string {
+	if o.fixed {
+		return nil
+	}
+	var out []string
+	for _, x := range []struct {
+		name   string
+		wall   float64
+		limit  float64
+		margin float64
+	}{{"head", o.res.Head.WallTemp, o.d.HeadLimit, o.headMargin()}, {"barrel", o.res.Barrel.WallTemp, o.d.BarrelLimit, o.barrelMargin()}} {
+		if x.margin < 0 {
+			out = append(out, fmt.Sprintf("%s: the %s runs at %s %s, %s %s over its %s %s limit",
+				o.d.Name, x.name, fmtT(u, x.wall), u.TempU(), fmtDT(u, -x.margin), u.TempDiffU(), fmtT(u, x.limit), u.TempU()))
+		}
+	}
+	return out
 }
 
 // energyNote reports the energy check; below 1e-9 it says so rather than
@@ -325,6 +347,9 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 	}
 	doc.Notes = append(doc.Notes, noteWall, noteModel)
 	doc.Warnings = warningsOf(warns...)
+	for _, o := range os {
+		doc.Alerts = append(doc.Alerts, limitAlerts(u, o)...)
+	}
 	var js []map[string]any
 	for _, o := range os {
 		js = append(js, map[string]any{"design": o.d.Name, "source": o.d.Source, "load": o.load, "result": o.res,

@@ -57,7 +57,8 @@ type Doc struct {
 	Title    string
 	Grids    []Grid   // the first is the primary grid, the one CSV writes
 	Notes    []string // explanations printed after the tables
-	Warnings []string // also sent to stderr by the caller
+	Warnings []string // correlation range warnings; also sent to stderr by the caller
+	Alerts   []string // results the user must see (a limit exceeded); sent to stderr, not affected by --strict
 	Caution  bool
 	JSON     any // the structured payload for --format json
 }
@@ -103,8 +104,11 @@ func Write(w io.Writer, d Doc, f Format) error {
 		for _, n := range d.Notes {
 			fmt.Fprintf(w, "- %s\n", n)
 		}
-		if len(d.Warnings) > 0 {
+		if len(d.Warnings)+len(d.Alerts) > 0 {
 			fmt.Fprintln(w)
+			for _, n := range d.Alerts {
+				fmt.Fprintf(w, "- **Over the limit:** %s\n", n)
+			}
 			for _, n := range d.Warnings {
 				fmt.Fprintf(w, "- Warning: %s\n", n)
 			}
