@@ -240,3 +240,18 @@ func TestChannelNuMatchesChannel(t *testing.T) {
 		}
 	}
 }
+
+// The march's fast Nusselt number is ChannelNu's, to rounding.
+func TestChannelNuFast(t *testing.T) {
+	for re := 30.0; re < 2e5; re *= 1.13 {
+		for _, ld := range []float64{0.05, 0.7, 3, 25, 80} {
+			for _, pr := range []float64{0.68, 0.71} {
+				want, _ := ChannelNu(re, pr, ld, nil)
+				got := channelNuFast(re, pr, math.Log(pr), math.Cbrt(pr), math.Log(ld), math.Pow(1/ld, 2.0/3))
+				if rel(got, want) > 1e-12 {
+					t.Fatalf("Re %g L/Dh %g Pr %g: fast %.15g, ChannelNu %.15g", re, ld, pr, got, want)
+				}
+			}
+		}
+	}
+}

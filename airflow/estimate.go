@@ -174,6 +174,7 @@ type prepared struct {
 	hc, bc       *fins.Curve // fin efficiency against h/k, filled as the march needs it
 	scratch      validity.Log
 	segBuf       []Segment // the march of the latest trial
+	pre          map[segKey][]segPre
 	hp, bp       Path
 	hm, bm       float64 // mass flow per path, kg/s
 	hvel, bvel   float64 // passage velocity at inlet density, m/s
@@ -365,6 +366,36 @@ type marchOut struct {
 	seg             []Segment
 }
 
+// segPre holds what the march needs at a segment end that depends only on
+// its position: ln(x/Dh) and (Dh/x)^(2/3).
+type segPre struct{ lxd, d23 float64 }
+
+type segKey struct {
+	length, dh float64
+	n          int
+}
+
+// segments returns the position terms of the n segment ends of a path,
+// computed once per path and segment count.
+func (p *prepared) segments(pt Path, n int) []segPre {
+	k := segKey{pt.Length, pt.Dh, n}
+	if s, ok := p.pre[k]; ok {
+		return s
+	}
+	s := make([]segPre, n+1)
+	for i := 1; i <= n; i++ {
+		r := float64(i) / float64(n)
+		x := pt.Length * r * r
+		c := math.Cbrt(pt.Dh / x)
+		s[i] = segPre{lxd: math.Log(x / pt.Dh), d23: c * c}
+	}
+	if p.pre == nil {
+		p.pre = map[segKey][]segPre{}
+	}
+	p.pre[k] = s
+	return s
+}
+
 // march steps one air path of a set at wall temperature tw (K) from inlet
 // temperature tin (K) with mass flow mdot (kg/s) per path. In each of n
 // segments it takes film properties at the mean of wall and local air
@@ -388,6 +419,7 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tw
 	if keep {
 		out.seg = p.segBuf[:0]
 	}
+	pre := p.segments(pt, n)
 	t := tin
 	prevXNu := 0.0
 	xPrev := 0.0
@@ -411,17 +443,19 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tw
 			// range checks at the path's end, where x/Dh is the whole
 			// passage's L/Dh; upstream segments are the correlation's own
 			// entrance region
-			var lg *validity.Log
+			var nu float64
 			if i == n {
-				lg = p.log
+				var regime string
+				nu, regime = ChannelNu(re, air.Pr, x/pt.Dh, p.log)
+				out.regime = regime
+			} else {
+				sp := pre[i]
+				lnPr := math.Log(air.Pr)
+				nu = channelNuFast(re, air.Pr, lnPr, math.Cbrt(air.Pr), sp.lxd, sp.d23)
 			}
-			nu, regime := ChannelNu(re, air.Pr, x/pt.Dh, lg)
 			xNuK := x * nu * air.K
 			h = (xNuK - prevXNu) / dx / pt.Dh
 			prevXNu = xNuK
-			if i == n {
-				out.regime = regime
-			}
 		}
 		etaF := cv.Efficiency(h, k, p.log)
 		etaO := g.SurfaceEfficiency(etaF)
