@@ -170,7 +170,11 @@ func (e *env) fin(in finInput) error {
 	add("fin parameter m = sqrt(2h/(k t_root))", output.Num(m, 2), "1/m")
 	add("m x height", output.Num(m*in.L, 3), "-")
 	add("Biot number h t_root/(2k)", fmt.Sprintf("%.2g", in.h*in.t0/(2*in.k)), "-")
-	add("fin efficiency (closed form)", output.Num(eta, 4), "-")
+	method := "closed form"
+	if in.profile == "annular-tapered" {
+		method = "16/32-cell solve with Richardson extrapolation"
+	}
+	add("fin efficiency ("+method+")", output.Num(eta, 4), "-")
 	add("fin efficiency (finite-volume check, 400 cells)", output.Num(sol.Efficiency, 4), "-")
 	add("heated area "+per, output.Num(u.Area(area)*map[bool]float64{true: 1e4, false: 1}[!u.US && annular], 2), map[bool]string{true: "cm2", false: u.AreaU()}[!u.US && annular])
 	add("heat rate "+per+" at "+fmtT(u, in.tw)+" wall, "+fmtT(u, in.ta)+" air ("+u.TempU()+")", output.Num(q, 1), "W")
