@@ -20,6 +20,10 @@ type Curve struct {
 	g    Geometry
 	vals [curveNodes]float64
 	have [curveNodes]bool
+	// for tapered annular fins, the two finite-volume meshes of
+	// AnnularTapered built once, so a node costs two Thomas sweeps
+	coarse, fine *taperMesh
+	area         float64
 }
 
 const (
@@ -31,7 +35,27 @@ const (
 var curveLogR = math.Log(curveRatio)
 
 // NewCurve prepares an efficiency curve for the set with geometry g.
-func (s Set) NewCurve(g Geometry) *Curve { return &Curve{s: s, g: g} }
+func (s Set) NewCurve(g Geometry) *Curve {
+	c := &Curve{s: s, g: g}
+	if s.Style == StyleAnnular && s.TipThickness != s.RootThickness {
+		r1 := s.RootDiameter / 2
+		p := profile{annular: true, r1: r1, L: s.Height, t0: s.RootThickness, t1: s.TipThickness, tipConv: true}
+		c.coarse, c.fine = p.mesh(taperCells), p.mesh(2*taperCells)
+		r2 := r1 + s.Height
+		c.area = 2*math.Pi*(r2*r2-r1*r1) + 2*math.Pi*r2*s.TipThickness
+	}
+	return c
+}
+
+// efficiency is Set.FinEfficiency at x = h/k (k = 1), through the stored
+// meshes where the set has them.
+func (c *Curve) efficiency(x float64) float64 {
+	if c.coarse == nil {
+		return c.s.FinEfficiency(c.g, x, 1, nil)
+	}
+	q := (4*c.fine.heat(x) - c.coarse.heat(x)) / 3
+	return q / c.area
+}
 
 // ref is the straight uniform fin's tanh(z)/z at the set's mean thickness
 // and corrected height: it carries most of the efficiency's shape, so the
@@ -45,7 +69,7 @@ func (c *Curve) ref(x float64) float64 {
 func (c *Curve) node(i int) float64 {
 	if !c.have[i] {
 		x := curveX0 * math.Exp(float64(i)*curveLogR)
-		c.vals[i] = c.s.FinEfficiency(c.g, x, 1, nil) / c.ref(x)
+		c.vals[i] = c.efficiency(x) / c.ref(x)
 		c.have[i] = true
 	}
 	return c.vals[i]
@@ -62,7 +86,7 @@ func (c *Curve) Efficiency(h, k float64, log *validity.Log) float64 {
 	u := math.Log(x/curveX0) / curveLogR
 	i := int(math.Floor(u))
 	if i < 1 || i+2 >= curveNodes || math.IsNaN(u) {
-		return c.s.FinEfficiency(c.g, h, k, nil)
+		return c.efficiency(x)
 	}
 	t := u - float64(i)
 	y0, y1, y2, y3 := c.node(i-1), c.node(i), c.node(i+1), c.node(i+2)

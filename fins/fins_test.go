@@ -598,3 +598,19 @@ func TestCastingCheck(t *testing.T) {
 		t.Error("unknown process accepted")
 	}
 }
+
+// The stored meshes of a curve give AnnularTapered's efficiency exactly
+// (the same system, assembled once).
+func TestCurveMeshMatchesAnnularTapered(t *testing.T) {
+	s := Set{Style: StyleAnnular, Count: 8, Pitch: 0.009, Height: 0.04, RootThickness: 0.004, TipThickness: 0.002, RootDiameter: 0.12, Length: 0.072}
+	g, _ := s.Geometry()
+	c := s.NewCurve(g)
+	for h := 1.0; h < 2000; h *= 1.7 {
+		for _, k := range []float64{47, 151} {
+			want := AnnularTapered(h, k, 0.004, 0.002, 0.06, 0.1, nil)
+			if got := c.efficiency(h / k); math.Abs(got-want) > 1e-13 {
+				t.Fatalf("h=%g k=%g: mesh %.15f, AnnularTapered %.15f", h, k, got, want)
+			}
+		}
+	}
+}

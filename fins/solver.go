@@ -299,3 +299,64 @@ func (p profile) fastQ(h, k float64, n int) float64 {
 	}
 	return q
 }
+
+// taperMesh is the finite-volume system of fastQ for one profile and cell
+// count with k = h = 1: face conductances g and convecting areas a (the tip
+// face folded into the last node). The heat of the fin at any x = h/k is
+// then x-scaled convection against unit conduction, so one mesh serves
+// every h and k of a fin set.
+type taperMesh struct {
+	n    int
+	g, a [maxFastCells + 1]float64
+}
+
+func (p profile) mesh(n int) *taperMesh {
+	m := &taperMesh{n: n}
+	dx := p.L / float64(n)
+	slope := (p.t1 - p.t0) / p.L
+	for i := 0; i <= n; i++ {
+		s := float64(i) * dx
+		a, b := math.Max(0, s-dx/2), math.Min(p.L, s+dx/2)
+		if p.annular {
+			ra, rb := p.r1+a, p.r1+b
+			m.a[i] = 2 * math.Pi * (rb*rb - ra*ra)
+		} else {
+			m.a[i] = 2 * (b - a)
+		}
+		if i < n {
+			sm := s + dx/2
+			t := p.t0 + slope*sm
+			if p.annular {
+				m.g[i] = 2 * math.Pi * (p.r1 + sm) * t / dx
+			} else {
+				m.g[i] = t / dx
+			}
+		}
+	}
+	if p.tipConv {
+		if p.annular {
+			m.a[n] += 2 * math.Pi * (p.r1 + p.L) * p.t1
+		} else {
+			m.a[n] += p.t1
+		}
+	}
+	return m
+}
+
+// heat returns sum(a_i theta_i) at x = h/k for a unit base excess: the
+// fin's heat rate over h, so that q = h * heat(x). It is fastQ's Thomas
+// sweep with k = 1 and h = x.
+func (m *taperMesh) heat(x float64) float64 {
+	n := m.n
+	var c [maxFastCells + 1]float64
+	c[n] = m.g[n-1] / (m.g[n-1] + x*m.a[n])
+	for i := n - 1; i >= 1; i-- {
+		c[i] = m.g[i-1] / (m.g[i-1] + m.g[i]*(1-c[i+1]) + x*m.a[i])
+	}
+	theta, q := 1.0, m.a[0]
+	for i := 1; i <= n; i++ {
+		theta *= c[i]
+		q += m.a[i] * theta
+	}
+	return q
+}
