@@ -133,11 +133,18 @@ func trapezoidQ(h, k, tRoot, tTip, L float64) (float64, bool) {
 	var r float64
 	if tTip > 0 {
 		c := 2 * h * tTip / (k * s * zt)
-		r = (bessel.I1e(zt) - c*bessel.I0e(zt)) / (bessel.K1e(zt) + c*bessel.K0e(zt))
+		i0, i1 := bessel.I01e(zt)
+		k0, k1 := bessel.K01e(zt)
+		r = (i1 - c*i0) / (k1 + c*k0)
 	}
 	e := math.Exp(-2 * (zb - zt))
-	num := bessel.I1e(zb) - r*e*bessel.K1e(zb)
-	den := bessel.I0e(zb) + r*e*bessel.K0e(zb)
+	i0b, i1b := bessel.I01e(zb)
+	var k0b, k1b float64
+	if r != 0 {
+		k0b, k1b = bessel.K01e(zb)
+	}
+	num := i1b - r*e*k1b
+	den := i0b + r*e*k0b
 	q := k * s * zb / 2 * num / den
 	if math.IsNaN(q) || math.IsInf(q, 0) {
 		return 0, false
@@ -166,8 +173,12 @@ func AnnularRectangular(h, k, t, r1, r2 float64, log *validity.Log) float64 {
 		return 1
 	}
 	e := math.Exp(-2 * (b - a))
-	num := bessel.K1e(a)*bessel.I1e(b) - bessel.I1e(a)*bessel.K1e(b)*e
-	den := bessel.K0e(a)*bessel.I1e(b) + bessel.I0e(a)*bessel.K1e(b)*e
+	i0a, i1a := bessel.I01e(a)
+	k0a, k1a := bessel.K01e(a)
+	_, i1b := bessel.I01e(b)
+	_, k1b := bessel.K01e(b)
+	num := k1a*i1b - i1a*k1b*e
+	den := k0a*i1b + i0a*k1b*e
 	return 2 * r1 / (m * (r2c*r2c - r1*r1)) * num / den
 }
 

@@ -210,6 +210,35 @@ func K1e(x float64) float64 {
 	return asym(1, x, 1) * math.Sqrt(math.Pi/(2*x))
 }
 
+// I01e returns I0e(x) and I1e(x) together for x >= 0, sharing one series
+// or one asymptotic evaluation of exp.
+func I01e(x float64) (i0e, i1e float64) {
+	if x <= seriesLimitI {
+		i0, i1 := iSeries(x)
+		e := math.Exp(-x)
+		return i0 * e, i1 * e
+	}
+	r := math.Sqrt(2 * math.Pi * x)
+	return asym(0, x, -1) / r, asym(1, x, -1) / r
+}
+
+// K01e returns K0e(x) and K1e(x) together for x > 0, sharing one series,
+// one trapezoidal sum or one asymptotic evaluation.
+func K01e(x float64) (k0e, k1e float64) {
+	switch {
+	case !(x > 0):
+		return math.NaN(), math.NaN()
+	case x <= seriesLimitK:
+		k0, k1 := kSeries(x)
+		e := math.Exp(x)
+		return k0 * e, k1 * e
+	case x <= asymLimit:
+		return kTrap(x)
+	}
+	r := math.Sqrt(math.Pi / (2 * x))
+	return asym(0, x, 1) * r, asym(1, x, 1) * r
+}
+
 // K0 returns the modified Bessel function of the second kind of order 0
 // for x > 0 (NaN otherwise; +Inf at 0 is not returned, 0 gives NaN).
 func K0(x float64) float64 {

@@ -113,3 +113,14 @@ func BenchmarkK1eMid(b *testing.B) {
 	}
 	_ = s
 }
+
+// The paired forms are the single ones exactly.
+func TestPairs(t *testing.T) {
+	for x := 0.001; x < 700; x *= 1.05 {
+		a, b := I01e(x)
+		c, d := K01e(x)
+		if a != I0e(x) || b != I1e(x) || c != K0e(x) || d != K1e(x) {
+			t.Fatalf("x=%g: pairs differ", x)
+		}
+	}
+}
