@@ -37,6 +37,9 @@ const (
 	// to have no forced flow: a road-speed component under about 1 mm/s,
 	// such as cos 90 deg in floating point.
 	minDrive = 1e-6
+	// balanceTol is the relative heat balance at which the wall search
+	// stops: 2e-6 of the load, a fraction of a millikelvin at the wall.
+	balanceTol = 2e-6
 	// SaneWallLimit is the highest wall temperature the balance searches,
 	// 500 C: aluminium heads are long past their limits there.
 	SaneWallLimit = 773.15
@@ -650,8 +653,8 @@ func (c Case) Balance(load HeatLoad) (Result, error) {
 			memoR, memoM = p.setHeat(fs, g, cv, pt, tw, tin, mdot, true)
 			p.log = keep
 			memoX, memoF = tw, memoR.HeatRejected-q
-			if math.Abs(memoF) <= 1e-7*q {
-				memoF = 0 // balanced to 1e-7 of the load: the root finder stops here
+			if math.Abs(memoF) <= balanceTol*q {
+				memoF = 0 // balanced: the root finder stops here
 			}
 			return memoF
 		}
@@ -681,29 +684,43 @@ func (c Case) Balance(load HeatLoad) (Result, error) {
 		full := p.n
 		if nc := full / 5; nc >= 8 && mdot > 0 {
 			p.n = nc
+			cx, cf := math.NaN(), 0.0 // the secant and the slope re-ask points
 			coarse := func(tw float64) float64 {
+				if tw == cx {
+					return cf
+				}
 				p.log = nil
 				r, _ := p.setHeat(fs, g, cv, pt, tw, tin, mdot, false)
 				p.log = keep
-				if d := r.HeatRejected - q; math.Abs(d) > 1e-5*q {
-					return d
+				cx, cf = tw, r.HeatRejected-q
+				if math.Abs(cf) <= 1e-5*q {
+					cf = 0
 				}
-				return 0
+				return cf
 			}
 			guess(coarse)
 			tc, err := roots.Secant(coarse, t0, t1, lo, SaneWallLimit, 1e-3, 100)
 			// the coarse slope dQ/dT_w turns the full march's first
 			// residual into a Newton step, which usually lands within the
 			// stopping tolerance
-			var slope float64
+			var slope, qc float64
 			if err == nil {
 				dt := math.Copysign(0.5, SaneWallLimit-1-tc)
-				slope = (coarse(tc+dt) - coarse(tc)) / dt
+				qc = coarse(tc) + q
+				up := coarse(tc + dt)
+				slope = (up + q - qc) / dt
 			}
 			p.n = full
 			if err == nil && slope > 0 {
 				t0 = tc
-				t1 = math.Min(math.Max(tc-f(tc)/slope, lo), SaneWallLimit)
+				// the full march rejects nearly the same multiple of the
+				// coarse one at every wall temperature, so its slope is the
+				// coarse slope times that ratio
+				ff := f(tc)
+				if qc > 0 {
+					slope *= (ff + q) / qc
+				}
+				t1 = math.Min(math.Max(tc-ff/slope, lo), SaneWallLimit)
 				if t1 == t0 {
 					t1 = tc + 1e-4
 				}
