@@ -166,7 +166,7 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		row("surface efficiency", "-", pair(func(r airflow.SetResult) string { return output.Num(r.SurfaceEfficiency, 3) })),
 		row("finned surface (fins + base)", u.AreaU(), pair(func(r airflow.SetResult) string { return output.Num(u.Area(r.TotalArea), 3) })),
 		row("fin mass", u.MassU(), pair(func(r airflow.SetResult) string { return output.Num(u.Mass(r.FinMass), 2) })),
-		row("heat per kg of fin", "W/kg", pair(func(r airflow.SetResult) string { return output.Num(r.HeatRejected/r.FinMass, 0) })),
+		row("heat per mass of fin", u.PerMassU(), pair(func(r airflow.SetResult) string { return output.Num(u.PerMass(r.HeatRejected/r.FinMass), 0) })),
 	)
 	doc.Grids = append(doc.Grids, g)
 	if !o.fixed && !d.Load.Direct {
@@ -333,8 +333,8 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 	})
 	add("finned surface", u.AreaU(), func(o outcome) string { return output.Num(u.Area(o.res.Head.TotalArea+o.res.Barrel.TotalArea), 3) })
 	add("fin mass", u.MassU(), func(o outcome) string { return output.Num(u.Mass(o.res.Head.FinMass+o.res.Barrel.FinMass), 2) })
-	add("heat rejected per kg of fin", "W/kg", func(o outcome) string {
-		return output.Num((o.res.Head.HeatRejected+o.res.Barrel.HeatRejected)/(o.res.Head.FinMass+o.res.Barrel.FinMass), 0)
+	add("heat rejected per mass of fin", u.PerMassU(), func(o outcome) string {
+		return output.Num(u.PerMass((o.res.Head.HeatRejected+o.res.Barrel.HeatRejected)/(o.res.Head.FinMass+o.res.Barrel.FinMass)), 0)
 	})
 	doc := output.Doc{Title: heading, Grids: []output.Grid{g}, Caution: true}
 	for i := 1; i < len(os); i++ {

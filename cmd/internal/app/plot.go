@@ -49,7 +49,7 @@ format. With no design files it uses the built-in demo designs.
 
   finmarch plot march -o march.svg                 air temperature and local heat flux along the path
   finmarch plot speeds my.toml -o speeds.png        head and barrel temperature against road speed, with the limits
-  finmarch plot compare a.toml b.toml -o cmp.svg    head temperature and heat per kg of fin, design by design`,
+  finmarch plot compare a.toml b.toml -o cmp.svg    head temperature and heat per mass of fin, design by design`,
 	}
 	var from, to, step string
 	march := e.figureCmd("march [DESIGN.toml ...]", "Air temperature and local heat flux along the fin passages", e.marchFigure)
@@ -78,7 +78,7 @@ format. With no design files it uses the built-in demo designs.
 	speeds.Flags().StringVar(&from, "from", "20 km/h", "lowest road speed")
 	speeds.Flags().StringVar(&to, "to", "140 km/h", "highest road speed")
 	speeds.Flags().StringVar(&step, "step", "5 km/h", "speed step")
-	compare := e.figureCmd("compare [DESIGN.toml ...]", "Head temperature and heat rejected per kg of fin, design by design", e.compareFigure)
+	compare := e.figureCmd("compare [DESIGN.toml ...]", "Head temperature and heat rejected per mass of fin, design by design", e.compareFigure)
 	cmd.AddCommand(march, speeds, compare)
 	return cmd
 }
@@ -245,10 +245,10 @@ func (e *env) compareFigure(ds []*design.Design) (*plots.Figure, error) {
 		}
 		names = append(names, letter(i)+": "+short(d.Name))
 		ht = append(ht, u.Temp(o.res.Head.WallTemp))
-		perKg = append(perKg, (o.res.Head.HeatRejected+o.res.Barrel.HeatRejected)/(o.res.Head.FinMass+o.res.Barrel.FinMass))
+		perKg = append(perKg, u.PerMass((o.res.Head.HeatRejected+o.res.Barrel.HeatRejected)/(o.res.Head.FinMass+o.res.Barrel.FinMass)))
 	}
 	return plots.Compare("Designs at cruise\n"+strings.Join(names, "    "), names, []plots.Panel{
 		{Label: "head temperature (" + u.TempU() + ")", Values: ht},
-		{Label: "heat rejected per kg of fin (W/kg)", Values: perKg},
+		{Label: "heat rejected per mass of fin (" + u.PerMassU() + ")", Values: perKg},
 	})
 }

@@ -20,7 +20,7 @@ func TestPlots(t *testing.T) {
 	}{
 		{"march", []string{"position along the air path (mm)", "air temperature (C)", "local heat flux (kW/m2)", "A head (annular)", "B barrel (longitudinal)"}},
 		{"speeds", []string{"road speed (km/h)", "wall temperature at the fin roots (C)", "head limit 220 C", "B barrel"}},
-		{"compare", []string{"head temperature (C)", "heat rejected per kg of fin (W/kg)"}},
+		{"compare", []string{"head temperature (C)", "heat rejected per mass of fin (W/kg)"}},
 	} {
 		svg := filepath.Join(dir, c.kind+".svg")
 		if _, errs, code := run(t, "plot", c.kind, up, lo, "-o", svg); code != 0 {

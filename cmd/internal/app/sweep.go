@@ -376,7 +376,7 @@ func (e *env) sweep(d *design.Design, axes []axis, total, workers, top int, keep
 		}
 	}
 	header = append(header, "head fins", "barrel fins", "head ("+T+")", "barrel ("+T+")", "head margin ("+u.TempDiffU()+")", "barrel margin ("+u.TempDiffU()+")",
-		"fin mass ("+u.MassU()+")", "heat per kg (W/kg)", "status", "note")
+		"fin mass ("+u.MassU()+")", "heat per fin mass ("+u.PerMassU()+")", "status", "note")
 	if f == output.CSV {
 		if err := cw.Write(header); err != nil {
 			return fail(ExitIO, err)
@@ -392,7 +392,7 @@ func (e *env) sweep(d *design.Design, axes []axis, total, workers, top int, keep
 			return append(c, "", "", "", "", "", "", "", "", r.status, r.msg)
 		}
 		return append(c, strconv.Itoa(r.hc), strconv.Itoa(r.bc), fmtT(u, r.headT), fmtT(u, r.barrT), fmtDT(u, r.headM), fmtDT(u, r.barrM),
-			output.Num(u.Mass(r.mass), 3), output.Num(r.perKg, 0), r.status, r.msg)
+			output.Num(u.Mass(r.mass), 3), output.Num(u.PerMass(r.perKg), 0), r.status, r.msg)
 	}
 	var bar *progressbar.ProgressBar
 	if sf, ok := e.stderr.(*os.File); ok && !e.opt.quiet && total >= 200 && term.IsTerminal(int(sf.Fd())) {

@@ -203,3 +203,19 @@ func (u Units) PressU() string {
 	}
 	return "kPa"
 }
+
+// PerMass converts W/kg to W/kg or W/lb.
+func (u Units) PerMass(v float64) float64 {
+	if u.US {
+		return v * 0.45359237
+	}
+	return v
+}
+
+// PerMassU names the heat-per-fin-mass unit.
+func (u Units) PerMassU() string {
+	if u.US {
+		return "W/lb"
+	}
+	return "W/kg"
+}
