@@ -16,8 +16,9 @@ import (
 // 1000 W/(m2 K) (TestCurveAccuracy). The march calls it once per segment
 // instead of solving the fin again.
 type Curve struct {
-	s    Set
-	g    Geometry
+	s        Set
+	g        Geometry
+	refScale float64 // z = refScale sqrt(x)
 	vals [curveNodes]float64
 	have [curveNodes]bool
 	// for tapered annular fins, the two finite-volume meshes of
@@ -32,11 +33,16 @@ const (
 	curveNodes = 180 // up to x0 r^179, about 1.6e9 1/m
 )
 
-var curveLogR = math.Log(curveRatio)
+var (
+	curveLogR    = math.Log(curveRatio)
+	curveInvLogR = 1 / curveLogR
+	curveLogX0   = math.Log(curveX0)
+)
 
 // NewCurve prepares an efficiency curve for the set with geometry g.
 func (s Set) NewCurve(g Geometry) *Curve {
-	c := &Curve{s: s, g: g}
+	tm := (s.RootThickness + s.TipThickness) / 2
+	c := &Curve{s: s, g: g, refScale: math.Sqrt(2/tm) * (s.Height + s.TipThickness/2)}
 	if s.Style == StyleAnnular && s.TipThickness != s.RootThickness {
 		r1 := s.RootDiameter / 2
 		p := profile{annular: true, r1: r1, L: s.Height, t0: s.RootThickness, t1: s.TipThickness, tipConv: true}
@@ -62,8 +68,7 @@ func (c *Curve) efficiency(x float64) float64 {
 // ratio efficiency/ref that the nodes hold varies slowly and interpolates
 // well on a coarse grid.
 func (c *Curve) ref(x float64) float64 {
-	tm := (c.s.RootThickness + c.s.TipThickness) / 2
-	return tanhc(math.Sqrt(2*x/tm) * (c.s.Height + c.s.TipThickness/2))
+	return tanhc(c.refScale * math.Sqrt(x))
 }
 
 func (c *Curve) node(i int) float64 {
@@ -83,7 +88,7 @@ func (c *Curve) Efficiency(h, k float64, log *validity.Log) float64 {
 	}
 	checkBiot(log, "fin set", h, k, c.s.RootThickness)
 	x := h / k
-	u := math.Log(x/curveX0) / curveLogR
+	u := (math.Log(x) - curveLogX0) * curveInvLogR
 	i := int(math.Floor(u))
 	if i < 1 || i+2 >= curveNodes || math.IsNaN(u) {
 		return c.efficiency(x)
