@@ -102,14 +102,14 @@ func (cc *CurveCache) get(s fins.Set, g fins.Geometry) *fins.Curve {
 // Segment is one step of the march along an air path. Heat and areas are
 // totals over all parallel paths of the set.
 type Segment struct {
-	X       float64 `json:"x_m"`       // m, path position at the segment's end
-	AirIn   float64 `json:"air_in_K"`  // K
-	AirOut  float64 `json:"air_out_K"` // K
-	H       float64 `json:"h_W_m2K"`   // W/(m2 K), forced coefficient, segment mean
-	FinEff  float64 `json:"fin_eff"`   // -, fin efficiency at that h
-	Flux    float64 `json:"flux_W_m2"` // W/m2 of finned surface (fins + base)
-	Heat    float64 `json:"heat_W"`    // W
-	Reynold float64 `json:"reynolds"`  // Reynolds number on the plate hydraulic diameter
+	X        float64 `json:"x_m"`       // m, path position at the segment's end
+	AirIn    float64 `json:"air_in_K"`  // K
+	AirOut   float64 `json:"air_out_K"` // K
+	H        float64 `json:"h_W_m2K"`   // W/(m2 K), forced coefficient, segment mean
+	FinEff   float64 `json:"fin_eff"`   // -, fin efficiency at that h
+	Flux     float64 `json:"flux_W_m2"` // W/m2 of finned surface (fins + base)
+	Heat     float64 `json:"heat_W"`    // W
+	Reynolds float64 `json:"reynolds"`  // Reynolds number on the plate hydraulic diameter
 }
 
 // Path says how air reaches a fin set.
@@ -506,7 +506,7 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tw
 		out.re = re
 		if keep {
 			out.seg = append(out.seg, Segment{X: x, AirIn: t, AirOut: tOut, H: h, FinEff: etaF,
-				Flux: qAir / aSeg, Heat: qAir * paths, Reynold: re})
+				Flux: qAir / aSeg, Heat: qAir * paths, Reynolds: re})
 		}
 		t = tOut
 	}

@@ -19,11 +19,11 @@ type Curve struct {
 	s        Set
 	g        Geometry
 	refScale float64 // z = refScale sqrt(x)
-	vals [curveNodes]float64
-	have [curveNodes]bool
+	vals     [curveNodes]float64
+	have     [curveNodes]bool
 	// for tapered annular fins, the two finite-volume meshes of
 	// AnnularTapered built once, so a node costs two Thomas sweeps
-	coarse, fine *taperMesh
+	coarse, fine *taperMesh // nil unless the set is tapered annular
 	area         float64
 }
 
@@ -46,7 +46,8 @@ func (s Set) NewCurve(g Geometry) *Curve {
 	if s.Style == StyleAnnular && s.TipThickness != s.RootThickness {
 		r1 := s.RootDiameter / 2
 		p := profile{annular: true, r1: r1, L: s.Height, t0: s.RootThickness, t1: s.TipThickness, tipConv: true}
-		c.coarse, c.fine = p.mesh(taperCells), p.mesh(2*taperCells)
+		coarse, fine := p.mesh(taperCells), p.mesh(2*taperCells)
+		c.coarse, c.fine = &coarse, &fine
 		r2 := r1 + s.Height
 		c.area = 2*math.Pi*(r2*r2-r1*r1) + 2*math.Pi*r2*s.TipThickness
 	}
@@ -98,15 +99,4 @@ func (c *Curve) Efficiency(h, k float64, log *validity.Log) float64 {
 	// cubic Lagrange through nodes at -1, 0, 1, 2
 	r := y0*(-t*(t-1)*(t-2)/6) + y1*((t+1)*(t-1)*(t-2)/2) + y2*(-(t+1)*t*(t-2)/2) + y3*((t+1)*t*(t-1)/6)
 	return r * c.ref(x)
-}
-
-// Count is the number of nodes computed so far (for benchmarks and tests).
-func (c *Curve) Count() int {
-	n := 0
-	for _, h := range c.have {
-		if h {
-			n++
-		}
-	}
-	return n
 }

@@ -245,64 +245,9 @@ type profile struct {
 
 const maxFastCells = 128
 
-// fastQ solves the same finite-volume system as Solve for a linear taper
-// and uniform h, with the Thomas algorithm on stack arrays, and returns the
-// heat rate per kelvin of base excess (W/K).
-func (p profile) fastQ(h, k float64, n int) float64 {
-	if n > maxFastCells {
-		n = maxFastCells
-	}
-	var g [maxFastCells + 1]float64
-	var H [maxFastCells + 1]float64
-	var c [maxFastCells + 1]float64
-	dx := p.L / float64(n)
-	slope := (p.t1 - p.t0) / p.L
-	for i := 0; i <= n; i++ {
-		s := float64(i) * dx
-		a, b := math.Max(0, s-dx/2), math.Min(p.L, s+dx/2)
-		if p.annular {
-			ra, rb := p.r1+a, p.r1+b
-			H[i] = h * 2 * math.Pi * (rb*rb - ra*ra)
-		} else {
-			H[i] = h * 2 * (b - a)
-		}
-		if i < n {
-			sm := s + dx/2
-			t := p.t0 + slope*sm
-			if p.annular {
-				g[i] = k * 2 * math.Pi * (p.r1 + sm) * t / dx
-			} else {
-				g[i] = k * t / dx
-			}
-		}
-	}
-	if p.tipConv {
-		if p.annular {
-			H[n] += h * 2 * math.Pi * (p.r1 + p.L) * p.t1
-		} else {
-			H[n] += h * p.t1
-		}
-	}
-	// Thomas algorithm on unknowns theta_1..theta_n with theta_0 = 1,
-	// eliminating from the tip toward the root: theta_i = c_i theta_{i-1}.
-	// At the tip: (g[n-1] + H[n]) theta_n = g[n-1] theta_{n-1}.
-	c[n] = g[n-1] / (g[n-1] + H[n])
-	for i := n - 1; i >= 1; i-- {
-		// (g[i-1] + g[i] + H[i]) theta_i - g[i] c_{i+1} theta_i = g[i-1] theta_{i-1}
-		c[i] = g[i-1] / (g[i-1] + g[i]*(1-c[i+1]) + H[i])
-	}
-	theta := 1.0
-	q := H[0]
-	for i := 1; i <= n; i++ {
-		theta *= c[i]
-		q += H[i] * theta
-	}
-	return q
-}
-
-// taperMesh is the finite-volume system of fastQ for one profile and cell
-// count with k = h = 1: face conductances g and convecting areas a (the tip
-// face folded into the last node). The heat of the fin at any x = h/k is
+// taperMesh is the finite-volume system of Solve for a linear taper, one
+// cell count and k = h = 1: face conductances g and convecting areas a (the
+// tip face folded into the last node). The heat of the fin at any x = h/k is
 // then x-scaled convection against unit conduction, so one mesh serves
 // every h and k of a fin set.
 type taperMesh struct {
@@ -310,8 +255,9 @@ type taperMesh struct {
 	g, a [maxFastCells + 1]float64
 }
 
-func (p profile) mesh(n int) *taperMesh {
-	m := &taperMesh{n: n}
+func (p profile) mesh(n int) taperMesh {
+	n = min(n, maxFastCells)
+	m := taperMesh{n: n}
 	dx := p.L / float64(n)
 	slope := (p.t1 - p.t0) / p.L
 	for i := 0; i <= n; i++ {
@@ -344,8 +290,9 @@ func (p profile) mesh(n int) *taperMesh {
 }
 
 // heat returns sum(a_i theta_i) at x = h/k for a unit base excess: the
-// fin's heat rate over h, so that q = h * heat(x). It is fastQ's Thomas
-// sweep with k = 1 and h = x.
+// fin's heat rate over h, so that q = h * heat(x). The Thomas algorithm
+// eliminates from the tip toward the root, theta_i = c_i theta_(i-1),
+// with theta_0 = 1.
 func (m *taperMesh) heat(x float64) float64 {
 	n := m.n
 	var c [maxFastCells + 1]float64

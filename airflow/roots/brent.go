@@ -94,33 +94,6 @@ func Brent(f func(float64) float64, a, b, tol float64, maxIter int) (float64, er
 	return b, fmt.Errorf("%w after %d iterations (last x = %g)", ErrNotConverged, maxIter, b)
 }
 
-// Expand widens [a, b] geometrically about its ends, up to n times, until
-// f changes sign, keeping a >= lo. It returns the bracket found or
-// ErrNoBracket.
-func Expand(f func(float64) float64, a, b, lo float64, n int) (float64, float64, error) {
-	fa, fb := f(a), f(b)
-	for i := 0; i < n; i++ {
-		if (fa > 0) != (fb > 0) {
-			return a, b, nil
-		}
-		w := b - a
-		if math.Abs(fa) < math.Abs(fb) && a-w >= lo {
-			a -= w
-			fa = f(a)
-		} else {
-			b += 1.6 * w
-			fb = f(b)
-		}
-		if math.IsNaN(fa) || math.IsNaN(fb) {
-			break
-		}
-	}
-	if (fa > 0) != (fb > 0) {
-		return a, b, nil
-	}
-	return a, b, fmt.Errorf("%w between %g and %g", ErrNoBracket, a, b)
-}
-
 // Secant finds a root of f starting from the two guesses x0 and x1 inside
 // [lo, hi], by secant steps (the method suits a smooth, nearly linear f,
 // such as a heat balance against wall temperature, where it converges in a

@@ -77,17 +77,6 @@ func TestBrentStaysInBracket(t *testing.T) {
 	}
 }
 
-func TestExpand(t *testing.T) {
-	f := func(x float64) float64 { return x - 37 }
-	a, b, err := Expand(f, 0, 1, 0, 50)
-	if err != nil || !(a <= 37 && b >= 37) {
-		t.Fatalf("bracket [%g, %g] %v", a, b, err)
-	}
-	if _, _, err := Expand(func(x float64) float64 { return 1 }, 0, 1, 0, 10); !errors.Is(err, ErrNoBracket) {
-		t.Errorf("want ErrNoBracket, got %v", err)
-	}
-}
-
 func BenchmarkBrent(b *testing.B) {
 	f := func(x float64) float64 { return math.Cos(x) - x }
 	for i := 0; i < b.N; i++ {

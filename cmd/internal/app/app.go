@@ -193,45 +193,78 @@ func (e *env) emit(doc output.Doc) error {
 	return writeFile(e.opt.out, buf.Bytes(), e.opt.force)
 }
 
-// writeFile writes data to path through a temporary file in the same
-// folder and a rename, so that a failed run leaves no half-written file,
-// and refuses to replace an existing file unless force is set.
-func writeFile(path string, data []byte, force bool) error {
+// atomicFile is a temporary file beside its target that becomes the target
+// only on Commit, so that a failed run leaves no half-written file, and
+// that replaces an existing target only when force is set.
+type atomicFile struct {
+	*os.File
+	path  string
+	force bool
+	done  bool
+}
+
+func createAtomic(path string, force bool) (*atomicFile, error) {
 	if !force {
 		if _, err := os.Stat(path); err == nil {
-			return fail(ExitIO, fmt.Errorf("%s already exists; add --force to replace it", path))
+			return nil, fail(ExitIO, fmt.Errorf("%s already exists; add --force to replace it", path))
 		}
 	}
-	dir := filepath.Dir(path)
-	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp-*")
+	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".tmp-*")
 	if err != nil {
-		return fail(ExitIO, fmt.Errorf("cannot write %s: %w", path, err))
+		return nil, fail(ExitIO, fmt.Errorf("cannot write %s: %w", path, err))
 	}
-	name := tmp.Name()
 	_ = tmp.Chmod(0o644) // CreateTemp makes 0600; results are ordinary files
-	_, werr := tmp.Write(data)
-	cerr := tmp.Close()
-	if werr != nil || cerr != nil {
-		os.Remove(name)
-		return fail(ExitIO, fmt.Errorf("cannot write %s: %v", path, errors.Join(werr, cerr)))
+	return &atomicFile{File: tmp, path: path, force: force}, nil
+}
+
+// Abort removes the temporary file unless Commit has run.
+func (a *atomicFile) Abort() {
+	if !a.done {
+		a.Close()
+		os.Remove(a.Name())
+		a.done = true
 	}
-	if !force {
-		// a link fails when the target appeared meanwhile, unlike a rename
-		if err := os.Link(name, path); err != nil {
-			os.Remove(name)
-			if os.IsExist(err) {
-				return fail(ExitIO, fmt.Errorf("%s already exists; add --force to replace it", path))
-			}
-			return fail(ExitIO, fmt.Errorf("cannot write %s: %w", path, err))
-		}
+}
+
+// Commit closes the temporary file and puts it in place: by a link when
+// the target must not be replaced (a link fails if the target appeared
+// meanwhile, unlike a rename), by a rename otherwise.
+func (a *atomicFile) Commit() error {
+	name := a.Name()
+	a.done = true
+	if err := a.Close(); err != nil {
 		os.Remove(name)
+		return fail(ExitIO, fmt.Errorf("cannot write %s: %w", a.path, err))
+	}
+	if a.force {
+		if err := os.Rename(name, a.path); err != nil {
+			os.Remove(name)
+			return fail(ExitIO, fmt.Errorf("cannot write %s: %w", a.path, err))
+		}
 		return nil
 	}
-	if err := os.Rename(name, path); err != nil {
-		os.Remove(name)
-		return fail(ExitIO, fmt.Errorf("cannot write %s: %w", path, err))
+	err := os.Link(name, a.path)
+	os.Remove(name)
+	if os.IsExist(err) {
+		return fail(ExitIO, fmt.Errorf("%s already exists; add --force to replace it", a.path))
+	}
+	if err != nil {
+		return fail(ExitIO, fmt.Errorf("cannot write %s: %w", a.path, err))
 	}
 	return nil
+}
+
+// writeFile writes data to path through an atomicFile.
+func writeFile(path string, data []byte, force bool) error {
+	f, err := createAtomic(path, force)
+	if err != nil {
+		return err
+	}
+	defer f.Abort()
+	if _, err := f.Write(data); err != nil {
+		return fail(ExitIO, fmt.Errorf("cannot write %s: %w", path, err))
+	}
+	return f.Commit()
 }
 
 // modelError maps a physics error to an exit error with advice.

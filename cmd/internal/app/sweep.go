@@ -9,7 +9,6 @@ import (
 	"io"
 	"math"
 	"os"
-	"path/filepath"
 	"runtime"
 	"sort"
 	"strconv"
@@ -56,15 +55,16 @@ func parseAxis(spec string) (axis, error) {
 		var v [3]float64
 		for i := range p {
 			x, err := parse(p[i])
+			if i == 2 { // the step is a difference: "5 C" is 5 K
+				x, err = design.ParseDifferenceFor(k, p[i])
+				if err != nil {
+					err = fmt.Errorf("--vary %s: %w", k, err)
+				}
+			}
 			if err != nil {
 				return axis{}, err
 			}
 			v[i] = x
-		}
-		// the step is a difference: with an offset unit ("5 C") take away
-		// the same unit's zero
-		if z, err := parse("0" + unitPart(p[2])); err == nil {
-			v[2] -= z
 		}
 		if !(v[2] > 0) || v[1] < v[0] {
 			return axis{}, fmt.Errorf("--vary %q: need from <= to and a positive step", spec)
@@ -86,22 +86,6 @@ func parseAxis(spec string) (axis, error) {
 		a.vals = append(a.vals, x)
 	}
 	return a, nil
-}
-
-// unitPart is what follows the leading number of a quantity ("5 C" -> " C").
-func unitPart(s string) string {
-	t := strings.TrimSpace(s)
-	i := 0
-	for i < len(t) && strings.ContainsRune("+-0123456789.eE_", rune(t[i])) {
-		if (t[i] == 'e' || t[i] == 'E') && (i+1 >= len(t) || !strings.ContainsRune("+-0123456789", rune(t[i+1]))) {
-			break
-		}
-		i++
-	}
-	if i == len(t) {
-		return ""
-	}
-	return " " + t[i:]
 }
 
 type sweepRow struct {
@@ -343,24 +327,17 @@ func (e *env) sweep(d *design.Design, axes []axis, total, workers, top int, keep
 	}
 	streaming := f == output.CSV || f == output.JSON
 	var dst io.Writer = e.stdout
-	var tmp *os.File
+	var file *atomicFile
 	summaryTo := e.stdout
 	if streaming {
 		summaryTo = e.stderr
 	}
 	if e.opt.out != "" {
-		if !e.opt.force {
-			if _, err := os.Stat(e.opt.out); err == nil {
-				return fail(ExitIO, fmt.Errorf("%s already exists; add --force to replace it", e.opt.out))
-			}
+		if file, err = createAtomic(e.opt.out, e.opt.force); err != nil {
+			return err
 		}
-		tmp, err = os.CreateTemp(filepath.Dir(e.opt.out), "."+filepath.Base(e.opt.out)+".tmp-*")
-		if err != nil {
-			return fail(ExitIO, fmt.Errorf("cannot write %s: %w", e.opt.out, err))
-		}
-		defer os.Remove(tmp.Name()) // a no-op once renamed
-		_ = tmp.Chmod(0o644)
-		dst = tmp
+		defer file.Abort()
+		dst = file
 		summaryTo = e.stdout
 	}
 	bw := bufio.NewWriterSize(dst, 1<<16)
@@ -452,12 +429,9 @@ func (e *env) sweep(d *design.Design, axes []axis, total, workers, top int, keep
 	if werr != nil {
 		return fail(ExitIO, fmt.Errorf("writing the sweep: %w", werr))
 	}
-	if tmp != nil {
-		if err := tmp.Close(); err != nil {
-			return fail(ExitIO, err)
-		}
-		if err := os.Rename(tmp.Name(), e.opt.out); err != nil {
-			return fail(ExitIO, fmt.Errorf("cannot write %s: %w", e.opt.out, err))
+	if file != nil {
+		if err := file.Commit(); err != nil {
+			return err
 		}
 	}
 	// summary

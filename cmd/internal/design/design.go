@@ -19,17 +19,16 @@ import (
 
 // File mirrors the design file. Quantities are Q values in SI.
 type File struct {
-	Name     string              `toml:"name"`
-	Segments int                 `toml:"segments"`
-	Cylinder CylinderT           `toml:"cylinder"`
-	Head     FinSetT             `toml:"head"`
-	Barrel   FinSetT             `toml:"barrel"`
-	Air      AirT                `toml:"air"`
-	Load     LoadT               `toml:"load"`
-	Limits   LimitsT             `toml:"limits"`
-	Override OverrideT           `toml:"override"`
-	Alloys   map[string]AlloyT   `toml:"alloys"`
-	Notes    map[string]struct{} `toml:"-"`
+	Name     string            `toml:"name"`
+	Segments int               `toml:"segments"`
+	Cylinder CylinderT         `toml:"cylinder"`
+	Head     FinSetT           `toml:"head"`
+	Barrel   FinSetT           `toml:"barrel"`
+	Air      AirT              `toml:"air"`
+	Load     LoadT             `toml:"load"`
+	Limits   LimitsT           `toml:"limits"`
+	Override OverrideT         `toml:"override"`
+	Alloys   map[string]AlloyT `toml:"alloys"`
 }
 
 // CylinderT is the [cylinder] table.
@@ -385,15 +384,14 @@ func locate(src string) locator {
 // rng checks that v (SI) lies in [lo, hi] and reports the range in the
 // user's display unit.
 type rangeCheck struct {
-	key      string
-	v        float64
-	lo, hi   float64
-	unit     string  // display unit
-	scale    float64 // SI per display unit
-	offset   float64
-	required bool
-	set      bool
-	bare     bool
+	key    string
+	v      float64
+	lo, hi float64
+	unit   string  // display unit
+	scale  float64 // SI per display unit
+	offset float64
+	set    bool
+	bare   bool
 }
 
 func (r rangeCheck) show(v float64) string {
@@ -413,7 +411,7 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 		IsBare() bool
 	}
 	need := func(key string, q quantity, set bool, lo, hi float64, unit string, scale, offset float64) float64 {
-		checks = append(checks, rangeCheck{key: key, v: q.Or(math.NaN()), lo: lo, hi: hi, unit: unit, scale: scale, offset: offset, required: true, set: set, bare: q.IsBare()})
+		checks = append(checks, rangeCheck{key: key, v: q.Or(math.NaN()), lo: lo, hi: hi, unit: unit, scale: scale, offset: offset, set: set, bare: q.IsBare()})
 		return q.Or(math.NaN())
 	}
 	opt := func(key string, q quantity, set bool, dflt, lo, hi float64, unit string, scale, offset float64, why string) float64 {

@@ -110,7 +110,11 @@ func parseQuantity(v any, d *dimension) (float64, error) {
 	}
 }
 
-func parseString(s string, d *dimension) (float64, error) {
+func parseString(s string, d *dimension) (float64, error) { return parseText(s, d, false) }
+
+// parseText converts "6 mm" to SI; with difference set it converts a
+// difference ("5 C" is 5 K), leaving out the unit's offset.
+func parseText(s string, d *dimension, difference bool) (float64, error) {
 	t := strings.TrimSpace(s)
 	if t == "" {
 		return 0, fmt.Errorf("empty %s; %s", d.name, d.hint)
@@ -144,7 +148,10 @@ func parseString(s string, d *dimension) (float64, error) {
 		}
 		return 0, fmt.Errorf("%q: unit %q is not a %s unit (use %s)", s, strings.TrimSpace(t[i:]), d.name, d.unitList())
 	}
-	si := val*conv.scale + conv.offset
+	si := val * conv.scale
+	if !difference {
+		si += conv.offset
+	}
 	if math.IsNaN(si) || math.IsInf(si, 0) {
 		return 0, fmt.Errorf("%q is out of the number range", s)
 	}

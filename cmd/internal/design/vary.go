@@ -67,7 +67,13 @@ func VaryKeys() []string {
 
 // ParseFor parses a value for a varied key, with the key's units ("6 mm"
 // for head.pitch); counts take whole numbers.
-func ParseFor(key, s string) (float64, error) {
+func ParseFor(key, s string) (float64, error) { return parseFor(key, s, false) }
+
+// ParseDifferenceFor parses a step or difference for a varied key: "5 C"
+// for air.ambient is 5 K, not 278.15 K.
+func ParseDifferenceFor(key, s string) (float64, error) { return parseFor(key, s, true) }
+
+func parseFor(key, s string, difference bool) (float64, error) {
 	var f File
 	v, err := field(&f, key)
 	if err != nil {
@@ -77,7 +83,7 @@ func ParseFor(key, s string) (float64, error) {
 		if x, err := strconv.ParseFloat(strings.TrimSpace(s), 64); err == nil {
 			return parseQuantity(x, q.dimension())
 		}
-		return parseString(s, q.dimension())
+		return parseText(s, q.dimension(), difference)
 	}
 	if v.Kind() == reflect.Int {
 		n, err := strconv.Atoi(strings.TrimSpace(s))
