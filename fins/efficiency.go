@@ -133,15 +133,15 @@ func trapezoidQ(h, k, tRoot, tTip, L float64) (float64, bool) {
 	var r float64
 	if tTip > 0 {
 		c := 2 * h * tTip / (k * s * zt)
-		i0, i1 := bessel.I01e(zt)
-		k0, k1 := bessel.K01e(zt)
+		i0, i1, k0, k1 := bessel.IK01e(zt)
 		r = (i1 - c*i0) / (k1 + c*k0)
 	}
 	e := math.Exp(-2 * (zb - zt))
-	i0b, i1b := bessel.I01e(zb)
-	var k0b, k1b float64
+	var i0b, i1b, k0b, k1b float64
 	if r != 0 {
-		k0b, k1b = bessel.K01e(zb)
+		i0b, i1b, k0b, k1b = bessel.IK01e(zb)
+	} else {
+		i0b, i1b = bessel.I01e(zb)
 	}
 	num := i1b - r*e*k1b
 	den := i0b + r*e*k0b
@@ -173,10 +173,8 @@ func AnnularRectangular(h, k, t, r1, r2 float64, log *validity.Log) float64 {
 		return 1
 	}
 	e := math.Exp(-2 * (b - a))
-	i0a, i1a := bessel.I01e(a)
-	k0a, k1a := bessel.K01e(a)
-	_, i1b := bessel.I01e(b)
-	_, k1b := bessel.K01e(b)
+	i0a, i1a, k0a, k1a := bessel.IK01e(a)
+	_, i1b, _, k1b := bessel.IK01e(b)
 	num := k1a*i1b - i1a*k1b*e
 	den := k0a*i1b + i0a*k1b*e
 	return 2 * r1 / (m * (r2c*r2c - r1*r1)) * num / den

@@ -291,19 +291,28 @@ func (p profile) mesh(n int) taperMesh {
 
 // heat returns sum(a_i theta_i) at x = h/k for a unit base excess: the
 // fin's heat rate over h, so that q = h * heat(x). The Thomas algorithm
-// eliminates from the tip toward the root, theta_i = c_i theta_(i-1),
-// with theta_0 = 1.
+// eliminates from the tip toward the root, theta_i = c_i theta_(i-1) with
+// theta_0 = 1 and c_i = g_(i-1) / (g_(i-1) + g_i (1 - c_(i+1)) + x a_i).
+// Written as c_i = P_i/Q_i with R_i = (Q_i - P_i)/x, the recurrence needs no
+// division and adds only positive terms (no cancellation in 1 - c):
+//
+//	R_i = a_i Q_(i+1) + g_i R_(i+1),  Q_i = g_(i-1) Q_(i+1) + x R_i,
+//
+// from Q_(n+1) = 1, R_(n+1) = 0. The heat then follows from conservation:
+// what nodes 1..n convect is what face 0 conducts, x sum_(i>=1) a_i theta_i
+// = g_0 (1 - c_1), so heat = a_0 + g_0 R_1 / Q_1. Q and R are rescaled
+// together (their ratio is all that counts) to stay inside float64 range.
 func (m *taperMesh) heat(x float64) float64 {
 	n := m.n
-	var c [maxFastCells + 1]float64
-	c[n] = m.g[n-1] / (m.g[n-1] + x*m.a[n])
+	q, r := m.g[n-1]+x*m.a[n], m.a[n]
 	for i := n - 1; i >= 1; i-- {
-		c[i] = m.g[i-1] / (m.g[i-1] + m.g[i]*(1-c[i+1]) + x*m.a[i])
+		r = m.a[i]*q + m.g[i]*r
+		q = m.g[i-1]*q + x*r
+		if q > 1e150 {
+			q, r = q*1e-150, r*1e-150
+		} else if q < 1e-150 {
+			q, r = q*1e150, r*1e150
+		}
 	}
-	theta, q := 1.0, m.a[0]
-	for i := 1; i <= n; i++ {
-		theta *= c[i]
-		q += m.a[i] * theta
-	}
-	return q
+	return m.a[0] + m.g[0]*r/q
 }

@@ -6,14 +6,15 @@
 // Methods (x in the argument's own units, dimensionless):
 //   - I0, I1 for x <= 25: the ascending series, Abramowitz & Stegun (1964)
 //     Eq. 9.6.10; every term is positive, so it is accurate to rounding.
-//   - I0, I1 for x > 25 and K0, K1 for x > 25: the asymptotic expansions
-//     A&S Eqs. 9.7.1 and 9.7.2, summed until the terms stop falling; at
-//     x = 25 the smallest term is below 1e-20.
+//   - I0, I1 for x > 25: the asymptotic expansion A&S Eq. 9.7.1, summed
+//     until the terms stop falling; at x = 25 the smallest term is below
+//     1e-20.
 //   - K0, K1 for x <= 2: the series A&S Eqs. 9.6.13 and 9.6.11.
-//   - K0, K1 for 2 < x <= 25: the integral K_n(x) = int_0^inf
-//     exp(-x cosh t) cosh(n t) dt (A&S Eq. 9.6.24) by the trapezoidal rule,
-//     which converges geometrically for this integrand (Trefethen &
-//     Weideman, SIAM Review 56, 2014, Sec. 5).
+//   - K0, K1 for x > 2: Chebyshev series of sqrt(x) exp(x) K_n(x) in
+//     t = 4/x - 1 (the form the Cephes library uses, Moshier 1989), summed
+//     by Clenshaw's recurrence (Numerical Recipes 3rd ed. 2007, Eq. 5.8.11);
+//     the coefficients in kcheb.go are computed with mpmath by
+//     testdata/reference/gen_bessel_cheb.py.
 //
 // Accuracy, checked against mpmath and scipy values in
 // testdata/reference/bessel.csv: better than 1e-13 relative for
@@ -27,34 +28,18 @@ import "math"
 const (
 	seriesLimitI = 25.0
 	seriesLimitK = 2.0
-	asymLimit    = 25.0
 	eulerGamma   = 0.57721566490153286060651209008240243
-	trapStep     = 0.125
-	trapTerms    = 64
 )
 
-// cosh(k h) and cosh(k h)-1 for the trapezoidal rule, built once.
-var trapCosh, trapCoshM1 [trapTerms]float64
-
-func init() {
-	for k := range trapTerms {
-		t := float64(k) * trapStep
-		trapCosh[k] = math.Cosh(t)
-		// cosh t - 1 = 2 sinh^2(t/2), without cancellation near t = 0.
-		s := math.Sinh(t / 2)
-		trapCoshM1[k] = 2 * s * s
-	}
-}
-
-// iSeries returns I0(x), I1(x) by A&S 9.6.10.
+// iSeries returns I0(x), I1(x) by A&S 9.6.10. The term ratios 1/k^2 and
+// 1/(k(k+1)) come from tables, so the loop multiplies only.
 func iSeries(x float64) (i0, i1 float64) {
 	q := x * x / 4
 	t0, t1 := 1.0, x/2
 	i0, i1 = t0, t1
-	for k := 1; k < 200; k++ {
-		fk := float64(k)
-		t0 *= q / (fk * fk)
-		t1 *= q / (fk * (fk + 1))
+	for k := 1; k < iTerms; k++ {
+		t0 *= q * invSq[k]
+		t1 *= q * invPron[k]
 		i0 += t0
 		i1 += t1
 		if t0 < 1e-17*i0 && t1 < 1e-17*i1 {
@@ -62,6 +47,27 @@ func iSeries(x float64) (i0, i1 float64) {
 		}
 	}
 	return i0, i1
+}
+
+// iTerms bounds the series; at x = seriesLimitI it stops near k = 60.
+const iTerms = 200
+
+// invSq[k] = 1/k^2 and invPron[k] = 1/(k(k+1)), the ratios of successive
+// terms of the I0 and I1 series over (x/2)^2; harmonic[k] = H_k = sum 1/j,
+// j = 1..k, and psiPair[k] = psi(k+1) + psi(k+2) = -2 gamma + 2 H_k +
+// 1/(k+1), the weights of the K0 and K1 series.
+var invSq, invPron, harmonic, psiPair [iTerms]float64
+
+func init() {
+	h := 0.0
+	for k := 1; k < iTerms; k++ {
+		fk := float64(k)
+		invSq[k] = 1 / (fk * fk)
+		invPron[k] = 1 / (fk * (fk + 1))
+		h += 1 / fk
+		harmonic[k] = h
+		psiPair[k] = -2*eulerGamma + 2*h + 1/(fk+1)
+	}
 }
 
 // asym sums the asymptotic series sum_k s^k a_k(nu)/x^k, a_k as in A&S
@@ -140,22 +146,25 @@ func I1(x float64) float64 {
 // kSeries returns K0(x), K1(x) for small x by A&S 9.6.13 and 9.6.11.
 func kSeries(x float64) (k0, k1 float64) {
 	i0, i1 := iSeries(x)
+	return kSeriesWith(x, i0, i1)
+}
+
+// kSeriesWith is kSeries given I0(x) and I1(x).
+func kSeriesWith(x, i0, i1 float64) (k0, k1 float64) {
 	l := math.Log(x / 2)
 	q := x * x / 4
 	// K0 = -(ln(x/2)+gamma) I0 + sum_{k>=1} q^k/(k!)^2 H_k
 	// K1 = 1/x + ln(x/2) I1 - (x/4) sum_{k>=0} (psi(k+1)+psi(k+2)) q^k/(k!(k+1)!)
 	t := 1.0 // q^k/(k!)^2
 	u := 1.0 // q^k/(k!(k+1)!)
-	h := 0.0 // H_k
 	s0 := 0.0
 	s1 := -2*eulerGamma + 1 // k = 0: psi(1)+psi(2) = -2 gamma + 1
 	for k := 1; k < 100; k++ {
-		fk := float64(k)
-		t *= q / (fk * fk)
-		u *= q / (fk * (fk + 1))
-		h += 1 / fk
+		t *= q * invSq[k]
+		u *= q * invPron[k]
+		h := harmonic[k]
 		s0 += t * h
-		d1 := u * (-2*eulerGamma + 2*h + 1/(fk+1))
+		d1 := u * psiPair[k]
 		s1 += d1
 		if t*h < 1e-17*math.Abs(s0) && math.Abs(d1) < 1e-17*math.Abs(s1) {
 			break
@@ -166,18 +175,18 @@ func kSeries(x float64) (k0, k1 float64) {
 	return k0, k1
 }
 
-// kTrap returns exp(x) K0(x), exp(x) K1(x) by the trapezoidal rule.
-func kTrap(x float64) (k0e, k1e float64) {
-	s0, s1 := 0.5, 0.5 // t = 0 carries half weight; cosh 0 = 1
-	for k := 1; k < trapTerms; k++ {
-		e := math.Exp(-x * trapCoshM1[k])
-		s0 += e
-		s1 += e * trapCosh[k]
-		if e < 1e-18 {
-			break
-		}
+// kCheb returns exp(x) K0(x), exp(x) K1(x) for x >= 2 from the Chebyshev
+// series of kcheb.go, both by one Clenshaw pass over t = 4/x - 1.
+func kCheb(x float64) (k0e, k1e float64) {
+	t := 4/x - 1
+	t2 := 2 * t
+	var a1, a2, b1, b2 float64
+	for j := len(kCheb0) - 1; j >= 1; j-- {
+		a1, a2 = t2*a1-a2+kCheb0[j], a1
+		b1, b2 = t2*b1-b2+kCheb1[j], b1
 	}
-	return s0 * trapStep, s1 * trapStep
+	r := 1 / math.Sqrt(x)
+	return (t*a1 - a2 + kCheb0[0]/2) * r, (t*b1 - b2 + kCheb1[0]/2) * r
 }
 
 // K0e returns exp(x) K0(x) for x > 0.
@@ -188,11 +197,9 @@ func K0e(x float64) float64 {
 	case x <= seriesLimitK:
 		k0, _ := kSeries(x)
 		return k0 * math.Exp(x)
-	case x <= asymLimit:
-		k0e, _ := kTrap(x)
-		return k0e
 	}
-	return asym(0, x, 1) * math.Sqrt(math.Pi/(2*x))
+	k0e, _ := kCheb(x)
+	return k0e
 }
 
 // K1e returns exp(x) K1(x) for x > 0.
@@ -203,11 +210,9 @@ func K1e(x float64) float64 {
 	case x <= seriesLimitK:
 		_, k1 := kSeries(x)
 		return k1 * math.Exp(x)
-	case x <= asymLimit:
-		_, k1e := kTrap(x)
-		return k1e
 	}
-	return asym(1, x, 1) * math.Sqrt(math.Pi/(2*x))
+	_, k1e := kCheb(x)
+	return k1e
 }
 
 // I01e returns I0e(x) and I1e(x) together for x >= 0, sharing one series
@@ -222,8 +227,8 @@ func I01e(x float64) (i0e, i1e float64) {
 	return asym(0, x, -1) / r, asym(1, x, -1) / r
 }
 
-// K01e returns K0e(x) and K1e(x) together for x > 0, sharing one series,
-// one trapezoidal sum or one asymptotic evaluation.
+// K01e returns K0e(x) and K1e(x) together for x > 0, sharing one series
+// or one Chebyshev pass.
 func K01e(x float64) (k0e, k1e float64) {
 	switch {
 	case !(x > 0):
@@ -232,11 +237,22 @@ func K01e(x float64) (k0e, k1e float64) {
 		k0, k1 := kSeries(x)
 		e := math.Exp(x)
 		return k0 * e, k1 * e
-	case x <= asymLimit:
-		return kTrap(x)
 	}
-	r := math.Sqrt(math.Pi / (2 * x))
-	return asym(0, x, 1) * r, asym(1, x, 1) * r
+	return kCheb(x)
+}
+
+// IK01e returns I01e(x) and K01e(x) for x > 0, sharing the ascending
+// series between them where x <= 2.
+func IK01e(x float64) (i0e, i1e, k0e, k1e float64) {
+	if x > 0 && x <= seriesLimitK {
+		i0, i1 := iSeries(x)
+		k0, k1 := kSeriesWith(x, i0, i1)
+		e := math.Exp(x)
+		return i0 / e, i1 / e, k0 * e, k1 * e
+	}
+	i0e, i1e = I01e(x)
+	k0e, k1e = K01e(x)
+	return
 }
 
 // K0 returns the modified Bessel function of the second kind of order 0

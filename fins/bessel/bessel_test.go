@@ -114,6 +114,21 @@ func BenchmarkK1eMid(b *testing.B) {
 	_ = s
 }
 
+// The four-function form agrees with the pairs to rounding (it divides by
+// exp(x) where I01e multiplies by exp(-x)).
+func TestIK01e(t *testing.T) {
+	for x := 0.001; x < 700; x *= 1.05 {
+		a, b := I01e(x)
+		c, d := K01e(x)
+		p, q, r, s := IK01e(x)
+		for i, v := range [][2]float64{{a, p}, {b, q}, {c, r}, {d, s}} {
+			if math.Abs(v[1]/v[0]-1) > 1e-15 {
+				t.Fatalf("x=%g function %d: %.17g vs %.17g", x, i, v[1], v[0])
+			}
+		}
+	}
+}
+
 // The paired forms are the single ones exactly.
 func TestPairs(t *testing.T) {
 	for x := 0.001; x < 700; x *= 1.05 {
