@@ -53,21 +53,33 @@ type Air struct {
 // Valid 250-1000 K (checked, with a warning outside) and any pressure at
 // which air is an ideal gas (checked 1 kPa to 1 MPa).
 func Properties(T, p float64, log *validity.Log) Air {
-	log.Check("air properties (Sutherland / Cengel cp)", "temperature K", T, 250, 1000)
+	log.Check(propsName, propsTemp, T, 250, 1000)
 	log.Check("air properties (ideal gas)", "pressure Pa", p, 1e3, 1e6)
 	var a Air
 	a.T, a.P = T, p
 	a.Rho = p / (RAir * T)
-	r := T / 273.15
-	r15 := r * math.Sqrt(r) // (T/T0)^1.5
-	a.Mu = 1.716e-5 * r15 * (273.15 + 110.4) / (T + 110.4)
-	a.K = 0.0241 * r15 * (273.15 + 194) / (T + 194)
-	a.Cp = 1000 * (28.11 + T*(0.1967e-2+T*(0.4802e-5-T*1.966e-9))) / MolarMassAir
+	a.Mu, a.K, a.Cp = transport(T)
 	a.Pr = a.Mu * a.Cp / a.K
 	a.Nu = a.Mu / a.Rho
 	a.Alpha = a.K / (a.Rho * a.Cp)
 	a.Beta = 1 / T
 	return a
+}
+
+const (
+	propsName = "air properties (Sutherland / Cengel cp)"
+	propsTemp = "temperature K"
+)
+
+// transport returns the viscosity (Pa s), conductivity (W/(m K)) and cp
+// (J/(kg K)) of Properties at T (K), for callers that need no more.
+func transport(T float64) (mu, k, cp float64) {
+	r := T / 273.15
+	r15 := r * math.Sqrt(r) // (T/T0)^1.5
+	mu = 1.716e-5 * r15 * (273.15 + 110.4) / (T + 110.4)
+	k = 0.0241 * r15 * (273.15 + 194) / (T + 194)
+	cp = 1000 * (28.11 + T*(0.1967e-2+T*(0.4802e-5-T*1.966e-9))) / MolarMassAir
+	return mu, k, cp
 }
 
 // Atmosphere is a point of the standard atmosphere.

@@ -23,18 +23,20 @@ var (
 
 // channelNuFast is ChannelNu for the march's inner loop, with what depends
 // only on the segment's position precomputed: lxd = ln(x/Dh) and d23 =
-// (Dh/x)^(2/3); lnPr = ln Pr and cPr = Pr^(1/3) come from the caller. The
-// formulas are those of ParallelPlatesNu, GnielinskiNu and the blend of
-// Channel, term for term (TestChannelNuFast holds them to 1e-12); it
-// checks no ranges, which the march does once per path with ChannelNu.
-func channelNuFast(re, pr, lnPr, cPr, lxd, d23 float64) float64 {
+// (Dh/x)^(2/3); lnPr = ln Pr comes from the caller, and Pr^(1/3) is taken
+// only where the turbulent branch needs it. The formulas are those of
+// ParallelPlatesNu, GnielinskiNu and the blend of Channel, term for term
+// (TestChannelNuFast holds them to 1e-12); it checks no ranges, which the
+// march does once per path with ChannelNu.
+func channelNuFast(re, pr, lnPr, lxd, d23 float64) float64 {
 	stephan := func(lnRe float64) float64 {
 		lxs := lxd - lnRe - lnPr // ln x* = ln(L/Dh) - ln(Re Pr)
 		return 7.55 + 0.024*math.Exp(-1.14*lxs)/(1+0.0358*math.Exp(0.17*lnPr-0.64*lxs))
 	}
 	gn := func(re, f float64, sf8 float64) float64 {
 		f8 := f / 8
-		return f8 * (re - 1000) * pr / (1 + 12.7*sf8*(cPr*cPr-1)) * (1 + d23)
+		c := math.Cbrt(pr)
+		return f8 * (re - 1000) * pr / (1 + 12.7*sf8*(c*c-1)) * (1 + d23)
 	}
 	switch {
 	case re <= ReLaminar:

@@ -370,8 +370,8 @@ type marchOut struct {
 }
 
 // segPre holds what the march needs at a segment end that depends only on
-// its position: ln(x/Dh) and (Dh/x)^(2/3).
-type segPre struct{ lxd, d23 float64 }
+// its position: x itself, ln(x/Dh) and (Dh/x)^(2/3).
+type segPre struct{ x, lxd, d23 float64 }
 
 type segKey struct {
 	length, dh float64
@@ -390,7 +390,7 @@ func (p *prepared) segments(pt Path, n int) []segPre {
 		r := float64(i) / float64(n)
 		x := pt.Length * r * r
 		c := math.Cbrt(pt.Dh / x)
-		s[i] = segPre{lxd: math.Log(x / pt.Dh), d23: c * c}
+		s[i] = segPre{x: x, lxd: math.Log(x / pt.Dh), d23: c * c}
 	}
 	if p.pre == nil {
 		p.pre = map[segKey][]segPre{}
@@ -423,15 +423,21 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tw
 		out.seg = p.segBuf[:0]
 	}
 	pre := p.segments(pt, n)
+	reC := mdot / pt.FlowArea * pt.Dh // Re = reC / mu
 	t := tin
+	hIn := enthalpy(t)
 	prevXNu := 0.0
 	xPrev := 0.0
 	rise := 0.0 // the previous segment's air temperature rise
 	for i := 1; i <= n; i++ {
-		air := Properties(0.5*(tw+t), p.c.Pressure, p.log)
-		re := mdot / pt.FlowArea * pt.Dh / air.Mu
-		r := float64(i) / float64(n)
-		x := pt.Length * r * r // (i/N)^SegmentGrading with SegmentGrading = 2
+		// film properties at the mean of wall and local air temperature
+		// (Properties, without the pressure check done once in prepare)
+		tf := 0.5 * (tw + t)
+		p.log.Check(propsName, propsTemp, tf, 250, 1000)
+		mu, kAir, cpF := transport(tf)
+		pr := mu * cpF / kAir
+		re := reC / mu
+		x := pre[i].x
 		dx := x - xPrev
 		aSeg := perLen * dx
 		xPrev = x
@@ -449,14 +455,12 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tw
 			var nu float64
 			if i == n {
 				var regime string
-				nu, regime = ChannelNu(re, air.Pr, x/pt.Dh, p.log)
+				nu, regime = ChannelNu(re, pr, x/pt.Dh, p.log)
 				out.regime = regime
 			} else {
-				sp := pre[i]
-				lnPr := math.Log(air.Pr)
-				nu = channelNuFast(re, air.Pr, lnPr, math.Cbrt(air.Pr), sp.lxd, sp.d23)
+				nu = channelNuFast(re, pr, math.Log(pr), pre[i].lxd, pre[i].d23)
 			}
-			xNuK := x * nu * air.K
+			xNuK := x * nu * kAir
 			h = (xNuK - prevXNu) / dx / pt.Dh
 			prevXNu = xNuK
 		}
@@ -467,15 +471,16 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tw
 		// passes from the previous segment's rise; each pass rescales
 		// exp(-NTU) by exp(NTU_old - NTU_new), a small argument summed by
 		// its series, so one exponential serves the segment
-		cp := air.Cp
+		cp := cpF
 		if rise > 1e-9 {
-			cp = (enthalpy(t+rise) - enthalpy(t)) / rise
+			cp = (enthalpy(t+rise) - hIn) / rise
 		}
 		ntu := ua / (mdot * cp)
 		e := math.Exp(-ntu)
 		tOut := tw - (tw-t)*e
+		hOut := enthalpy(tOut)
 		for it := 0; it < 8 && math.Abs(tOut-t) > 1e-9; it++ {
-			next := (enthalpy(tOut) - enthalpy(t)) / (tOut - t)
+			next := (hOut - hIn) / (tOut - t)
 			if math.Abs(next-cp) <= 1e-11*cp {
 				break
 			}
@@ -488,14 +493,20 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tw
 			}
 			cp, ntu = next, nn
 			tOut = tw - (tw-t)*e
+			hOut = enthalpy(tOut)
 		}
 		rise = tOut - t
-		qAir := mdot * (enthalpy(tOut) - enthalpy(t))
-		// metal side: UA times the exact mean driving difference of the segment
+		qAir := mdot * (hOut - hIn)
+		// metal side: UA times the exact mean driving difference of the
+		// segment, (1 - exp(-NTU))/NTU, with 1 - e direct where it keeps
+		// its digits
 		var qMetal float64
-		if ntu > 1e-12 {
+		switch {
+		case ntu > 1e-3:
+			qMetal = ua * (tw - t) * (1 - e) / ntu
+		case ntu > 1e-12:
 			qMetal = ua * (tw - t) * (-math.Expm1(-ntu)) / ntu
-		} else {
+		default:
 			qMetal = ua * (tw - t)
 		}
 		out.q += qAir * paths
@@ -508,7 +519,7 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tw
 			out.seg = append(out.seg, Segment{X: x, AirIn: t, AirOut: tOut, H: h, FinEff: etaF,
 				Flux: qAir / aSeg, Heat: qAir * paths, Reynolds: re})
 		}
-		t = tOut
+		t, hIn = tOut, hOut
 	}
 	if p.c.FixedH > 0 {
 		out.regime = "fixed h"
