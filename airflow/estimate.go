@@ -177,7 +177,7 @@ type prepared struct {
 	hc, bc       *fins.Curve // fin efficiency against h/k, filled as the march needs it
 	scratch      validity.Log
 	segBuf       []Segment // the march of the latest trial
-	pre          map[segKey][]segPre
+	pre          []segCache // position terms by path and segment count
 	hp, bp       Path
 	hm, bm       float64 // mass flow per path, kg/s
 	hvel, bvel   float64 // passage velocity at inlet density, m/s
@@ -378,12 +378,19 @@ type segKey struct {
 	n          int
 }
 
+type segCache struct {
+	k segKey
+	s []segPre
+}
+
 // segments returns the position terms of the n segment ends of a path,
 // computed once per path and segment count.
 func (p *prepared) segments(pt Path, n int) []segPre {
 	k := segKey{pt.Length, pt.Dh, n}
-	if s, ok := p.pre[k]; ok {
-		return s
+	for _, c := range p.pre {
+		if c.k == k {
+			return c.s
+		}
 	}
 	s := make([]segPre, n+1)
 	for i := 1; i <= n; i++ {
@@ -392,10 +399,7 @@ func (p *prepared) segments(pt Path, n int) []segPre {
 		c := math.Cbrt(pt.Dh / x)
 		s[i] = segPre{x: x, lxd: math.Log(x / pt.Dh), d23: c * c}
 	}
-	if p.pre == nil {
-		p.pre = map[segKey][]segPre{}
-	}
-	p.pre[k] = s
+	p.pre = append(p.pre, segCache{k, s})
 	return s
 }
 
@@ -420,6 +424,9 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tw
 	k := fs.Alloy.Conductivity(tw)
 	paths := float64(pt.Paths)
 	if keep {
+		if cap(p.segBuf) < n {
+			p.segBuf = make([]Segment, 0, n)
+		}
 		out.seg = p.segBuf[:0]
 	}
 	pre := p.segments(pt, n)

@@ -43,10 +43,13 @@ var (
 func (s Set) NewCurve(g Geometry) *Curve {
 	tm := (s.RootThickness + s.TipThickness) / 2
 	c := &Curve{s: s, g: g, refScale2: 2 / tm * (s.Height + s.TipThickness/2) * (s.Height + s.TipThickness/2)}
+	for i := range c.vals {
+		c.vals[i] = math.NaN()
+	}
 	if s.Style == StyleAnnular && s.TipThickness != s.RootThickness {
 		r1 := s.RootDiameter / 2
 		p := profile{annular: true, r1: r1, L: s.Height, t0: s.RootThickness, t1: s.TipThickness, tipConv: true}
-		coarse, fine := p.mesh(taperCells), p.mesh(2*taperCells)
+		coarse, fine := p.mesh(taperCells, nil), p.mesh(2*taperCells, nil)
 		c.coarse, c.fine = &coarse, &fine
 		r2 := r1 + s.Height
 		c.area = 2*math.Pi*(r2*r2-r1*r1) + 2*math.Pi*r2*s.TipThickness
@@ -82,12 +85,13 @@ func (c *Curve) ref(x float64) float64 {
 }
 
 func (c *Curve) node(i int) float64 {
-	if !c.have[i] {
+	v := c.vals[i]
+	if v != v { // NaN: not computed yet
 		x := curveX0 * math.Exp(float64(i)*curveLogR)
-		c.vals[i] = c.efficiency(x) / c.ref(x)
-		c.have[i] = true
+		v = c.efficiency(x) / c.ref(x)
+		c.vals[i] = v
 	}
-	return c.vals[i]
+	return v
 }
 
 // Efficiency returns the fin efficiency at h (W/(m2 K)) and k (W/(m K)),

@@ -196,7 +196,9 @@ const taperCells = 16
 func AnnularTapered(h, k, tRoot, tTip, r1, r2 float64, log *validity.Log) float64 {
 	checkBiot(log, "annular tapered fin", h, k, tRoot)
 	p := profile{annular: true, r1: r1, L: r2 - r1, t0: tRoot, t1: tTip, tipConv: true}
-	coarse, fine := p.mesh(taperCells), p.mesh(2*taperCells)
+	var bc [2*taperCells + 1]float64
+	var bf [4*taperCells + 1]float64
+	coarse, fine := p.mesh(taperCells, bc[:]), p.mesh(2*taperCells, bf[:])
 	x := h / k
 	q := h * (4*fine.heat(x) - coarse.heat(x)) / 3
 	area := 2*math.Pi*(r2*r2-r1*r1) + 2*math.Pi*r2*tTip

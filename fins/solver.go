@@ -252,12 +252,16 @@ const maxFastCells = 128
 // every h and k of a fin set.
 type taperMesh struct {
 	n    int
-	g, a [maxFastCells + 1]float64
+	g, a []float64 // n face conductances, n+1 node areas
 }
 
-func (p profile) mesh(n int) taperMesh {
+// mesh builds the system for n cells in buf (2n+1 values; nil allocates).
+func (p profile) mesh(n int, buf []float64) taperMesh {
 	n = min(n, maxFastCells)
-	m := taperMesh{n: n}
+	if len(buf) < 2*n+1 {
+		buf = make([]float64, 2*n+1)
+	}
+	m := taperMesh{n: n, g: buf[:n:n], a: buf[n : 2*n+1]}
 	dx := p.L / float64(n)
 	slope := (p.t1 - p.t0) / p.L
 	for i := 0; i <= n; i++ {
