@@ -176,7 +176,7 @@ type prepared struct {
 	hg, bg       fins.Geometry
 	hc, bc       *fins.Curve // fin efficiency against h/k, filled as the march needs it
 	scratch      validity.Log
-	segBuf       []Segment // the march of the latest trial
+	segBuf       []Segment  // the march of the latest trial
 	pre          []segCache // position terms by path and segment count
 	hp, bp       Path
 	hm, bm       float64 // mass flow per path, kg/s
