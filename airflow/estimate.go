@@ -38,8 +38,9 @@ const (
 	// such as cos 90 deg in floating point.
 	minDrive = 1e-6
 	// balanceTol is the relative heat balance at which the wall search
-	// stops: 2e-6 of the load, a fraction of a millikelvin at the wall.
-	balanceTol = 2e-6
+	// stops: 1e-5 of the load, about 2 mK at a wall 150-250 K above
+	// ambient (Q is nearly proportional to the wall excess).
+	balanceTol = 1e-5
 	// SaneWallLimit is the highest wall temperature the balance searches,
 	// 500 C: aluminium heads are long past their limits there.
 	SaneWallLimit = 773.15
@@ -695,53 +696,79 @@ func (c Case) Balance(load HeatLoad) (Result, error) {
 				t1 = t0 - 1
 			}
 		}
-		// A coarse march (a fifth of the segments; the result hardly moves
-		// with N) finds the wall temperature to 1e-3 K cheaply; the full
-		// march then starts from it and its neighbour, and the secant
-		// closes in one or two more steps.
+		// A coarse march (a fifth of the segments) finds the wall
+		// temperature cheaply. The full march rejects nearly the same
+		// multiple rho of the coarse one at every wall temperature (rho
+		// moves by about 1e-5 per kelvin), so one full march at the coarse
+		// root gives rho, the coarse march then solves rho Q_c(T_w) = load,
+		// and a full march at that point usually balances; if not, the
+		// secant on the full march goes on from the two full points.
 		full := p.n
 		if nc := full / 5; nc >= 8 && mdot > 0 {
 			p.n = nc
-			cx, cf := math.NaN(), 0.0 // the secant and the slope re-ask points
-			coarse := func(tw float64) float64 {
-				if tw == cx {
-					return cf
+			// the last two distinct coarse points give the slope for the
+			// corrected solve; cx, cf also serve the secant's re-asks
+			cx, cq, px, pq := math.NaN(), 0.0, math.NaN(), 0.0
+			coarseHeat := func(tw float64) float64 {
+				switch tw {
+				case cx:
+					return cq
+				case px:
+					return pq
 				}
 				p.log = nil
 				r, _ := p.setHeat(fs, g, cv, pt, tw, tin, mdot, false)
 				p.log = keep
-				cx, cf = tw, r.HeatRejected-q
-				if math.Abs(cf) <= 1e-5*q {
-					cf = 0
+				px, pq = cx, cq
+				cx, cq = tw, r.HeatRejected
+				return cq
+			}
+			coarse := func(tw float64) float64 {
+				r := coarseHeat(tw) - q
+				if math.Abs(r) <= 1e-5*q {
+					return 0
 				}
-				return cf
+				return r
 			}
 			guess(coarse)
 			tc, err := roots.Secant(coarse, t0, t1, lo, SaneWallLimit, 1e-3, 100)
-			// the coarse slope dQ/dT_w turns the full march's first
-			// residual into a Newton step, which usually lands within the
-			// stopping tolerance
-			var slope, qc float64
-			if err == nil {
-				dt := math.Copysign(0.5, SaneWallLimit-1-tc)
-				qc = coarse(tc) + q
-				up := coarse(tc + dt)
-				slope = (up + q - qc) / dt
-			}
 			p.n = full
-			if err == nil && slope > 0 {
+			ok := err == nil
+			var qc, ff float64
+			if ok {
+				p.n = nc
+				qc = coarseHeat(tc)
+				p.n = full
+				ff = f(tc)
+				ok = qc > 0 && ff != 0
+			}
+			if ok {
+				rho := (ff + q) / qc
+				// rho Q_c(T_w) = q by the secant from the coarse root and
+				// its neighbour, to a tenth of the stopping tolerance
+				p.n = nc
+				corr := func(tw float64) float64 {
+					r := rho*coarseHeat(tw) - q
+					if math.Abs(r) <= 0.1*balanceTol*q {
+						return 0
+					}
+					return r
+				}
+				var ta float64
+				if !math.IsNaN(px) && px != tc && math.Abs(px-tc) < 20 {
+					ta = px
+				} else {
+					ta = tc + math.Copysign(0.5, SaneWallLimit-1-tc)
+				}
 				t0 = tc
-				// the full march rejects nearly the same multiple of the
-				// coarse one at every wall temperature, so its slope is the
-				// coarse slope times that ratio
-				ff := f(tc)
-				if qc > 0 {
-					slope *= (ff + q) / qc
+				t1, err = roots.Secant(corr, tc, ta, lo, SaneWallLimit, 1e-6, 100)
+				p.n = full
+				if err != nil || t1 == t0 {
+					t1 = t0 + 1e-4
 				}
-				t1 = math.Min(math.Max(tc-ff/slope, lo), SaneWallLimit)
-				if t1 == t0 {
-					t1 = tc + 1e-4
-				}
+			} else if err == nil {
+				t0 = tc
+				t1 = tc + 1e-4
 			} else {
 				guess(f)
 			}
