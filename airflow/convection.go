@@ -21,36 +21,6 @@ var (
 	lnReLam    = math.Log(ReLaminar)
 )
 
-// channelNuFast is ChannelNu for the march's inner loop, with what depends
-// only on the segment's position precomputed: lxd = ln(x/Dh) and d23 =
-// (Dh/x)^(2/3); lnPr = ln Pr comes from the caller, and Pr^(1/3) is taken
-// only where the turbulent branch needs it. The formulas are those of
-// ParallelPlatesNu, GnielinskiNu and the blend of Channel, term for term
-// (TestChannelNuFast holds them to 1e-12); it checks no ranges, which the
-// march does once per path with ChannelNu.
-func channelNuFast(re, pr, lnPr, lxd, d23 float64) float64 {
-	stephan := func(lnRe float64) float64 {
-		lxs := lxd - lnRe - lnPr // ln x* = ln(L/Dh) - ln(Re Pr)
-		return 7.55 + 0.024*math.Exp(-1.14*lxs)/(1+0.0358*math.Exp(0.17*lnPr-0.64*lxs))
-	}
-	gn := func(re, f float64, sf8 float64) float64 {
-		f8 := f / 8
-		c := math.Cbrt(pr)
-		return f8 * (re - 1000) * pr / (1 + 12.7*sf8*(c*c-1)) * (1 + d23)
-	}
-	switch {
-	case re <= ReLaminar:
-		return stephan(math.Log(re))
-	case re >= ReTurbulent:
-		f := PetukhovFriction(re, nil)
-		return gn(re, f, math.Sqrt(f/8))
-	}
-	nl := stephan(lnReLam)
-	nt := gn(ReTurbulent, fTurb, sqrtF8Turb)
-	g := (re - ReLaminar) / (ReTurbulent - ReLaminar)
-	return (1-g)*nl + g*nt
-}
-
 // ParallelPlatesNu returns the mean Nusselt number Nu = h Dh / k (Dh = 2 s,
 // s the plate spacing) for simultaneously developing laminar flow between
 // isothermal parallel plates, by Stephan's correlation as quoted in Shah &

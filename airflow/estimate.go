@@ -179,6 +179,7 @@ type prepared struct {
 	scratch      validity.Log
 	segBuf       []Segment  // the march of the latest trial
 	pre          []segCache // position terms by path and segment count
+	exactFilm    bool       // film powers exact at every segment (tests)
 	hp, bp       Path
 	hm, bm       float64 // mass flow per path, kg/s
 	hvel, bvel   float64 // passage velocity at inlet density, m/s
@@ -371,8 +372,8 @@ type marchOut struct {
 }
 
 // segPre holds what the march needs at a segment end that depends only on
-// its position: x itself, ln(x/Dh) and (Dh/x)^(2/3).
-type segPre struct{ x, lxd, d23 float64 }
+// its position: x itself, (x/Dh)^-1.14, (x/Dh)^-0.64 and (Dh/x)^(2/3).
+type segPre struct{ x, e1, e2, d23 float64 }
 
 type segKey struct {
 	length, dh float64
@@ -398,7 +399,8 @@ func (p *prepared) segments(pt Path, n int) []segPre {
 		r := float64(i) / float64(n)
 		x := pt.Length * r * r
 		c := math.Cbrt(pt.Dh / x)
-		s[i] = segPre{x: x, lxd: math.Log(x / pt.Dh), d23: c * c}
+		lxd := math.Log(x / pt.Dh)
+		s[i] = segPre{x: x, e1: math.Exp(-1.14 * lxd), e2: math.Exp(-0.64 * lxd), d23: c * c}
 	}
 	p.pre = append(p.pre, segCache{k, s})
 	return s
@@ -437,6 +439,7 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tw
 	prevXNu := 0.0
 	xPrev := 0.0
 	rise := 0.0 // the previous segment's air temperature rise
+	fp := filmPowers{n: -1, exact: p.exactFilm}
 	for i := 1; i <= n; i++ {
 		// film properties at the mean of wall and local air temperature
 		// (Properties, without the pressure check done once in prepare)
@@ -466,7 +469,9 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tw
 				nu, regime = ChannelNu(re, pr, x/pt.Dh, p.log)
 				out.regime = regime
 			} else {
-				nu = channelNuFast(re, pr, math.Log(pr), pre[i].lxd, pre[i].d23)
+				fp.step(pr, mu, re)
+				sp := &pre[i]
+				nu = nuPowers(re, &fp, sp.e1, sp.e2, sp.d23)
 			}
 			xNuK := x * nu * kAir
 			h = (xNuK - prevXNu) / dx / pt.Dh
