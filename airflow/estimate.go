@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"sync"
 
 	"finmarch/airflow/roots"
 	"finmarch/fins"
@@ -385,6 +386,32 @@ type segCache struct {
 	s []segPre
 }
 
+// gradePow holds, for segment end i of n, r^2 with r = i/n (the graded
+// position x/L) and the powers (r^2)^-1.14, (r^2)^-0.64 and (r^2)^(-2/3).
+type gradePow struct{ r2, p114, p064, p43 float64 }
+
+// grades keeps the gradePow tables by segment count, shared by all
+// goroutines (read-mostly, so a sync.Map).
+var grades sync.Map
+
+func gradePowers(n int) []gradePow {
+	if g, ok := grades.Load(n); ok {
+		return g.([]gradePow)
+	}
+	g := make([]gradePow, n+1)
+	for i := 1; i <= n; i++ {
+		r := float64(i) / float64(n)
+		r2 := r * r
+		l := math.Log(r2)
+		c := math.Cbrt(r2)
+		g[i] = gradePow{r2: r2, p114: math.Exp(-1.14 * l), p064: math.Exp(-0.64 * l), p43: 1 / (c * c)}
+	}
+	if n <= 1000 { // the usual counts; a rare huge one is not kept
+		grades.Store(n, g)
+	}
+	return g
+}
+
 // segments returns the position terms of the n segment ends of a path,
 // computed once per path and segment count.
 func (p *prepared) segments(pt Path, n int) []segPre {
@@ -394,13 +421,18 @@ func (p *prepared) segments(pt Path, n int) []segPre {
 			return c.s
 		}
 	}
+	// x_i/Dh = (L/Dh) (i/N)^2, so each term is a power of L/Dh times a
+	// power of i/N that serves every path
+	g := gradePowers(n)
+	ld := pt.Length / pt.Dh
+	lld := math.Log(ld)
+	a1, a2 := math.Exp(-1.14*lld), math.Exp(-0.64*lld)
+	c := math.Cbrt(1 / ld)
+	a3 := c * c
 	s := make([]segPre, n+1)
 	for i := 1; i <= n; i++ {
-		r := float64(i) / float64(n)
-		x := pt.Length * r * r
-		c := math.Cbrt(pt.Dh / x)
-		lxd := math.Log(x / pt.Dh)
-		s[i] = segPre{x: x, e1: math.Exp(-1.14 * lxd), e2: math.Exp(-0.64 * lxd), d23: c * c}
+		q := &g[i]
+		s[i] = segPre{x: pt.Length * q.r2, e1: a1 * q.p114, e2: a2 * q.p064, d23: a3 * q.p43}
 	}
 	p.pre = append(p.pre, segCache{k, s})
 	return s
