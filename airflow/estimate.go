@@ -78,7 +78,8 @@ type Case struct {
 // CurveCache holds fin-efficiency curves by fin set, at most a few hundred
 // (it starts afresh when full, so its memory stays bounded).
 type CurveCache struct {
-	m map[fins.Set]*fins.Curve
+	m    map[fins.Set]*fins.Curve
+	segs map[segKey][]segPre // march position terms by path and segment count
 }
 
 // NewCurveCache returns an empty cache.
@@ -361,8 +362,18 @@ func (p *prepared) seriesFlow(dp float64) (float64, error) {
 // enthalpy returns the specific enthalpy of dry air (J/kg) relative to 0 K
 // from the integral of the Cengel cp cubic used by Properties.
 func enthalpy(T float64) float64 {
-	return 1000 * T * (28.11 + T*(0.1967e-2/2+T*(0.4802e-5/3-T*1.966e-9/4))) / MolarMassAir
+	return T * (h0 + T*(h1+T*(h2-T*h3)))
 }
+
+// The coefficients of enthalpy, the Cengel cubic's integrated and divided
+// by the molar mass once (J/kg per power of K).
+const (
+	hScale = 1000 / MolarMassAir
+	h0     = 28.11 * hScale
+	h1     = 0.1967e-2 / 2 * hScale
+	h2     = 0.4802e-5 / 3 * hScale
+	h3     = 1.966e-9 / 4 * hScale
+)
 
 type marchOut struct {
 	q, qMetal, tOut float64
@@ -421,6 +432,13 @@ func (p *prepared) segments(pt Path, n int) []segPre {
 			return c.s
 		}
 	}
+	cc := p.c.Curves
+	if cc != nil {
+		if s, ok := cc.segs[k]; ok {
+			p.pre = append(p.pre, segCache{k, s})
+			return s
+		}
+	}
 	// x_i/Dh = (L/Dh) (i/N)^2, so each term is a power of L/Dh times a
 	// power of i/N that serves every path
 	g := gradePowers(n)
@@ -435,6 +453,12 @@ func (p *prepared) segments(pt Path, n int) []segPre {
 		s[i] = segPre{x: pt.Length * q.r2, e1: a1 * q.p114, e2: a2 * q.p064, d23: a3 * q.p43}
 	}
 	p.pre = append(p.pre, segCache{k, s})
+	if cc != nil {
+		if cc.segs == nil || len(cc.segs) >= curveCacheSize {
+			cc.segs = map[segKey][]segPre{}
+		}
+		cc.segs[k] = s
+	}
 	return s
 }
 

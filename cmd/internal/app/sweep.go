@@ -187,29 +187,42 @@ diameter vary and the count does not, each set gets as many fins as fit (use
 // runGrid evaluates every grid point on workers goroutines and hands each
 // row to sink on the calling goroutine, as the rows finish.
 func runGrid(d *design.Design, axes []axis, total, workers int, fit bool, sink func(sweepRow)) {
-	jobs := make(chan int, 4*workers)
-	rows := make(chan sweepRow, 4*workers)
+	// points go to the workers in chunks and come back in batches, so the
+	// channels carry one message per chunk rather than one per point; a
+	// chunk is small enough that every worker gets many
+	chunk := min(max(total/(64*workers), 1), 32)
+	type span struct{ lo, hi int }
+	jobs := make(chan span, 4*workers)
+	rows := make(chan []sweepRow, 4*workers)
 	var wg sync.WaitGroup
 	for w := 0; w < workers; w++ {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
 			cache := airflow.NewCurveCache()
-			for i := range jobs {
-				rows <- evalPoint(d, axes, i, make(map[string]float64, len(axes)+2), fit, cache)
+			vals := make(map[string]float64, len(axes)+2)
+			for sp := range jobs {
+				batch := make([]sweepRow, 0, sp.hi-sp.lo)
+				for i := sp.lo; i < sp.hi; i++ {
+					clear(vals)
+					batch = append(batch, evalPoint(d, axes, i, vals, fit, cache))
+				}
+				rows <- batch
 			}
 		}()
 	}
 	go func() {
-		for i := 0; i < total; i++ {
-			jobs <- i
+		for lo := 0; lo < total; lo += chunk {
+			jobs <- span{lo, min(lo+chunk, total)}
 		}
 		close(jobs)
 		wg.Wait()
 		close(rows)
 	}()
-	for r := range rows {
-		sink(r)
+	for b := range rows {
+		for _, r := range b {
+			sink(r)
+		}
 	}
 }
 
