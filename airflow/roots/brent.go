@@ -114,7 +114,8 @@ func Secant(f func(float64) float64, x0, x1, lo, hi, tol float64, maxIter int) (
 	// form the bracket [a, b]; later points inside it replace the end of
 	// the same sign
 	type pt struct{ x, f float64 }
-	var seen []pt
+	var seenBuf [8]pt
+	seen := seenBuf[:0]
 	haveBr := false
 	var a, b pt
 	note := func(x, fx float64) {

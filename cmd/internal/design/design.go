@@ -9,6 +9,8 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"sync"
+	"sync/atomic"
 
 	"github.com/BurntSushi/toml"
 
@@ -404,12 +406,9 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 		d.Name = strings.TrimSuffix(baseName(name), ".toml")
 		d.Defaults = append(d.Defaults, "name: taken from the file name")
 	}
-	def := func(key, what string) { d.Defaults = append(d.Defaults, key+": "+what) }
-	checks := []rangeCheck{}
-	type quantity interface {
-		Or(float64) float64
-		IsBare() bool
-	}
+	def := func(key, what string) { d.Defaults = append(d.Defaults, defaultText(key, what)) }
+	checks := make([]rangeCheck, 0, 48)
+	type quantity = rawQ
 	need := func(key string, q quantity, set bool, lo, hi float64, unit string, scale, offset float64) float64 {
 		checks = append(checks, rangeCheck{key: key, v: q.Or(math.NaN()), lo: lo, hi: hi, unit: unit, scale: scale, offset: offset, set: set, bare: q.IsBare()})
 		return q.Or(math.NaN())
@@ -425,11 +424,11 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 	const mm, C = 1e-3, 273.15
 
 	c := &d.Case
-	c.Tilt = opt("cylinder.tilt", f.Cylinder.Tilt, f.Cylinder.Tilt.Set, 0, 0, math.Pi/2+1e-12, "deg", math.Pi/180, 0, "0 deg (upright)")
-	hd := need("cylinder.head_diameter", f.Cylinder.HeadDiameter, f.Cylinder.HeadDiameter.Set, 20*mm, 400*mm, "mm", mm, 0)
-	hl := need("cylinder.head_length", f.Cylinder.HeadLength, f.Cylinder.HeadLength.Set, 5*mm, 500*mm, "mm", mm, 0)
-	bd := need("cylinder.barrel_diameter", f.Cylinder.BarrelDiameter, f.Cylinder.BarrelDiameter.Set, 20*mm, 400*mm, "mm", mm, 0)
-	bl := need("cylinder.barrel_length", f.Cylinder.BarrelLength, f.Cylinder.BarrelLength.Set, 5*mm, 500*mm, "mm", mm, 0)
+	c.Tilt = opt("cylinder.tilt", f.Cylinder.Tilt.raw(), f.Cylinder.Tilt.Set, 0, 0, math.Pi/2+1e-12, "deg", math.Pi/180, 0, "0 deg (upright)")
+	hd := need("cylinder.head_diameter", f.Cylinder.HeadDiameter.raw(), f.Cylinder.HeadDiameter.Set, 20*mm, 400*mm, "mm", mm, 0)
+	hl := need("cylinder.head_length", f.Cylinder.HeadLength.raw(), f.Cylinder.HeadLength.Set, 5*mm, 500*mm, "mm", mm, 0)
+	bd := need("cylinder.barrel_diameter", f.Cylinder.BarrelDiameter.raw(), f.Cylinder.BarrelDiameter.Set, 20*mm, 400*mm, "mm", mm, 0)
+	bl := need("cylinder.barrel_length", f.Cylinder.BarrelLength.raw(), f.Cylinder.BarrelLength.Set, 5*mm, 500*mm, "mm", mm, 0)
 
 	alloyOf := func(key, n string) (materials.Alloy, bool) {
 		if strings.TrimSpace(n) == "" {
@@ -474,6 +473,7 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 	}
 
 	finSet := func(tbl string, t FinSetT, dia, length float64) airflow.FinSet {
+		key := func(field string) string { return setKey(tbl, field) }
 		fs := airflow.FinSet{Name: tbl}
 		if !md.IsDefined(tbl) {
 			add(tbl, "missing table [%s]: the %s fin set (style, count, pitch, height, root_thickness, alloy)", tbl, tbl)
@@ -486,38 +486,38 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 		case "longitudinal", "axial":
 			s.Style = fins.StyleLongitudinal
 		case "":
-			add(tbl+".style", `missing: "annular" (rings around the cylinder) or "longitudinal" (plates along the axis)`)
+			add(key("style"), `missing: "annular" (rings around the cylinder) or "longitudinal" (plates along the axis)`)
 		default:
-			add(tbl+".style", `%q is not a fin style; use "annular" or "longitudinal"`, t.Style)
+			add(key("style"), `%q is not a fin style; use "annular" or "longitudinal"`, t.Style)
 		}
 		if !md.IsDefined(tbl, "count") {
-			add(tbl+".count", "missing: the number of fins (a whole number)")
+			add(key("count"), "missing: the number of fins (a whole number)")
 		} else if t.Count < 1 || t.Count > 400 {
-			add(tbl+".count", "%d fins; allowed 1 to 400", t.Count)
+			add(key("count"), "%d fins; allowed 1 to 400", t.Count)
 		}
 		s.Count = t.Count
-		s.Pitch = need(tbl+".pitch", t.Pitch, t.Pitch.Set, 1*mm, 60*mm, "mm", mm, 0)
-		s.Height = need(tbl+".height", t.Height, t.Height.Set, 2*mm, 150*mm, "mm", mm, 0)
-		s.RootThickness = need(tbl+".root_thickness", t.RootThickness, t.RootThickness.Set, 0.3*mm, 25*mm, "mm", mm, 0)
-		s.TipThickness = opt(tbl+".tip_thickness", t.TipThickness, t.TipThickness.Set, s.RootThickness, 0, 25*mm, "mm", mm, 0, "equal to root_thickness (no taper)")
+		s.Pitch = need(key("pitch"), t.Pitch.raw(), t.Pitch.Set, 1*mm, 60*mm, "mm", mm, 0)
+		s.Height = need(key("height"), t.Height.raw(), t.Height.Set, 2*mm, 150*mm, "mm", mm, 0)
+		s.RootThickness = need(key("root_thickness"), t.RootThickness.raw(), t.RootThickness.Set, 0.3*mm, 25*mm, "mm", mm, 0)
+		s.TipThickness = opt(key("tip_thickness"), t.TipThickness.raw(), t.TipThickness.Set, s.RootThickness, 0, 25*mm, "mm", mm, 0, "equal to root_thickness (no taper)")
 		s.RootDiameter, s.Length = dia, length
-		if a, ok := alloyOf(tbl+".alloy", t.Alloy); ok {
+		if a, ok := alloyOf(key("alloy"), t.Alloy); ok {
 			fs.Alloy = a
 		}
 		fin := materials.AsCast
 		switch strings.ToLower(strings.TrimSpace(t.Finish)) {
 		case "", "as-cast", "ascast", "bare":
 			if t.Finish == "" && !t.Emissivity.Set {
-				def(tbl+".finish", "as-cast")
+				def(key("finish"), "as-cast")
 			}
 		case "painted", "black", "painted-black":
 			fin = materials.Painted
 		default:
-			add(tbl+".finish", `%q is not a finish; use "as-cast" or "painted" (or give emissivity)`, t.Finish)
+			add(key("finish"), `%q is not a finish; use "as-cast" or "painted" (or give emissivity)`, t.Finish)
 		}
 		fs.Emissivity = fs.Alloy.Emissivity(fin)
 		if t.Emissivity.Set {
-			fs.Emissivity = opt(tbl+".emissivity", t.Emissivity, true, 0, 0.01, 1, "", 1, 0, "")
+			fs.Emissivity = opt(key("emissivity"), t.Emissivity.raw(), true, 0, 0.01, 1, "", 1, 0, "")
 		}
 		return fs
 	}
@@ -525,17 +525,17 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 	c.Barrel = finSet("barrel", f.Barrel, bd, bl)
 
 	// air
-	c.Speed = need("air.speed", f.Air.Speed, f.Air.Speed.Set, 0, 400/3.6, "km/h", 1/3.6, 0)
-	c.Recovery = opt("air.pressure_recovery", f.Air.PressureRecovery, f.Air.PressureRecovery.Set, airflow.DefaultRecovery, 0.05, 1, "", 1, 0,
+	c.Speed = need("air.speed", f.Air.Speed.raw(), f.Air.Speed.Set, 0, 400/3.6, "km/h", 1/3.6, 0)
+	c.Recovery = opt("air.pressure_recovery", f.Air.PressureRecovery.raw(), f.Air.PressureRecovery.Set, airflow.DefaultRecovery, 0.05, 1, "", 1, 0,
 		"0.5 (common practice for an uncowled cylinder; calibrate against a measured head temperature)")
-	c.Ambient = need("air.ambient", f.Air.Ambient, f.Air.Ambient.Set, -50+C, 60+C, "C", 1, C)
+	c.Ambient = need("air.ambient", f.Air.Ambient.raw(), f.Air.Ambient.Set, -50+C, 60+C, "C", 1, C)
 	if f.Air.Pressure.Set && f.Air.Altitude.Set {
 		add("air.pressure", "give altitude or pressure, not both")
 	}
 	if f.Air.Pressure.Set {
-		c.Pressure = opt("air.pressure", f.Air.Pressure, true, 0, 30e3, 110e3, "kPa", 1e3, 0, "")
+		c.Pressure = opt("air.pressure", f.Air.Pressure.raw(), true, 0, 30e3, 110e3, "kPa", 1e3, 0, "")
 	} else {
-		d.Altitude = opt("air.altitude", f.Air.Altitude, f.Air.Altitude.Set, 0, -500, 6000, "m", 1, 0, "0 m (sea level, ISA pressure)")
+		d.Altitude = opt("air.altitude", f.Air.Altitude.raw(), f.Air.Altitude.Set, 0, -500, 6000, "m", 1, 0, "0 m (sea level, ISA pressure)")
 		c.Pressure = airflow.ISA(d.Altitude, nil).P
 	}
 	if f.Segments != 0 || md.IsDefined("segments") {
@@ -553,8 +553,8 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 		add("load", "missing table [load]: give head_heat and barrel_heat, or the road load (mass, cda)")
 	} else if l.HeadHeat.Set || l.BarrelHeat.Set {
 		d.Load.Direct = true
-		d.Load.Head = need("load.head_heat", l.HeadHeat, l.HeadHeat.Set, 0, 50e3, "kW", 1e3, 0)
-		d.Load.Barrel = need("load.barrel_heat", l.BarrelHeat, l.BarrelHeat.Set, 0, 50e3, "kW", 1e3, 0)
+		d.Load.Head = need("load.head_heat", l.HeadHeat.raw(), l.HeadHeat.Set, 0, 50e3, "kW", 1e3, 0)
+		d.Load.Barrel = need("load.barrel_heat", l.BarrelHeat.raw(), l.BarrelHeat.Set, 0, 50e3, "kW", 1e3, 0)
 		for _, k := range []struct {
 			k   string
 			set bool
@@ -565,19 +565,19 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 		}
 	} else {
 		r := &d.Load.Road
-		r.Mass = need("load.mass", l.Mass, l.Mass.Set, 30, 5000, "kg", 1, 0)
-		r.CdA = need("load.cda", l.CdA, l.CdA.Set, 0.05, 5, "m2", 1, 0)
-		r.Crr = opt("load.rolling_resistance", l.RollingResistance, l.RollingResistance.Set, airflow.DefaultCrr, 0.002, 0.1, "", 1, 0, "0.02 (common practice, road tyre on asphalt)")
-		r.Driveline = opt("load.driveline_efficiency", l.DrivelineEfficiency, l.DrivelineEfficiency.Set, airflow.DefaultDriveline, 0.5, 1, "", 1, 0, "0.90 (common practice, chain or belt drive)")
-		r.Thermal = opt("load.thermal_efficiency", l.ThermalEfficiency, l.ThermalEfficiency.Set, airflow.DefaultThermal, 0.1, 0.45, "", 1, 0, "0.25 (Heywood 1988, part-load SI; from memory)")
-		r.CoolShare = opt("load.cooling_share", l.CoolingShare, l.CoolingShare.Set, airflow.DefaultCoolShare, 0.05, 0.6, "", 1, 0, "0.22 (Heywood 1988 Table 12.1; from memory)")
-		r.HeadShare = opt("load.head_share", l.HeadShare, l.HeadShare.Set, airflow.DefaultHeadShare, 0, 1, "", 1, 0, "0.65 (common practice)")
-		r.GradePct = opt("load.grade", l.Grade, l.Grade.Set, 0, -20, 20, "%", 1, 0, "0 % (level road)")
+		r.Mass = need("load.mass", l.Mass.raw(), l.Mass.Set, 30, 5000, "kg", 1, 0)
+		r.CdA = need("load.cda", l.CdA.raw(), l.CdA.Set, 0.05, 5, "m2", 1, 0)
+		r.Crr = opt("load.rolling_resistance", l.RollingResistance.raw(), l.RollingResistance.Set, airflow.DefaultCrr, 0.002, 0.1, "", 1, 0, "0.02 (common practice, road tyre on asphalt)")
+		r.Driveline = opt("load.driveline_efficiency", l.DrivelineEfficiency.raw(), l.DrivelineEfficiency.Set, airflow.DefaultDriveline, 0.5, 1, "", 1, 0, "0.90 (common practice, chain or belt drive)")
+		r.Thermal = opt("load.thermal_efficiency", l.ThermalEfficiency.raw(), l.ThermalEfficiency.Set, airflow.DefaultThermal, 0.1, 0.45, "", 1, 0, "0.25 (Heywood 1988, part-load SI; from memory)")
+		r.CoolShare = opt("load.cooling_share", l.CoolingShare.raw(), l.CoolingShare.Set, airflow.DefaultCoolShare, 0.05, 0.6, "", 1, 0, "0.22 (Heywood 1988 Table 12.1; from memory)")
+		r.HeadShare = opt("load.head_share", l.HeadShare.raw(), l.HeadShare.Set, airflow.DefaultHeadShare, 0, 1, "", 1, 0, "0.65 (common practice)")
+		r.GradePct = opt("load.grade", l.Grade.raw(), l.Grade.Set, 0, -20, 20, "%", 1, 0, "0 % (level road)")
 		if l.IdleHeat.Set {
 			d.Load.IdleSet = true
-			d.Load.Idle = opt("load.idle_heat", l.IdleHeat, true, 0, 0, 20e3, "kW", 1e3, 0, "")
+			d.Load.Idle = opt("load.idle_heat", l.IdleHeat.raw(), true, 0, 0, 20e3, "kW", 1e3, 0, "")
 		}
-		r.ExtraPowerW = opt("load.extra_power", l.ExtraPower, l.ExtraPower.Set, 0, 0, 100e3, "kW", 1e3, 0, "0 W")
+		r.ExtraPowerW = opt("load.extra_power", l.ExtraPower.raw(), l.ExtraPower.Set, 0, 0, 100e3, "kW", 1e3, 0, "0 W")
 		r.Cylinders = 1
 		if md.IsDefined("load", "cylinders") {
 			if l.Cylinders < 1 || l.Cylinders > 16 {
@@ -590,17 +590,22 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 	}
 
 	// limits and overrides
-	d.HeadLimit = opt("limits.head", f.Limits.Head, f.Limits.Head.Set, c.Head.Alloy.MaxService, 60+C, 450+C, "C", 1, C,
-		fmt.Sprintf("the head alloy's maximum service temperature, %.0f C (%s)", c.Head.Alloy.MaxService-C, c.Head.Alloy.LimitSource))
-	d.BarrelLimit = opt("limits.barrel", f.Limits.Barrel, f.Limits.Barrel.Set, c.Barrel.Alloy.MaxService, 60+C, 450+C, "C", 1, C,
-		fmt.Sprintf("the barrel alloy's maximum service temperature, %.0f C", c.Barrel.Alloy.MaxService-C))
+	var headWhy, barrelWhy string // built only when the default applies
+	if !f.Limits.Head.Set {
+		headWhy = fmt.Sprintf("the head alloy's maximum service temperature, %.0f C (%s)", c.Head.Alloy.MaxService-C, c.Head.Alloy.LimitSource)
+	}
+	if !f.Limits.Barrel.Set {
+		barrelWhy = fmt.Sprintf("the barrel alloy's maximum service temperature, %.0f C", c.Barrel.Alloy.MaxService-C)
+	}
+	d.HeadLimit = opt("limits.head", f.Limits.Head.raw(), f.Limits.Head.Set, c.Head.Alloy.MaxService, 60+C, 450+C, "C", 1, C, headWhy)
+	d.BarrelLimit = opt("limits.barrel", f.Limits.Barrel.raw(), f.Limits.Barrel.Set, c.Barrel.Alloy.MaxService, 60+C, 450+C, "C", 1, C, barrelWhy)
 	if f.Override.H.Set {
-		c.FixedH = opt("override.h", f.Override.H, true, 0, 1, 2000, "W/m2K", 1, 0, "")
+		c.FixedH = opt("override.h", f.Override.H.raw(), true, 0, 1, 2000, "W/m2K", 1, 0, "")
 	}
 	if f.Override.HeadWall.Set || f.Override.BarrelWall.Set {
 		d.WallFixed = true
-		d.HeadWall = need("override.head_wall", f.Override.HeadWall, f.Override.HeadWall.Set, 0+C, 500+C, "C", 1, C)
-		d.BarrelWall = need("override.barrel_wall", f.Override.BarrelWall, f.Override.BarrelWall.Set, 0+C, 500+C, "C", 1, C)
+		d.HeadWall = need("override.head_wall", f.Override.HeadWall.raw(), f.Override.HeadWall.Set, 0+C, 500+C, "C", 1, C)
+		d.BarrelWall = need("override.barrel_wall", f.Override.BarrelWall.raw(), f.Override.BarrelWall.Set, 0+C, 500+C, "C", 1, C)
 	}
 
 	for _, r := range checks {
@@ -622,7 +627,7 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 	}{{"head", c.Head}, {"barrel", c.Barrel}} {
 		set := s.fs.Set
 		if set.Height > 0 && set.RootDiameter > 0 && set.Height > set.RootDiameter {
-			add(s.tbl+".height", "%.4g mm fins on a %.4g mm root diameter are taller than the cylinder is wide; fins of this kind stay below the root diameter (common practice)", set.Height/mm, set.RootDiameter/mm)
+			add(setKey(s.tbl, "height"), "%.4g mm fins on a %.4g mm root diameter are taller than the cylinder is wide; fins of this kind stay below the root diameter (common practice)", set.Height/mm, set.RootDiameter/mm)
 		}
 		if set.Count >= 1 && set.Pitch > 0 && set.Height > 0 && set.RootThickness > 0 && set.RootDiameter > 0 && set.Length > 0 && set.TipThickness >= 0 {
 			if _, err := set.Geometry(); err != nil {
@@ -680,3 +685,41 @@ func baseName(p string) string {
 	}
 	return p
 }
+
+// setKey returns tbl + "." + field, from a table for the two fin sets so
+// that building a design variant does not allocate its key names.
+func setKey(tbl, field string) string {
+	if k, ok := setKeys[[2]string{tbl, field}]; ok {
+		return k
+	}
+	return tbl + "." + field
+}
+
+var setKeys = func() map[[2]string]string {
+	m := map[[2]string]string{}
+	for _, t := range []string{"head", "barrel"} {
+		for _, f := range []string{"style", "count", "pitch", "height", "root_thickness", "tip_thickness", "alloy", "finish", "emissivity"} {
+			m[[2]string{t, f}] = t + "." + f
+		}
+	}
+	return m
+}()
+
+// defaultText returns "key: what" for the list of defaults applied, kept
+// once per pair (nearly all are fixed texts; at most 1024 are kept).
+func defaultText(key, what string) string {
+	k := [2]string{key, what}
+	if s, ok := defaultTexts.Load(k); ok {
+		return s.(string)
+	}
+	s := key + ": " + what
+	if defaultCount.Add(1) <= 1024 {
+		defaultTexts.Store(k, s)
+	}
+	return s
+}
+
+var (
+	defaultTexts sync.Map
+	defaultCount atomic.Int64
+)

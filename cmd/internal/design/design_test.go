@@ -352,3 +352,19 @@ func TestWith(t *testing.T) {
 		}
 	}
 }
+
+// One variant of a design: what a sweep or the optimiser pays per point
+// before the estimate.
+func BenchmarkWith(b *testing.B) {
+	d, err := Parse(demo.Upright, "u.toml")
+	if err != nil {
+		b.Fatal(err)
+	}
+	vals := map[string]float64{"head.pitch": 0.0095, "air.speed": 25}
+	b.ReportAllocs()
+	for i := 0; i < b.N; i++ {
+		if _, err := d.With(vals); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

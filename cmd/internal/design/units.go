@@ -214,6 +214,26 @@ func (q *Q[D]) UnmarshalTOML(v any) error {
 	return nil
 }
 
+// rawQ is a Q without its dimension, for code that treats every quantity
+// alike (a plain struct, so passing it allocates nothing).
+type rawQ struct {
+	SI        float64
+	Set, Bare bool
+}
+
+func (q Q[D]) raw() rawQ { return rawQ{q.SI, q.Set, q.Bare} }
+
+// IsBare reports a value written without a unit.
+func (q rawQ) IsBare() bool { return q.Bare }
+
+// Or returns the value, or def when the key was absent.
+func (q rawQ) Or(def float64) float64 {
+	if q.Set {
+		return q.SI
+	}
+	return def
+}
+
 // IsBare reports a value written without a unit.
 func (q Q[D]) IsBare() bool { return q.Bare }
 
