@@ -359,14 +359,21 @@ func (p *prepared) seriesFlow(dp float64) (float64, error) {
 	return w, nil
 }
 
-// enthalpy returns the specific enthalpy of dry air (J/kg) relative to 0 K
-// from the integral of the Cengel cp cubic used by Properties.
-func enthalpy(T float64) float64 {
-	return T * (h0 + T*(h1+T*(h2-T*h3)))
+// meanCp returns the mean of the Cengel cp cubic over [t1, t2] (K), J/(kg
+// K): (H(t2) - H(t1))/(t2 - t1) in closed form, exact for t1 = t2 and free
+// of the cancellation of the difference quotient. With cp = (a + bT + cT^2
+// + dT^3)/M it is
+//
+//	(a + b (t1+t2)/2 + c (t1^2+t1 t2+t2^2)/3 + d (t1+t2)(t1^2+t2^2)/4)/M.
+func meanCp(t1, t2 float64) float64 {
+	s, p := t1+t2, t1*t2
+	q := s*s - p // t1^2 + t1 t2 + t2^2
+	return h0 + h1*s + h2*q - h3*s*(q-p)
 }
 
-// The coefficients of enthalpy, the Cengel cubic's integrated and divided
-// by the molar mass once (J/kg per power of K).
+// The coefficients of the enthalpy H(T) = T (h0 + T (h1 + T (h2 - T h3)))
+// of dry air relative to 0 K, the Cengel cp cubic integrated and divided by
+// the molar mass once (J/kg per power of K).
 const (
 	hScale = 1000 / MolarMassAir
 	h0     = 28.11 * hScale
@@ -491,7 +498,6 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tw
 	pre := p.segments(pt, n)
 	reC := mdot / pt.FlowArea * pt.Dh // Re = reC / mu
 	t := tin
-	hIn := enthalpy(t)
 	prevXNu := 0.0
 	xPrev := 0.0
 	rise := 0.0 // the previous segment's air temperature rise
@@ -540,32 +546,27 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tw
 		// passes from the previous segment's rise; each pass rescales
 		// exp(-NTU) by exp(NTU_old - NTU_new), a small argument summed by
 		// its series, so one exponential serves the segment
-		cp := cpF
-		if rise > 1e-9 {
-			cp = (enthalpy(t+rise) - hIn) / rise
-		}
+		cp := meanCp(t, t+rise)
 		ntu := ua / (mdot * cp)
 		e := math.Exp(-ntu)
 		tOut := tw - (tw-t)*e
-		hOut := enthalpy(tOut)
-		for it := 0; it < 8 && math.Abs(tOut-t) > 1e-9; it++ {
-			next := (hOut - hIn) / (tOut - t)
+		for it := 0; it < 8; it++ {
+			next := meanCp(t, tOut)
 			if math.Abs(next-cp) <= 1e-11*cp {
 				break
 			}
 			nn := ua / (mdot * next)
 			d := ntu - nn
 			if math.Abs(d) < 1e-3 {
-				e *= 1 + d*(1+d/2*(1+d/3*(1+d/4)))
+				e *= 1 + d*(1+d*0.5*(1+d*(1.0/3)*(1+d*0.25)))
 			} else {
 				e = math.Exp(-nn)
 			}
 			cp, ntu = next, nn
 			tOut = tw - (tw-t)*e
-			hOut = enthalpy(tOut)
 		}
 		rise = tOut - t
-		qAir := mdot * (hOut - hIn)
+		qAir := mdot * cp * rise // = mdot (H(tOut) - H(t))
 		// metal side: UA times the exact mean driving difference of the
 		// segment, (1 - exp(-NTU))/NTU, with 1 - e direct where it keeps
 		// its digits
@@ -588,7 +589,7 @@ func (p *prepared) march(fs FinSet, g fins.Geometry, cv *fins.Curve, pt Path, tw
 			out.seg = append(out.seg, Segment{X: x, AirIn: t, AirOut: tOut, H: h, FinEff: etaF,
 				Flux: qAir / aSeg, Heat: qAir * paths, Reynolds: re})
 		}
-		t, hIn = tOut, hOut
+		t = tOut
 	}
 	if p.c.FixedH > 0 {
 		out.regime = "fixed h"

@@ -385,3 +385,26 @@ func TestFilmPowers(t *testing.T) {
 		}
 	}
 }
+
+// enthalpy is H(T) of the coefficients h0..h3, J/kg.
+func enthalpy(T float64) float64 {
+	return T * (h0 + T*(h1+T*(h2-T*h3)))
+}
+
+// The closed-form mean cp is the difference quotient of the enthalpy (the
+// integral of the Cengel cubic) and, at one temperature, the cubic itself
+// as Properties gives it.
+func TestMeanCp(t *testing.T) {
+	for _, t1 := range []float64{250, 300, 420, 700} {
+		if got, want := meanCp(t1, t1), Properties(t1, 1e5, nil).Cp; rel(got, want) > 1e-14 {
+			t.Errorf("cp at %g K: %.15g, Properties %.15g", t1, got, want)
+		}
+		for _, dt := range []float64{0.5, 5, 40} {
+			t2 := t1 + dt
+			want := (enthalpy(t2) - enthalpy(t1)) / dt
+			if got := meanCp(t1, t2); rel(got, want) > 1e-11 {
+				t.Errorf("mean cp %g-%g K: %.15g, quotient %.15g", t1, t2, got, want)
+			}
+		}
+	}
+}

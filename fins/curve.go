@@ -103,13 +103,19 @@ func (c *Curve) Efficiency(h, k float64, log *validity.Log) float64 {
 	checkBiot(log, "fin set", h, k, c.s.RootThickness)
 	x := h / k
 	u := (math.Log(x) - curveLogX0) * curveInvLogR
-	i := int(math.Floor(u))
-	if i < 1 || i+2 >= curveNodes || math.IsNaN(u) {
+	if !(u >= 1 && u < curveNodes-3) { // also NaN
 		return c.efficiency(x)
 	}
+	i := int(u) // u >= 1, so truncation is the floor
 	t := u - float64(i)
-	y0, y1, y2, y3 := c.node(i-1), c.node(i), c.node(i+1), c.node(i+2)
+	v := c.vals[i-1 : i+3 : i+3]
+	y0, y1, y2, y3 := v[0], v[1], v[2], v[3]
+	if y0 != y0 || y1 != y1 || y2 != y2 || y3 != y3 { // a node not yet computed
+		y0, y1, y2, y3 = c.node(i-1), c.node(i), c.node(i+1), c.node(i+2)
+	}
 	// cubic Lagrange through nodes at -1, 0, 1, 2
-	r := y0*(-t*(t-1)*(t-2)/6) + y1*((t+1)*(t-1)*(t-2)/2) + y2*(-(t+1)*t*(t-2)/2) + y3*((t+1)*t*(t-1)/6)
+	const sixth = 1.0 / 6
+	tp, tm, tm2 := t+1, t-1, t-2
+	r := sixth*(tp*t*tm*y3-t*tm*tm2*y0) + 0.5*tp*tm2*(tm*y1-t*y2)
 	return r * c.ref(x)
 }
