@@ -682,6 +682,36 @@ func (c Case) AtWall(headT, barrelT float64) (Result, error) {
 	return p.result(hr, br, &log, true), nil
 }
 
+// parabolaRoot solves P(T) = target for the parabola P through the n (3)
+// points (x[j], y[j]) by Newton's method from t, and reports whether it
+// found a root within the points' span widened by 5 K on which P rises.
+// The points come from a secant search near the root, so they are close
+// together and P is the march's heat curve to its third-order term.
+func parabolaRoot(x, y [3]float64, n int, target, t float64) (float64, bool) {
+	if n < 3 || x[0] == x[1] || x[1] == x[2] || x[0] == x[2] {
+		return t, false
+	}
+	// Newton's divided differences: P = y0 + d1 (T - x0) + d2 (T - x0)(T - x1)
+	d01 := (y[1] - y[0]) / (x[1] - x[0])
+	d12 := (y[2] - y[1]) / (x[2] - x[1])
+	d2 := (d12 - d01) / (x[2] - x[0])
+	lo := math.Min(x[0], math.Min(x[1], x[2])) - 5
+	hi := math.Max(x[0], math.Max(x[1], x[2])) + 5
+	for it := 0; it < 20; it++ {
+		p := y[0] + (t-x[0])*(d01+d2*(t-x[1])) - target
+		dp := d01 + d2*(2*t-x[0]-x[1])
+		if !(dp > 0) || !(t >= lo && t <= hi) {
+			return t, false
+		}
+		step := p / dp
+		t -= step
+		if math.Abs(step) < 1e-9 {
+			return t, t >= lo && t <= hi
+		}
+	}
+	return t, false
+}
+
 func (p *prepared) result(hr, br SetResult, log *validity.Log, conv bool) Result {
 	hr.PassageVelocity, br.PassageVelocity = p.hvel, p.bvel
 	r := Result{Head: hr, Barrel: br, Ambient: p.c.Ambient, Pressure: p.c.Pressure, Speed: p.c.Speed,
@@ -768,22 +798,24 @@ func (c Case) Balance(load HeatLoad) (Result, error) {
 		full := p.n
 		if nc := full / 5; nc >= 8 && mdot > 0 {
 			p.n = nc
-			// the last two distinct coarse points give the slope for the
-			// corrected solve; cx, cf also serve the secant's re-asks
-			cx, cq, px, pq := math.NaN(), 0.0, math.NaN(), 0.0
+			// the last three distinct coarse points, newest first, serve the
+			// secant's re-asks and then the corrected solve
+			var hx, hq [3]float64
+			nh := 0
 			coarseHeat := func(tw float64) float64 {
-				switch tw {
-				case cx:
-					return cq
-				case px:
-					return pq
+				for j := 0; j < nh; j++ {
+					if hx[j] == tw {
+						return hq[j]
+					}
 				}
 				p.log = nil
 				r, _ := p.setHeat(fs, g, cv, pt, tw, tin, mdot, false)
 				p.log = keep
-				px, pq = cx, cq
-				cx, cq = tw, r.HeatRejected
-				return cq
+				copy(hx[1:], hx[:2])
+				copy(hq[1:], hq[:2])
+				hx[0], hq[0] = tw, r.HeatRejected
+				nh = min(nh+1, 3)
+				return hq[0]
 			}
 			coarse := func(tw float64) float64 {
 				r := coarseHeat(tw) - q
@@ -806,26 +838,25 @@ func (c Case) Balance(load HeatLoad) (Result, error) {
 			}
 			if ok {
 				rho := (ff + q) / qc
-				// rho Q_c(T_w) = q by the secant from the coarse root and
-				// its neighbour, to a tenth of the stopping tolerance
-				p.n = nc
-				corr := func(tw float64) float64 {
-					r := rho*coarseHeat(tw) - q
-					if math.Abs(r) <= 0.1*balanceTol*q {
-						return 0
-					}
-					return r
-				}
-				var ta float64
-				if !math.IsNaN(px) && px != tc && math.Abs(px-tc) < 20 {
-					ta = px
-				} else {
-					ta = tc + math.Copysign(0.5, SaneWallLimit-1-tc)
-				}
 				t0 = tc
-				t1, err = roots.Secant(corr, tc, ta, lo, SaneWallLimit, 1e-6, 100)
-				p.n = full
-				if err != nil || t1 == t0 {
+				// rho Q_c(T_w) = q on the parabola through the last three
+				// coarse points (which the secant left within a few kelvin
+				// of tc), by Newton's method on the parabola: no further
+				// march; failing that, the secant on the coarse march
+				var solved bool
+				if t1, solved = parabolaRoot(hx, hq, nh, q/rho, tc); !solved {
+					p.n = nc
+					corr := func(tw float64) float64 {
+						r := rho*coarseHeat(tw) - q
+						if math.Abs(r) <= 0.1*balanceTol*q {
+							return 0
+						}
+						return r
+					}
+					t1, err = roots.Secant(corr, tc, tc+math.Copysign(0.5, SaneWallLimit-1-tc), lo, SaneWallLimit, 1e-6, 100)
+					p.n = full
+				}
+				if err != nil || !(t1 > lo && t1 < SaneWallLimit) || t1 == t0 {
 					t1 = t0 + 1e-4
 				}
 			} else if err == nil {

@@ -408,3 +408,26 @@ func TestMeanCp(t *testing.T) {
 		}
 	}
 }
+
+// parabolaRoot on an exact parabola (closed form): P(T) = 2 + 3 (T - 1) +
+// 0.5 (T - 1)^2 through T = 1, 2, 4 takes the value 10 at
+// T = 1 - 3 + sqrt(9 + 16) = 3.
+func TestParabolaRoot(t *testing.T) {
+	p := func(x float64) float64 { return 2 + 3*(x-1) + 0.5*(x-1)*(x-1) }
+	xs := [3]float64{4, 2, 1}
+	ys := [3]float64{p(4), p(2), p(1)}
+	got, ok := parabolaRoot(xs, ys, 3, 10, 2)
+	if !ok || math.Abs(got-3) > 1e-12 {
+		t.Errorf("root %.15g (ok %v), want 3", got, ok)
+	}
+	// too few points, a repeated point, or a root far outside the span
+	if _, ok := parabolaRoot(xs, ys, 2, 10, 2); ok {
+		t.Error("two points accepted")
+	}
+	if _, ok := parabolaRoot([3]float64{1, 1, 2}, ys, 3, 10, 2); ok {
+		t.Error("repeated point accepted")
+	}
+	if _, ok := parabolaRoot(xs, ys, 3, 1e6, 2); ok {
+		t.Error("root far outside the points accepted")
+	}
+}
