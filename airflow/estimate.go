@@ -68,6 +68,9 @@ type Case struct {
 	FixedH    float64 // W/(m2 K), a measured forced-convection coefficient; 0 uses the correlations
 	EntryLoss float64 // passage entry loss coefficient; 0 means DefaultEntryLoss
 	ExitLoss  float64 // passage exit loss coefficient; 0 means DefaultExitLoss
+	// TotalsOnly leaves SetResult.March empty: sweeps and the optimiser
+	// need the totals, not the segment-by-segment profile.
+	TotalsOnly bool
 	// Curves, when set, keeps the fin-efficiency curves of fin sets already
 	// seen, so that a sweep over speed, ambient or load does not tabulate
 	// the same fins again. It is not safe for concurrent use: give each
@@ -761,7 +764,7 @@ func (c Case) Balance(load HeatLoad) (Result, error) {
 			}
 			p.scratch.Reset()
 			p.log = &p.scratch
-			memoR, memoM = p.setHeat(fs, g, cv, pt, tw, tin, mdot, true)
+			memoR, memoM = p.setHeat(fs, g, cv, pt, tw, tin, mdot, !c.TotalsOnly)
 			p.log = keep
 			memoX, memoF = tw, memoR.HeatRejected-q
 			if math.Abs(memoF) <= balanceTol*q {
@@ -884,7 +887,9 @@ func (c Case) Balance(load HeatLoad) (Result, error) {
 		}
 		keep.Merge(&p.scratch)
 		r, m := memoR, memoM
-		r.March = append([]Segment(nil), memoM.seg...)
+		if !c.TotalsOnly {
+			r.March = append([]Segment(nil), memoM.seg...)
+		}
 		m.seg = r.March
 		r.HeatLoad = q
 		return r, m, nil

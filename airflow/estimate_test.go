@@ -431,3 +431,23 @@ func TestParabolaRoot(t *testing.T) {
 		t.Error("root far outside the points accepted")
 	}
 }
+
+// TotalsOnly changes nothing but the profile: the same wall temperatures,
+// heats and outlet air to the last bit, and no segments.
+func TestTotalsOnly(t *testing.T) {
+	for _, lo := range []bool{false, true} {
+		c := demoCase(t, lo)
+		full := mustBalance(t, c, demoLoad)
+		c.TotalsOnly = true
+		tot := mustBalance(t, c, demoLoad)
+		for _, p := range [][2]SetResult{{full.Head, tot.Head}, {full.Barrel, tot.Barrel}} {
+			if p[0].WallTemp != p[1].WallTemp || p[0].HeatRejected != p[1].HeatRejected || p[0].AirOut != p[1].AirOut {
+				t.Errorf("laid over %v %s: totals-only %.12f K / %.9f W, full %.12f K / %.9f W",
+					lo, p[0].Name, p[1].WallTemp, p[1].HeatRejected, p[0].WallTemp, p[0].HeatRejected)
+			}
+			if len(p[0].March) == 0 || len(p[1].March) != 0 {
+				t.Errorf("%s: %d segments in the full result, %d with totals only", p[0].Name, len(p[0].March), len(p[1].March))
+			}
+		}
+	}
+}

@@ -23,15 +23,17 @@ type outcome struct {
 // balance, or the heat at fixed walls when the design overrides them. A
 // hard failure (not the absence of an equilibrium) is returned as error.
 func evaluate(d *design.Design, v float64) (outcome, error) {
-	return evaluateWith(d, v, nil)
+	return evaluateWith(d, v, nil, false)
 }
 
 // evaluateWith is evaluate with a fin-efficiency curve cache (nil for none),
-// for a goroutine that evaluates many variants.
-func evaluateWith(d *design.Design, v float64, cache *airflow.CurveCache) (outcome, error) {
+// for a goroutine that evaluates many variants, and with totalsOnly leaving
+// out the march profile that only single-design reports show.
+func evaluateWith(d *design.Design, v float64, cache *airflow.CurveCache, totalsOnly bool) (outcome, error) {
 	c := d.Case
 	c.Speed = v
 	c.Curves = cache
+	c.TotalsOnly = totalsOnly
 	o := outcome{d: d, speed: v, fixed: d.WallFixed}
 	if d.WallFixed {
 		r, err := c.AtWall(d.HeadWall, d.BarrelWall)

@@ -187,7 +187,7 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 		if err != nil {
 			return 0, 0, false
 		}
-		o, err := evaluate(v, v.Case.Speed)
+		o, err := evaluateWith(v, v.Case.Speed, nil, true)
 		if err != nil || o.err != nil || o.check() != nil {
 			return 0, 0, false
 		}

@@ -282,7 +282,7 @@ func evalPoint(d *design.Design, axes []axis, i int, vals map[string]float64, fi
 		r.status, r.msg = "invalid", firstLine(err.Error())
 		return r
 	}
-	o, err := evaluateWith(v, v.Case.Speed, cache)
+	o, err := evaluateWith(v, v.Case.Speed, cache, true)
 	if err == nil {
 		err = o.check()
 	}
