@@ -259,3 +259,83 @@ func TestLimitAlert(t *testing.T) {
 		t.Error("JSON lacks limit_warnings")
 	}
 }
+
+// readmeRun matches a command block of the README and the output block
+// after it.
+var readmeRun = regexp.MustCompile("(?s)```\nfinmarch ((?:sweep|optimise) [^\n]*)\n```\n\n```\n(.*?)```")
+
+var workersNote = regexp.MustCompile(`on \d+ workers?`)
+
+// The sweep and optimiser examples of the README are what those commands
+// print on the starter design (run from a folder holding it as
+// upright.toml); -update rewrites them. The worker count in the sweep's
+// title depends on the machine and is not compared.
+func TestReadmeExamples(t *testing.T) {
+	readme, err := filepath.Abs("../../../README.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := os.ReadFile(readme)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := string(b)
+	ms := readmeRun.FindAllStringSubmatchIndex(s, -1)
+	if len(ms) < 2 {
+		t.Fatalf("README has %d sweep/optimise examples, want at least 2", len(ms))
+	}
+	dir := t.TempDir()
+	if err := os.WriteFile(filepath.Join(dir, "upright.toml"), demo.Upright, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	t.Chdir(dir)
+	var fixed strings.Builder
+	last := 0
+	for _, m := range ms {
+		line, block := s[m[2]:m[3]], s[m[4]:m[5]]
+		out, errs, code := run(t, shellWords(line)...)
+		if code != 0 {
+			t.Fatalf("finmarch %s: exit %d, %s", line, code, errs)
+		}
+		fixed.WriteString(s[last:m[4]])
+		fixed.WriteString(out)
+		last = m[5]
+		norm := func(x string) string { return strings.TrimSpace(workersNote.ReplaceAllString(x, "on N workers")) }
+		if !*update && norm(out) != norm(block) {
+			t.Errorf("README example 'finmarch %s' is stale (go test ./cmd/internal/app -update rewrites it); it prints:\n%s", line, out)
+		}
+	}
+	fixed.WriteString(s[last:])
+	if *update {
+		if err := os.WriteFile(readme, []byte(fixed.String()), 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+}
+
+// shellWords splits a README command line on spaces, keeping double-quoted
+// words whole.
+func shellWords(s string) []string {
+	var out []string
+	var w strings.Builder
+	in, have := false, false
+	for _, r := range s {
+		switch {
+		case r == '"':
+			in, have = !in, true
+		case r == ' ' && !in:
+			if have {
+				out = append(out, w.String())
+				w.Reset()
+				have = false
+			}
+		default:
+			w.WriteRune(r)
+			have = true
+		}
+	}
+	if have {
+		out = append(out, w.String())
+	}
+	return out
+}

@@ -137,7 +137,10 @@ func Write(w io.Writer, d Doc, f Format) error {
 			fmt.Fprintln(w, wrap(n, 100, "  "))
 		}
 		if d.Caution {
-			fmt.Fprintf(w, "\n%s\n", wrap(Caution, 100, ""))
+			if len(d.Notes) > 0 { // a grid already ends with a blank line
+				fmt.Fprintln(w)
+			}
+			fmt.Fprintf(w, "%s\n", wrap(Caution, 100, ""))
 		}
 		return nil
 	}
