@@ -23,8 +23,27 @@ func grid1000(b *testing.B) (*design.Design, []axis) {
 	return d, []axis{p, v}
 }
 
-func benchSweep(b *testing.B, workers int) {
-	d, axes := grid1000(b)
+// designs1000 is a 1000-point sweep of 1000 distinct head fin designs at
+// the demo's cruise: 10 pitches by 10 heights by 10 root thicknesses, so
+// every point fills a fresh fin-efficiency curve.
+func designs1000(b *testing.B) (*design.Design, []axis) {
+	d, err := design.Parse(demo.Upright, "u.toml")
+	if err != nil {
+		b.Fatal(err)
+	}
+	p, _ := parseAxis("head.pitch=7mm:11.5mm:0.5mm")
+	h, _ := parseAxis("head.height=30mm:48mm:2mm")
+	t, _ := parseAxis("head.root_thickness=2.5mm:4.3mm:0.2mm")
+	if len(p.vals)*len(h.vals)*len(t.vals) != 1000 {
+		b.Fatalf("grid has %d points", len(p.vals)*len(h.vals)*len(t.vals))
+	}
+	return d, []axis{p, h, t}
+}
+
+func benchSweep(b *testing.B, workers int) { benchGrid(b, workers, grid1000) }
+
+func benchGrid(b *testing.B, workers int, grid func(*testing.B) (*design.Design, []axis)) {
+	d, axes := grid(b)
 	b.ReportAllocs()
 	b.ResetTimer()
 	n := 0
@@ -44,6 +63,11 @@ func benchSweep(b *testing.B, workers int) {
 func BenchmarkSweep1000OneCore(b *testing.B) { benchSweep(b, 1) }
 func BenchmarkSweep1000AllCores(b *testing.B) {
 	benchSweep(b, runtime.GOMAXPROCS(0))
+}
+
+func BenchmarkSweep1000DesignsOneCore(b *testing.B) { benchGrid(b, 1, designs1000) }
+func BenchmarkSweep1000DesignsAllCores(b *testing.B) {
+	benchGrid(b, runtime.GOMAXPROCS(0), designs1000)
 }
 
 // One full cruise estimate through the command-line path (design variant
