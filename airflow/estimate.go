@@ -795,9 +795,10 @@ func (c Case) Balance(load HeatLoad) (Result, error) {
 		// temperature cheaply. The full march rejects nearly the same
 		// multiple rho of the coarse one at every wall temperature (rho
 		// moves by about 1e-5 per kelvin), so one full march at the coarse
-		// root gives rho, the coarse march then solves rho Q_c(T_w) = load,
-		// and a full march at that point usually balances; if not, the
-		// secant on the full march goes on from the two full points.
+		// root gives rho, the parabola through the last three coarse points
+		// then solves rho Q_c(T_w) = load, and a full march at that point
+		// usually balances; if not, the secant on the full march goes on
+		// from the two full points.
 		full := p.n
 		if nc := full / 5; nc >= 8 && mdot > 0 {
 			p.n = nc
