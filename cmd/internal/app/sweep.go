@@ -74,7 +74,10 @@ func parseAxis(spec string) (axis, error) {
 			return axis{}, fmt.Errorf("--vary %q: %g values on one axis; at most 10 million", spec, n)
 		}
 		for i := 0; i < int(n); i++ {
-			a.vals = append(a.vals, v[0]+float64(i)*v[2])
+			// to 12 significant digits, so that 30 mm + 1 x 5 mm is 0.035 m
+			// and not 0.034999999999999996 in the JSON and in the design
+			x, _ := strconv.ParseFloat(strconv.FormatFloat(v[0]+float64(i)*v[2], 'g', 12, 64), 64)
+			a.vals = append(a.vals, x)
 		}
 		return a, nil
 	}

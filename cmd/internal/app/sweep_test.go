@@ -101,3 +101,30 @@ func TestAxisTemperatureStep(t *testing.T) {
 		t.Fatalf("list: %v %v", a.vals, err)
 	}
 }
+
+// Range axes hold the decimal values the user wrote, not their binary
+// accumulations (30 mm + 5 mm is 0.035 m exactly as printed), and keep
+// the count of from:to:step.
+func TestAxisValues(t *testing.T) {
+	for _, c := range []struct {
+		spec string
+		want []float64
+	}{
+		{"head.height=30mm:50mm:5mm", []float64{0.03, 0.035, 0.04, 0.045, 0.05}},
+		{"head.pitch=5mm:5.3mm:0.1mm", []float64{0.005, 0.0051, 0.0052, 0.0053}},
+		{"air.ambient=20C:22C:1C", []float64{293.15, 294.15, 295.15}},
+	} {
+		a, err := parseAxis(c.spec)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(a.vals) != len(c.want) {
+			t.Fatalf("%s: %v", c.spec, a.vals)
+		}
+		for i, v := range a.vals {
+			if v != c.want[i] {
+				t.Errorf("%s: value %d is %v, want %v", c.spec, i, v, c.want[i])
+			}
+		}
+	}
+}
