@@ -16,10 +16,7 @@ const (
 // fTurb is the Petukhov factor at the turbulent end of transition.
 var fTurb = PetukhovFriction(ReTurbulent, nil)
 
-var (
-	sqrtF8Turb = math.Sqrt(fTurb / 8)
-	lnReLam    = math.Log(ReLaminar)
-)
+var sqrtF8Turb = math.Sqrt(fTurb / 8)
 
 // ParallelPlatesNu returns the mean Nusselt number Nu = h Dh / k (Dh = 2 s,
 // s the plate spacing) for simultaneously developing laminar flow between

@@ -20,7 +20,6 @@ type Curve struct {
 	g         Geometry
 	refScale2 float64 // z^2 = refScale2 x
 	vals      [curveNodes]float64
-	have      [curveNodes]bool
 	// for tapered annular fins, the two finite-volume meshes of
 	// AnnularTapered built once, so a node costs two Thomas sweeps
 	coarse, fine *taperMesh // nil unless the set is tapered annular

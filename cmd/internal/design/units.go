@@ -66,7 +66,6 @@ var (
 	dimSpecificHeat = &dimension{name: "specific heat", si: "J/(kg K)", units: map[string]unitConv{
 		"j/kgk": lin(1), "j/(kg k)": lin(1), "j/(kgk)": lin(1), "kj/kgk": lin(1000), "kj/(kg k)": lin(1000),
 		"btu/(lb f)": lin(4186.8)}, hint: `write "900 J/kgK"`}
-	dimCount = &dimension{name: "count", si: "", units: map[string]unitConv{"": lin(1)}, hint: "write a whole number"}
 )
 
 // unitList returns the accepted spellings for messages.
@@ -221,7 +220,7 @@ type rawQ struct {
 	Set, Bare bool
 }
 
-func (q Q[D]) raw() rawQ { return rawQ{q.SI, q.Set, q.Bare} }
+func (q Q[D]) raw() rawQ { return rawQ(q) }
 
 // IsBare reports a value written without a unit.
 func (q rawQ) IsBare() bool { return q.Bare }
