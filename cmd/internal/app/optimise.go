@@ -23,7 +23,7 @@ type optVar struct {
 }
 
 func (e *env) optimiseCmd() *cobra.Command {
-	var set, goal, process, limit, minThick, maxAspect, draft string
+	var set, goal, process, limit, minThick, maxAspect, draft, speed, ambient, altitude string
 	ranges := map[string]*string{}
 	var levels int
 	cmd := &cobra.Command{
@@ -32,7 +32,8 @@ func (e *env) optimiseCmd() *cobra.Command {
 		Short:   "Choose fin pitch, height, thicknesses and count for the coolest head or the lightest fins, within casting limits",
 		Long: `optimise varies one fin set's pitch, height, root and tip thickness and count within
 bounds (defaults around the design; set them with --pitch 6mm:14mm and so on) at the
-design's cruise point, keeping the casting limits of a process (minimum thickness,
+design's cruise point (or at --speed, --ambient, --altitude), keeping the casting
+limits of a process (minimum thickness,
 height-to-gap ratio, draft). --goal cool minimises the set's wall temperature;
 --goal light minimises its fin mass with the wall at or below the limit. It prints
 the optimum, the constraints that hold it, and the trade-off front of temperature
@@ -46,6 +47,25 @@ against fin mass from every design it evaluated.`,
 			}
 			if d.WallFixed {
 				return fail(ExitUsage, fmt.Errorf("the design fixes the wall temperatures ([override]); remove them to optimise"))
+			}
+			// the operating point, when the flags move it from the design's
+			vals := map[string]float64{}
+			for _, o := range []struct{ flag, key, s string }{
+				{"--speed", "air.speed", speed}, {"--ambient", "air.ambient", ambient}, {"--altitude", "air.altitude", altitude},
+			} {
+				if o.s == "" {
+					continue
+				}
+				v, err := design.ParseFor(o.key, o.s)
+				if err != nil {
+					return fail(ExitUsage, fmt.Errorf("%s %q: %v", o.flag, o.s, err))
+				}
+				vals[o.key] = v
+			}
+			if len(vals) > 0 {
+				if d, err = d.With(vals); err != nil {
+					return fail(ExitUsage, fmt.Errorf("--speed, --ambient or --altitude: %w", err))
+				}
 			}
 			if set != "head" && set != "barrel" {
 				return fail(ExitUsage, fmt.Errorf("--set %q: head or barrel", set))
@@ -104,6 +124,9 @@ against fin mass from every design it evaluated.`,
 	f.StringVar(&maxAspect, "max-aspect", "", "override the process's maximum height-to-gap ratio")
 	f.StringVar(&draft, "draft", "", "override the process's minimum draft angle per face, e.g. \"1 deg\"")
 	f.IntVar(&levels, "levels", 5, "grid levels per variable before the pattern search")
+	f.StringVar(&speed, "speed", "", "road speed to optimise at, e.g. \"110 km/h\" (default: the design's)")
+	f.StringVar(&ambient, "ambient", "", "ambient air temperature, e.g. \"40 C\" (default: the design's)")
+	f.StringVar(&altitude, "altitude", "", "altitude, e.g. \"1500 m\" (default: the design's)")
 	for _, v := range []string{"pitch", "height", "root-thickness", "tip-thickness", "count"} {
 		s := ""
 		ranges[v] = &s
@@ -265,14 +288,18 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 	c := output.Grid{Title: "Constraints at the optimum (slack 0 = active)", Header: []string{"constraint", "limit", "value", "slack", "active"}, Left: 1}
 	opt := setOf(res.X)
 	for _, v := range p.Check(opt) {
-		var lim, val string
+		// the slack in the constraint's own unit
+		var lim, val, slack string
 		switch v.Constraint {
 		case "minimum thickness":
-			lim, val = L(p.MinThickness)+" "+u.LenU(), L(opt.TipThickness)+" "+u.LenU()
+			lim, val, slack = L(p.MinThickness)+" "+u.LenU(), L(opt.TipThickness)+" "+u.LenU(), L(v.Slack)+" "+u.LenU()
 		case "height to gap":
-			lim, val = output.Num(p.MaxAspect, 2), output.Num(opt.Height/(opt.Pitch-opt.RootThickness), 2)
+			lim, val, slack = output.Num(p.MaxAspect, 2), output.Num(opt.Height/(opt.Pitch-opt.RootThickness), 2), output.Num(v.Slack, 2)
 		case "draft":
-			lim, val = output.Num(p.MinDraft*180/math.Pi, 2)+" deg", output.Num(math.Atan((opt.RootThickness-opt.TipThickness)/(2*opt.Height))*180/math.Pi, 2)+" deg"
+			d := math.Atan((opt.RootThickness - opt.TipThickness) / (2 * opt.Height))
+			lim, val, slack = output.Num(p.MinDraft*180/math.Pi, 2)+" deg", output.Num(d*180/math.Pi, 2)+" deg", output.Num((d-p.MinDraft)*180/math.Pi, 2)+" deg"
+		default:
+			slack = fmt.Sprintf("%.3g", v.Slack)
 		}
 		// active: within 2% of the limit's own size
 		scale := map[string]float64{"minimum thickness": p.MinThickness, "height to gap": p.MaxAspect, "draft": math.Tan(p.MinDraft)}[v.Constraint]
@@ -280,7 +307,7 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 		if v.Slack <= 0.02*scale+1e-9 {
 			active = "yes"
 		}
-		c.Rows = append(c.Rows, []string{v.Constraint, lim, val, fmt.Sprintf("%.3g", v.Slack), active})
+		c.Rows = append(c.Rows, []string{v.Constraint, lim, val, slack, active})
 	}
 	for i, v := range vars {
 		span := v.hi - v.lo
@@ -318,9 +345,17 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 			designNote(broken, p),
 			"The other fin set and everything else stay as the design has them; check the result with 'finmarch estimate' after editing the design.",
 		}}
-	doc.JSON = map[string]any{"design": d.Name, "set": set, "goal": goal, "process": p, "optimum": map[string]any{
+	js := map[string]any{"design": d.Name, "set": set, "goal": goal, "process": p, "optimum": map[string]any{
 		"pitch_m": res.X[0], "height_m": res.X[1], "root_thickness_m": res.X[2], "tip_thickness_m": res.X[3], "count": int(res.X[4]),
-		"wall_K": bt, "fin_mass_kg": bm}, "constraints": p.Check(opt), "front": frontJSON(front), "evaluations": res.Evals, "caution": output.Caution}
+		"wall_K": bt, "fin_mass_kg": bm}, "constraints": p.Check(opt), "front": frontJSON(front), "evaluations": res.Evals, "caution": output.Caution,
+		"speed_m_s": d.Case.Speed, "ambient_K": d.Case.Ambient, "pressure_Pa": d.Case.Pressure}
+	if dok {
+		js["as_designed"] = map[string]any{"wall_K": dt, "fin_mass_kg": dm}
+	}
+	if goal == "light" {
+		js["limit_K"] = limit
+	}
+	doc.JSON = js
 	return e.emit(doc)
 }
 

@@ -3,6 +3,7 @@ package app
 import (
 	"encoding/json"
 	"math"
+	"strings"
 	"testing"
 
 	"finmarch/cmd/internal/demo"
@@ -91,5 +92,45 @@ func TestOptimiserAgainstFineGrid(t *testing.T) {
 			t.Errorf("%s: optimum %.6f is worse than the fine grid's %.6f", goal, got, best)
 		}
 		t.Logf("%s: optimum %.5f, fine grid %.5f", goal, got, best)
+	}
+}
+
+// --speed and --ambient move the operating point: the design as drawn is
+// then evaluated there too (its wall equals a one-point sweep at that
+// speed and ambient), and the JSON says where it optimised.
+func TestOptimiseOperatingPoint(t *testing.T) {
+	up, _ := designs(t)
+	js, errs, code := run(t, "optimise", up, "--speed", "60 km/h", "--ambient", "30 C", "--levels", "3", "-f", "json")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	var o struct {
+		Speed      float64 `json:"speed_m_s"`
+		Ambient    float64 `json:"ambient_K"`
+		AsDesigned struct {
+			Wall float64 `json:"wall_K"`
+		} `json:"as_designed"`
+	}
+	if err := json.Unmarshal([]byte(js), &o); err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(o.Speed-60/3.6) > 1e-9 || math.Abs(o.Ambient-303.15) > 1e-9 {
+		t.Errorf("optimised at %g m/s, %g K", o.Speed, o.Ambient)
+	}
+	sw, errs, code := run(t, "sweep", up, "--vary", "air.speed=60km/h", "--vary", "air.ambient=30C", "-f", "json", "-q")
+	if code != 0 {
+		t.Fatalf("sweep exit %d: %s", code, errs)
+	}
+	var row struct {
+		Head float64 `json:"head_K"`
+	}
+	if err := json.Unmarshal([]byte(strings.SplitN(sw, "\n", 2)[0]), &row); err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(row.Head-o.AsDesigned.Wall) > 1e-9 {
+		t.Errorf("design as drawn at 60 km/h, 30 C: optimise says %.6f K, sweep %.6f K", o.AsDesigned.Wall, row.Head)
+	}
+	if _, errs, code := run(t, "optimise", up, "--speed", "900 km/h"); code != ExitUsage || !strings.Contains(errs, "air.speed") {
+		t.Errorf("900 km/h: exit %d, %s", code, errs)
 	}
 }

@@ -368,3 +368,23 @@ func BenchmarkWith(b *testing.B) {
 		}
 	}
 }
+
+// A variant of a variant keeps the first variant's changes.
+func TestWithChained(t *testing.T) {
+	d, err := Parse(demo.Upright, "u.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	a, err := d.With(map[string]float64{"air.speed": 30})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := a.With(map[string]float64{"head.pitch": 0.0095})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if b.Case.Speed != 30 || b.Case.Head.Set.Pitch != 0.0095 || d.Case.Speed == 30 || a.Case.Head.Set.Pitch == 0.0095 {
+		t.Errorf("speeds %g/%g/%g, pitches %g/%g/%g", d.Case.Speed, a.Case.Speed, b.Case.Speed,
+			d.Case.Head.Set.Pitch, a.Case.Head.Set.Pitch, b.Case.Head.Set.Pitch)
+	}
+}

@@ -133,7 +133,9 @@ func (d *Design) With(values map[string]float64) (*Design, error) {
 	if len(errs) > 0 {
 		return nil, errs
 	}
-	nd.file, nd.md, nd.loc = d.file, d.md, d.loc
+	// the variant keeps its own decoded file, so that a variant of it
+	// carries this one's changes too
+	nd.file, nd.md, nd.loc = &f, d.md, d.loc
 	if d.Case.Segments != 0 && !hasKey(values, "segments") && d.segOverride {
 		nd.Case.Segments, nd.segOverride = d.Case.Segments, true
 	}
