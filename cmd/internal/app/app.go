@@ -44,6 +44,8 @@ type options struct {
 	format   string
 	units    string
 	segments int
+	// the operating point, overriding every design read
+	speed, ambient, altitude string
 	out      string
 	force    bool
 	quiet    bool
@@ -104,6 +106,9 @@ upright with annular fins against laid over with longitudinal fins.`,
 	pf.StringVarP(&e.opt.format, "format", "f", "table", "output format: table, markdown, csv or json")
 	pf.StringVarP(&e.opt.units, "units", "u", "metric", "display units: metric or us")
 	pf.IntVar(&e.opt.segments, "segments", 0, "march segments per air path (overrides the design; default 40)")
+	pf.StringVar(&e.opt.speed, "speed", "", "road speed, overriding the design's air.speed, e.g. \"110 km/h\"")
+	pf.StringVar(&e.opt.ambient, "ambient", "", "ambient air temperature, overriding air.ambient, e.g. \"40 C\"")
+	pf.StringVar(&e.opt.altitude, "altitude", "", "altitude, overriding air.altitude, e.g. \"1500 m\"")
 	pf.StringVarP(&e.opt.out, "output", "o", "", "write the result to this file instead of standard output")
 	pf.BoolVar(&e.opt.force, "force", false, "allow --output (and new) to replace an existing file")
 	pf.BoolVarP(&e.opt.quiet, "quiet", "q", false, "do not print warnings on standard error")
@@ -142,6 +147,25 @@ func (e *env) parse(src []byte, name string) (*design.Design, error) {
 			return nil, fail(ExitUsage, fmt.Errorf("--segments %d: allowed 1 to 10000", e.opt.segments))
 		}
 		d.OverrideSegments(e.opt.segments)
+	}
+	// the operating point from the flags, checked by the design's own rules
+	vals := map[string]float64{}
+	for _, o := range []struct{ flag, key, s string }{
+		{"--speed", "air.speed", e.opt.speed}, {"--ambient", "air.ambient", e.opt.ambient}, {"--altitude", "air.altitude", e.opt.altitude},
+	} {
+		if o.s == "" {
+			continue
+		}
+		v, err := design.ParseFor(o.key, o.s)
+		if err != nil {
+			return nil, fail(ExitUsage, fmt.Errorf("%s %q: %v", o.flag, o.s, err))
+		}
+		vals[o.key] = v
+	}
+	if len(vals) > 0 {
+		if d, err = d.With(vals); err != nil {
+			return nil, fail(ExitUsage, fmt.Errorf("--speed, --ambient or --altitude: %w", err))
+		}
 	}
 	return d, nil
 }

@@ -134,8 +134,9 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 	}
 	g.Rows = append(g.Rows,
 		row("heat rejected", "W", pair(func(r airflow.SetResult) string { return output.Num(r.HeatRejected, 0) })),
-		row("  by forced convection", "W", pair(func(r airflow.SetResult) string { return output.Num(r.ForcedHeat, 0) })),
-		row("  by natural convection", "W", pair(func(r airflow.SetResult) string { return output.Num(r.NaturalHeat, 0) })),
+		row("  by convection", "W", pair(func(r airflow.SetResult) string { return output.Num(r.ConvectionHeat, 0) })),
+		row("    forced alone", "W", pair(func(r airflow.SetResult) string { return output.Num(r.ForcedHeat, 0) })),
+		row("    natural alone", "W", pair(func(r airflow.SetResult) string { return output.Num(r.NaturalHeat, 0) })),
 		row("  by radiation", "W", pair(func(r airflow.SetResult) string { return output.Num(r.RadiationHeat, 0) })),
 	)
 	if !o.fixed {
@@ -174,7 +175,7 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 			output.Num(u.Road(c.Speed), 0), u.RoadU(), o.load.WheelPower/1e3, o.load.BrakePower/1e3, o.load.FuelPower/1e3,
 			100*d.Load.Road.CoolShare, d.Load.Road.Cylinders, 100*d.Load.Road.HeadShare))
 	}
-	doc.Notes = append(doc.Notes, orientationNote(d, o.res), noteWall,
+	doc.Notes = append(doc.Notes, orientationNote(d, o.res), noteWall, noteMixed,
 		energyNote(o.res.MaxImbal),
 		noteModel)
 	if o.err != nil {
@@ -213,6 +214,9 @@ func limitAlerts(u output.Units, o outcome) []string {
 	}
 	return out
 }
+
+// noteMixed explains why the forced and natural rows do not add up.
+const noteMixed = "Convection combines forced and natural as Q^3 = QF^3 + QN^3 (Churchill 1977), so the two 'alone' rows do not add up; convection plus radiation is the heat rejected."
 
 // energyNote reports the energy check; below 1e-9 it says so rather than
 // print rounding noise.

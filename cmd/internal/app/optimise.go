@@ -23,7 +23,7 @@ type optVar struct {
 }
 
 func (e *env) optimiseCmd() *cobra.Command {
-	var set, goal, process, limit, minThick, maxAspect, draft, speed, ambient, altitude string
+	var set, goal, process, limit, minThick, maxAspect, draft string
 	ranges := map[string]*string{}
 	var levels int
 	cmd := &cobra.Command{
@@ -47,25 +47,6 @@ against fin mass from every design it evaluated.`,
 			}
 			if d.WallFixed {
 				return fail(ExitUsage, fmt.Errorf("the design fixes the wall temperatures ([override]); remove them to optimise"))
-			}
-			// the operating point, when the flags move it from the design's
-			vals := map[string]float64{}
-			for _, o := range []struct{ flag, key, s string }{
-				{"--speed", "air.speed", speed}, {"--ambient", "air.ambient", ambient}, {"--altitude", "air.altitude", altitude},
-			} {
-				if o.s == "" {
-					continue
-				}
-				v, err := design.ParseFor(o.key, o.s)
-				if err != nil {
-					return fail(ExitUsage, fmt.Errorf("%s %q: %v", o.flag, o.s, err))
-				}
-				vals[o.key] = v
-			}
-			if len(vals) > 0 {
-				if d, err = d.With(vals); err != nil {
-					return fail(ExitUsage, fmt.Errorf("--speed, --ambient or --altitude: %w", err))
-				}
 			}
 			if set != "head" && set != "barrel" {
 				return fail(ExitUsage, fmt.Errorf("--set %q: head or barrel", set))
@@ -124,9 +105,6 @@ against fin mass from every design it evaluated.`,
 	f.StringVar(&maxAspect, "max-aspect", "", "override the process's maximum height-to-gap ratio")
 	f.StringVar(&draft, "draft", "", "override the process's minimum draft angle per face, e.g. \"1 deg\"")
 	f.IntVar(&levels, "levels", 5, "grid levels per variable before the pattern search")
-	f.StringVar(&speed, "speed", "", "road speed to optimise at, e.g. \"110 km/h\" (default: the design's)")
-	f.StringVar(&ambient, "ambient", "", "ambient air temperature, e.g. \"40 C\" (default: the design's)")
-	f.StringVar(&altitude, "altitude", "", "altitude, e.g. \"1500 m\" (default: the design's)")
 	for _, v := range []string{"pitch", "height", "root-thickness", "tip-thickness", "count"} {
 		s := ""
 		ranges[v] = &s
