@@ -46,10 +46,10 @@ type options struct {
 	segments int
 	// the operating point, overriding every design read
 	speed, ambient, altitude string
-	out      string
-	force    bool
-	quiet    bool
-	strict   bool
+	out                      string
+	force                    bool
+	quiet                    bool
+	strict                   bool
 }
 
 type env struct {
