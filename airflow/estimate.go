@@ -182,9 +182,9 @@ type prepared struct {
 	hg, bg       fins.Geometry
 	hc, bc       *fins.Curve // fin efficiency against h/k, filled as the march needs it
 	scratch      validity.Log
-	segBuf       []Segment  // the march of the latest trial
-	pre          []segCache // position terms by path and segment count
-	exactFilm    bool       // film powers exact at every segment (tests)
+	segBuf       []Segment           // the march of the latest trial
+	pre          map[segKey][]segPre // position terms by path and segment count
+	exactFilm    bool                // film powers exact at every segment (tests)
 	hp, bp       Path
 	hm, bm       float64 // mass flow per path, kg/s
 	hvel, bvel   float64 // passage velocity at inlet density, m/s
@@ -402,11 +402,6 @@ type segKey struct {
 	n          int
 }
 
-type segCache struct {
-	k segKey
-	s []segPre
-}
-
 // gradePow holds, for segment end i of n, r^2 with r = i/n (the graded
 // position x/L) and the powers (r^2)^-1.14, (r^2)^-0.64 and (r^2)^(-2/3).
 type gradePow struct{ r2, p114, p064, p43 float64 }
@@ -436,18 +431,15 @@ func gradePowers(n int) []gradePow {
 // segments returns the position terms of the n segment ends of a path,
 // computed once per path and segment count.
 func (p *prepared) segments(pt Path, n int) []segPre {
-	k := segKey{pt.Length, pt.Dh, n}
-	for _, c := range p.pre {
-		if c.k == k {
-			return c.s
-		}
+	// a sweep's worker keeps them across its points in the curve cache;
+	// a lone estimate keeps them for its own trials
+	store := &p.pre
+	if p.c.Curves != nil {
+		store = &p.c.Curves.segs
 	}
-	cc := p.c.Curves
-	if cc != nil {
-		if s, ok := cc.segs[k]; ok {
-			p.pre = append(p.pre, segCache{k, s})
-			return s
-		}
+	k := segKey{pt.Length, pt.Dh, n}
+	if s, ok := (*store)[k]; ok {
+		return s
 	}
 	// x_i/Dh = (L/Dh) (i/N)^2, so each term is a power of L/Dh times a
 	// power of i/N that serves every path
@@ -462,13 +454,10 @@ func (p *prepared) segments(pt Path, n int) []segPre {
 		q := &g[i]
 		s[i] = segPre{x: pt.Length * q.r2, e1: a1 * q.p114, e2: a2 * q.p064, d23: a3 * q.p43}
 	}
-	p.pre = append(p.pre, segCache{k, s})
-	if cc != nil {
-		if cc.segs == nil || len(cc.segs) >= curveCacheSize {
-			cc.segs = map[segKey][]segPre{}
-		}
-		cc.segs[k] = s
+	if *store == nil || len(*store) >= curveCacheSize {
+		*store = map[segKey][]segPre{}
 	}
+	(*store)[k] = s
 	return s
 }
 
