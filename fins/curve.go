@@ -10,8 +10,9 @@ import (
 // combination of h and k on which the efficiency of a given profile
 // depends (m^2 = 2h/(k t) and the tip term are both in h/k). Nodes lie on a
 // geometric grid x_i = x0 r^i (r = 1.2), are computed when first needed by
-// Set.FinEfficiency, and hold the efficiency divided by the uniform straight
-// fin's tanh(z)/z; that slowly varying ratio is interpolated by a cubic
+// Set.FinEfficiency, and hold the efficiency divided by a stand-in for the
+// uniform straight fin's tanh(z)/z (ref); that slowly varying ratio is
+// interpolated by a cubic
 // through four nodes in log x. The error is below 1e-6 for h = 0.5 to
 // 1000 W/(m2 K) (TestCurveAccuracy). The march calls it once per segment
 // instead of solving the fin again.
