@@ -343,7 +343,7 @@ func displayFor(u output.Units, key string, v float64) (string, string) {
 		}
 		return output.Num(u.Len(v), u.LenDec()+2), u.LenU()
 	}
-	return strconv.FormatFloat(v, 'g', 6, 64), "SI"
+	return strconv.FormatFloat(v, 'g', 6, 64), design.SIUnit(key)
 }
 
 func (e *env) sweep(d *design.Design, axes []axis, total, workers, top int, keepCount bool) error {
@@ -406,8 +406,12 @@ func (e *env) sweep(d *design.Design, axes []axis, total, workers, top int, keep
 	lightest := &rowHeap{key: func(r sweepRow) float64 { return r.mass }}
 	counts := map[string]int{}
 	var werr error
+	firstInvalid := sweepRow{idx: -1} // the invalid point of lowest index
 	runGrid(d, axes, total, workers, !keepCount, func(r sweepRow) {
 		counts[r.status]++
+		if r.status == "invalid" && (firstInvalid.idx < 0 || r.idx < firstInvalid.idx) {
+			firstInvalid = r
+		}
 		if r.ok && r.equilibrium {
 			keep(coolest, r, top)
 			if r.headM >= 0 && r.barrM >= 0 {
@@ -486,7 +490,8 @@ func (e *env) sweep(d *design.Design, axes []axis, total, workers, top int, keep
 			grid(fmt.Sprintf("Lightest fins within both limits (best %d)", top), sorted(lightest))},
 		Caution: true}
 	if counts["invalid"] > 0 {
-		doc.Notes = append(doc.Notes, "Invalid points break a design rule (the row's note says which) and are not estimated.")
+		doc.Notes = append(doc.Notes, fmt.Sprintf("Invalid points break a design rule (the row's note says which) and are not estimated; the first, point %d: %s.",
+			firstInvalid.idx, strings.TrimSuffix(firstInvalid.msg, ".")))
 	}
 	sf := output.Table
 	if f == output.Markdown {
@@ -494,6 +499,9 @@ func (e *env) sweep(d *design.Design, axes []axis, total, workers, top int, keep
 	}
 	if err := output.Write(summaryTo, doc, sf); err != nil {
 		return fail(ExitIO, err)
+	}
+	if counts["invalid"] == total {
+		return fail(ExitDesign, fmt.Errorf("every point of the sweep breaks a design rule, so none was estimated; point %d: %s", firstInvalid.idx, firstInvalid.msg))
 	}
 	return nil
 }

@@ -128,3 +128,47 @@ func TestAxisValues(t *testing.T) {
 		}
 	}
 }
+
+// A bare number for a length, speed, temperature or angle on the command
+// line is refused with the unit hint (it would be m, m/s, K or rad); for a
+// fraction or a count it is the value.
+func TestBareNumbersOnTheCommandLine(t *testing.T) {
+	up, _ := designs(t)
+	for _, c := range []struct {
+		args []string
+		want string
+	}{
+		{[]string{"sweep", up, "--vary", "head.pitch=6:14:2"}, `"6" has no unit; write "6 mm"`},
+		{[]string{"sweep", up, "--vary", "head.pitch=6mm:14mm:2"}, `"2" has no unit`},
+		{[]string{"estimate", up, "--speed", "110"}, `taken in m/s`},
+		{[]string{"estimate", up, "--ambient", "40"}, `write "35 C"`},
+		{[]string{"optimise", up, "--limit", "200"}, `taken in K`},
+		{[]string{"optimise", up, "--pitch", "6:14"}, `has no unit`},
+	} {
+		_, errs, code := run(t, c.args...)
+		if code != ExitUsage || !strings.Contains(errs, c.want) {
+			t.Errorf("%v: exit %d, %q; want exit %d and %q", c.args[2:], code, errs, ExitUsage, c.want)
+		}
+	}
+	for _, args := range [][]string{
+		{"sweep", up, "--vary", "air.pressure_recovery=0.4,0.5", "-f", "csv"},
+		{"sweep", up, "--vary", "head.count=7:8:1", "-f", "csv"},
+	} {
+		if _, errs, code := run(t, args...); code != 0 {
+			t.Errorf("%v: exit %d, %s", args[2:], code, errs)
+		}
+	}
+}
+
+// A sweep in which no point is valid says why and exits with the design
+// error code, after writing its rows.
+func TestSweepAllInvalid(t *testing.T) {
+	up, _ := designs(t)
+	out, errs, code := run(t, "sweep", up, "--vary", "air.pressure=90kPa:100kPa:5kPa", "-f", "csv")
+	if code != ExitDesign || !strings.Contains(errs, "every point of the sweep breaks a design rule") || !strings.Contains(errs, "give altitude or pressure, not both") {
+		t.Errorf("exit %d, %s", code, errs)
+	}
+	if strings.Count(out, "invalid") != 3 {
+		t.Errorf("rows: %s", out)
+	}
+}

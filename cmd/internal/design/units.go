@@ -17,6 +17,10 @@ type dimension struct {
 	si    string              // SI unit shown in messages
 	units map[string]unitConv // lower-case spelling -> conversion to SI
 	hint  string              // shown when a bare number is out of range
+	// needsUnit marks the dimensions whose SI unit is not the trade's
+	// (m against mm, K against C, m/s against km/h, rad against deg): on
+	// the command line a bare number for them is refused, not read as SI
+	needsUnit bool
 }
 
 type unitConv struct {
@@ -28,14 +32,14 @@ func lin(s float64) unitConv { return unitConv{scale: s} }
 var (
 	dimLength = &dimension{name: "length", si: "m", units: map[string]unitConv{
 		"m": lin(1), "mm": lin(1e-3), "cm": lin(1e-2), "km": lin(1e3), "in": lin(0.0254), "inch": lin(0.0254),
-		"\"": lin(0.0254), "ft": lin(0.3048)}, hint: `write "6 mm" or "0.25 in"`}
+		"\"": lin(0.0254), "ft": lin(0.3048)}, hint: `write "6 mm" or "0.25 in"`, needsUnit: true}
 	dimSpeed = &dimension{name: "speed", si: "m/s", units: map[string]unitConv{
 		"m/s": lin(1), "km/h": lin(1 / 3.6), "kph": lin(1 / 3.6), "kmh": lin(1 / 3.6), "mph": lin(0.44704),
-		"kn": lin(0.514444), "kt": lin(0.514444), "ft/s": lin(0.3048)}, hint: `write "100 km/h" or "60 mph"`}
+		"kn": lin(0.514444), "kt": lin(0.514444), "ft/s": lin(0.3048)}, hint: `write "100 km/h" or "60 mph"`, needsUnit: true}
 	dimTemp = &dimension{name: "temperature", si: "K", units: map[string]unitConv{
 		"k": lin(1), "c": {1, 273.15}, "degc": {1, 273.15}, "°c": {1, 273.15},
 		"f": {5.0 / 9, 273.15 - 32*5.0/9}, "degf": {5.0 / 9, 273.15 - 32*5.0/9}, "°f": {5.0 / 9, 273.15 - 32*5.0/9}},
-		hint: `a bare number is kelvin; write "35 C" or "95 F"`}
+		hint: `a bare number is kelvin; write "35 C" or "95 F"`, needsUnit: true}
 	dimPower = &dimension{name: "power", si: "W", units: map[string]unitConv{
 		"w": lin(1), "kw": lin(1e3), "hp": lin(745.69987), "ps": lin(735.49875), "btu/h": lin(0.29307107)},
 		hint: `write "3 kW"`}
@@ -49,7 +53,7 @@ var (
 		"inhg": lin(3386.389), "atm": lin(101325)}, hint: `write "101.3 kPa" or "29.92 inHg"`}
 	dimAngle = &dimension{name: "angle", si: "rad", units: map[string]unitConv{
 		"rad": lin(1), "deg": lin(math.Pi / 180), "°": lin(math.Pi / 180), "degrees": lin(math.Pi / 180)},
-		hint: `a bare number is radians; write "90 deg"`}
+		hint: `a bare number is radians; write "90 deg"`, needsUnit: true}
 	dimHCoef = &dimension{name: "heat-transfer coefficient", si: "W/(m2 K)", units: map[string]unitConv{
 		"w/m2k": lin(1), "w/(m2 k)": lin(1), "w/(m2k)": lin(1), "w/m2/k": lin(1), "w/m^2k": lin(1),
 		"btu/(h ft2 f)": lin(5.678263), "btu/hft2f": lin(5.678263)}, hint: `write "80 W/m2K"`}
@@ -245,11 +249,23 @@ func (q Q[D]) Or(def float64) float64 {
 }
 
 // ParseValue converts a string such as "6 mm" for the dimension of D; used by
-// the command-line flags.
+// the command-line flags, so a bare number is refused for a length, speed,
+// temperature or angle (see flagValue).
 func ParseValue[D Dim](s string) (float64, error) {
 	var d D
+	return flagValue(s, d.dim(), false)
+}
+
+// flagValue parses a command-line value for dimension d (a difference, such
+// as a sweep step, with difference set). A bare number is SI, except for
+// the dimensions marked needsUnit, where "6" for a fin pitch or "110" for
+// a speed would be 6 m or 110 m/s: those are refused with the unit hint.
+func flagValue(s string, d *dimension, difference bool) (float64, error) {
 	if v, err := strconv.ParseFloat(strings.TrimSpace(s), 64); err == nil {
-		return parseQuantity(v, d.dim())
+		if d.needsUnit {
+			return 0, fmt.Errorf("%q has no unit; %s (a bare number here would be taken in %s)", strings.TrimSpace(s), strings.TrimPrefix(strings.TrimPrefix(d.hint, "a bare number is kelvin; "), "a bare number is radians; "), d.si)
+		}
+		return parseQuantity(v, d)
 	}
-	return parseString(s, d.dim())
+	return parseText(s, d, difference)
 }

@@ -69,6 +69,22 @@ func VaryKeys() []string {
 // for head.pitch); counts take whole numbers.
 func ParseFor(key, s string) (float64, error) { return parseFor(key, s, false) }
 
+// SIUnit returns the SI unit in which a numeric key's values are held ("m",
+// "K", "Pa", "W/(m2 K)"), "" for a fraction, a count or an unknown key.
+func SIUnit(key string) string {
+	var f File
+	v, err := field(&f, key)
+	if err != nil {
+		return ""
+	}
+	if q, ok := v.Addr().Interface().(quantityField); ok {
+		if u := q.dimension().si; u != "-" {
+			return u
+		}
+	}
+	return ""
+}
+
 // ParseDifferenceFor parses a step or difference for a varied key: "5 C"
 // for air.ambient is 5 K, not 278.15 K.
 func ParseDifferenceFor(key, s string) (float64, error) { return parseFor(key, s, true) }
@@ -80,10 +96,7 @@ func parseFor(key, s string, difference bool) (float64, error) {
 		return 0, err
 	}
 	if q, ok := v.Addr().Interface().(quantityField); ok {
-		if x, err := strconv.ParseFloat(strings.TrimSpace(s), 64); err == nil {
-			return parseQuantity(x, q.dimension())
-		}
-		return parseText(s, q.dimension(), difference)
+		return flagValue(s, q.dimension(), difference)
 	}
 	if v.Kind() == reflect.Int {
 		n, err := strconv.Atoi(strings.TrimSpace(s))
