@@ -138,8 +138,11 @@ func optBounds(d *design.Design, set string, p fins.Process, ranges map[string]*
 			if v.lo, err = design.ParseFor(key, a); err == nil {
 				v.hi, err = design.ParseFor(key, b)
 			}
-			if err != nil || !(v.hi >= v.lo) || v.lo < 0 {
-				return nil, fail(ExitUsage, fmt.Errorf("--%s %q: need FROM <= TO with units (%v)", v.name, r, err))
+			if err != nil {
+				return nil, fail(ExitUsage, fmt.Errorf("--%s %q: %v", v.name, r, err))
+			}
+			if !(v.hi >= v.lo) || v.lo < 0 {
+				return nil, fail(ExitUsage, fmt.Errorf("--%s %q: need 0 <= FROM <= TO", v.name, r))
 			}
 		}
 	}
