@@ -172,3 +172,14 @@ func TestSweepAllInvalid(t *testing.T) {
 		t.Errorf("rows: %s", out)
 	}
 }
+
+// A misspelt --vary key gets the nearest key of the schema.
+func TestVaryDidYouMean(t *testing.T) {
+	up, _ := designs(t)
+	for key, want := range map[string]string{"head.pich": `did you mean "head.pitch"`, "air.sped": `did you mean "air.speed"`} {
+		_, errs, code := run(t, "sweep", up, "--vary", key+"=1mm:2mm:1mm")
+		if code != ExitUsage || !strings.Contains(errs, want) {
+			t.Errorf("%s: exit %d, %q", key, code, errs)
+		}
+	}
+}

@@ -1,12 +1,15 @@
 package design
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"reflect"
 	"sort"
 	"strconv"
 	"strings"
+
+	"github.com/BurntSushi/toml"
 )
 
 // quantityField is implemented by every Q[D].
@@ -36,7 +39,14 @@ func field(f *File, key string) (reflect.Value, error) {
 			}
 		}
 		if !found {
-			return reflect.Value{}, fmt.Errorf("%q: no key %q under %q", key, p, strings.Join(parts[:i], "."))
+			msg := fmt.Sprintf("%q: no key %q under %q", key, p, strings.Join(parts[:i], "."))
+			if i == 0 {
+				msg = fmt.Sprintf("%q: no table %q", key, p)
+			}
+			if sug := suggestKey(toml.Key(parts[:i+1])); sug != "" {
+				msg += fmt.Sprintf(" (did you mean %q?)", sug)
+			}
+			return reflect.Value{}, errors.New(msg)
 		}
 	}
 	return v, nil
