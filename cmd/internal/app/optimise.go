@@ -236,8 +236,25 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 		why := "no design within the bounds and casting limits reaches an equilibrium"
 		if goal == "light" {
 			why = fmt.Sprintf("no design within the bounds and casting limits keeps the %s at or below %s %s", set, fmtT(u, limit), u.TempU())
+			// say how close it came
+			best := optPoint{t: math.Inf(1)}
+			for _, q := range pts {
+				if q.feasible && q.t < best.t {
+					best = q
+				}
+			}
+			if !math.IsInf(best.t, 1) {
+				L := func(v float64) string { return output.Num(u.Len(v), u.LenDec()+1) }
+				why += fmt.Sprintf(" (the coolest it found runs at %s %s: %d fins at %s %s pitch, %s %s high)", fmtT(u, best.t), u.TempU(),
+					int(best.x[4]), L(best.x[0]), u.LenU(), L(best.x[1]), u.LenU())
+			}
 		}
-		return fail(ExitModel, fmt.Errorf("%s: %s; widen the bounds (--pitch, --height, ...), choose a finer process, or lower the load", d.Name, why))
+		more := ""
+		if d.Case.Head.Set.Style == fins.StyleLongitudinal && d.Case.Barrel.Set.Style == fins.StyleLongitudinal {
+			other := map[string]string{"head": "barrel", "barrel": "head"}[set]
+			more = fmt.Sprintf("; the air passes the head and then the barrel fins in series here, so the %s fins, which this search keeps as they are, meter it too: 'finmarch sweep --vary %s.pitch=...' shows what they do to the %s", other, other, set)
+		}
+		return fail(ExitModel, fmt.Errorf("%s: %s; widen the bounds (--pitch, --height, ...), choose a finer process, or lower the load%s", d.Name, why, more))
 	}
 	bt, bm, _ := measure(res.X)
 	dt, dm, dok := measureAs([]float64{base.Pitch, base.Height, base.RootThickness, base.TipThickness, float64(base.Count)}, false)
