@@ -134,3 +134,13 @@ func TestOptimiseOperatingPoint(t *testing.T) {
 		t.Errorf("900 km/h: exit %d, %s", code, errs)
 	}
 }
+
+// A limit no design reaches: exit 1 with how close the search came and,
+// on the laid-over cylinder's series path, the other set's part in it.
+func TestOptimiseUnreachableLimit(t *testing.T) {
+	_, lo := designs(t)
+	_, errs, code := run(t, "optimise", lo, "--goal", "light", "--limit", "150 C", "--levels", "3")
+	if code != ExitModel || !strings.Contains(errs, "the coolest it found runs at") || !strings.Contains(errs, "in series here, so the barrel fins") {
+		t.Errorf("exit %d: %s", code, errs)
+	}
+}
