@@ -180,30 +180,46 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 		s.Pitch, s.Height, s.RootThickness, s.TipThickness, s.Count = x[0], x[1], x[2], x[3], int(x[4])
 		return s
 	}
-	// measure evaluates the set at x; cast applies the process limits
-	measureAs := func(x []float64, cast bool) (float64, float64, bool) {
+	// On a series path (both sets longitudinal) the chosen set changes the
+	// air the other set gets, so the other set's limit is kept too.
+	other := map[string]string{"head": "barrel", "barrel": "head"}[set]
+	otherLimit := d.BarrelLimit
+	if other == "head" {
+		otherLimit = d.HeadLimit
+	}
+	series := d.Case.Head.Set.Style == fins.StyleLongitudinal && d.Case.Barrel.Set.Style == fins.StyleLongitudinal
+	// measure evaluates the set at x (its wall, its fin mass, the other
+	// set's wall); cast applies the process limits
+	measureAs := func(x []float64, cast bool) (float64, float64, float64, bool) {
 		s := setOf(x)
 		if s.TipThickness > s.RootThickness || cast && !p.Feasible(s) {
-			return 0, 0, false
+			return 0, 0, 0, false
 		}
 		vals := map[string]float64{set + ".pitch": x[0], set + ".height": x[1], set + ".root_thickness": x[2], set + ".tip_thickness": x[3], set + ".count": x[4]}
 		v, err := d.With(vals)
 		if err != nil {
-			return 0, 0, false
+			return 0, 0, 0, false
 		}
 		o, err := evaluateWith(v, v.Case.Speed, nil, true)
 		if err != nil || o.err != nil || o.check() != nil {
-			return 0, 0, false
+			return 0, 0, 0, false
 		}
-		r := o.res.Head
+		r, q := o.res.Head, o.res.Barrel
 		if set == "barrel" {
-			r = o.res.Barrel
+			r, q = q, r
 		}
-		return r.WallTemp, r.FinMass, true
+		return r.WallTemp, r.FinMass, q.WallTemp, true
 	}
-	measure := func(x []float64) (float64, float64, bool) { return measureAs(x, true) }
+	measure := func(x []float64) (float64, float64, float64, bool) { return measureAs(x, true) }
+	// over is how far a series path's other set runs above its limit, K
+	over := func(ot float64) float64 {
+		if !series {
+			return 0
+		}
+		return math.Max(0, ot-otherLimit)
+	}
 	obj := func(x []float64) float64 {
-		t, m, ok := measure(x)
+		t, m, ot, ok := measure(x)
 		mu.Lock()
 		pts = append(pts, optPoint{x: append([]float64(nil), x...), t: t, mass: m, feasible: ok})
 		mu.Unlock()
@@ -211,12 +227,13 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 		case !ok:
 			return math.Inf(1)
 		case goal == "cool":
-			return t
-		case t > limit:
+			// the other set's limit by a steep exact penalty, 10 K per K
+			return t + 10*over(ot)
+		case t > limit || over(ot) > 0:
 			// an exact penalty, 1 kg per kelvin over the limit: far steeper
 			// than fin mass trades against temperature (a few 10 g per K),
 			// so the search walks into the limit and the optimum sits on it
-			return m + (t - limit)
+			return m + math.Max(0, t-limit) + over(ot)
 		}
 		return m
 	}
@@ -228,7 +245,7 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 	}
 	res := optimise.Minimize(obj, lo, hi, integer, optimise.Options{Levels: levels, Tol: 1e-3}, nil)
 	if goal == "light" && !math.IsInf(res.F, 1) {
-		if t, _, _ := measure(res.X); t > limit+1e-6 {
+		if t, _, ot, _ := measure(res.X); t > limit+1e-6 || over(ot) > 1e-6 {
 			res.F = math.Inf(1)
 		}
 	}
@@ -236,6 +253,9 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 		why := "no design within the bounds and casting limits reaches an equilibrium"
 		if goal == "light" {
 			why = fmt.Sprintf("no design within the bounds and casting limits keeps the %s at or below %s %s", set, fmtT(u, limit), u.TempU())
+			if series {
+				why += fmt.Sprintf(" with the %s at or below its %s %s", other, fmtT(u, otherLimit), u.TempU())
+			}
 			// say how close it came
 			best := optPoint{t: math.Inf(1)}
 			for _, q := range pts {
@@ -250,14 +270,13 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 			}
 		}
 		more := ""
-		if d.Case.Head.Set.Style == fins.StyleLongitudinal && d.Case.Barrel.Set.Style == fins.StyleLongitudinal {
-			other := map[string]string{"head": "barrel", "barrel": "head"}[set]
+		if series {
 			more = fmt.Sprintf("; the air passes the head and then the barrel fins in series here, so the %s fins, which this search keeps as they are, meter it too: 'finmarch sweep --vary %s.pitch=...' shows what they do to the %s", other, other, set)
 		}
 		return fail(ExitModel, fmt.Errorf("%s: %s; widen the bounds (--pitch, --height, ...), choose a finer process, or lower the load%s", d.Name, why, more))
 	}
-	bt, bm, _ := measure(res.X)
-	dt, dm, dok := measureAs([]float64{base.Pitch, base.Height, base.RootThickness, base.TipThickness, float64(base.Count)}, false)
+	bt, bm, bo, _ := measure(res.X)
+	dt, dm, do, dok := measureAs([]float64{base.Pitch, base.Height, base.RootThickness, base.TipThickness, float64(base.Count)}, false)
 	var broken []string
 	for _, v := range p.Check(base) {
 		if v.Slack < -1e-12 {
@@ -274,12 +293,13 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 		}
 		g.Rows = append(g.Rows, []string{v.name, u.LenU(), L(cur), L(res.X[i]), L(v.lo) + " to " + L(v.hi)})
 	}
-	dT, dM := "n/a", "n/a"
+	dT, dM, dO := "n/a", "n/a", "n/a"
 	if dok {
-		dT, dM = fmtT(u, dt), output.Num(u.Mass(dm), 3)
+		dT, dM, dO = fmtT(u, dt), output.Num(u.Mass(dm), 3), fmtT(u, do)
 	}
 	g.Rows = append(g.Rows, []string{set + " wall temperature", u.TempU(), dT, fmtT(u, bt), ""},
-		[]string{set + " fin mass", u.MassU(), dM, output.Num(u.Mass(bm), 3), ""})
+		[]string{set + " fin mass", u.MassU(), dM, output.Num(u.Mass(bm), 3), ""},
+		[]string{other + " wall temperature (fins as designed)", u.TempU(), dO, fmtT(u, bo), ""})
 	if goal == "light" {
 		g.Rows = append(g.Rows, []string{"limit", u.TempU(), "", fmtT(u, limit), ""})
 	}
@@ -319,6 +339,9 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 	if goal == "light" {
 		c.Rows = append(c.Rows, []string{set + " temperature limit", fmtT(u, limit) + " " + u.TempU(), fmtT(u, bt) + " " + u.TempU(), fmtDT(u, limit-bt), map[bool]string{true: "yes", false: "no"}[limit-bt < 1]})
 	}
+	if series {
+		c.Rows = append(c.Rows, []string{other + " temperature limit (series air)", fmtT(u, otherLimit) + " " + u.TempU(), fmtT(u, bo) + " " + u.TempU(), fmtDT(u, otherLimit-bo), map[bool]string{true: "yes", false: "no"}[otherLimit-bo < 1]})
+	}
 	front := pareto(pts)
 	// the optimum always shows, in its place by mass
 	optP := optPoint{x: res.X, t: bt, mass: bm, feasible: true}
@@ -345,10 +368,10 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 		}}
 	js := map[string]any{"design": d.Name, "set": set, "goal": goal, "process": p, "optimum": map[string]any{
 		"pitch_m": res.X[0], "height_m": res.X[1], "root_thickness_m": res.X[2], "tip_thickness_m": res.X[3], "count": int(res.X[4]),
-		"wall_K": bt, "fin_mass_kg": bm}, "constraints": p.Check(opt), "front": frontJSON(front), "evaluations": res.Evals, "caution": output.Caution,
+		"wall_K": bt, "fin_mass_kg": bm, "other_set_wall_K": bo}, "constraints": p.Check(opt), "front": frontJSON(front), "evaluations": res.Evals, "caution": output.Caution,
 		"speed_m_s": d.Case.Speed, "ambient_K": d.Case.Ambient, "pressure_Pa": d.Case.Pressure}
 	if dok {
-		js["as_designed"] = map[string]any{"wall_K": dt, "fin_mass_kg": dm}
+		js["as_designed"] = map[string]any{"wall_K": dt, "fin_mass_kg": dm, "other_set_wall_K": do}
 	}
 	if goal == "light" {
 		js["limit_K"] = limit

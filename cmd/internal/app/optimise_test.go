@@ -3,6 +3,8 @@ package app
 import (
 	"encoding/json"
 	"math"
+	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 
@@ -142,5 +144,33 @@ func TestOptimiseUnreachableLimit(t *testing.T) {
 	_, errs, code := run(t, "optimise", lo, "--goal", "light", "--limit", "150 C", "--levels", "3")
 	if code != ExitModel || !strings.Contains(errs, "the coolest it found runs at") || !strings.Contains(errs, "in series here, so the barrel fins") {
 		t.Errorf("exit %d: %s", code, errs)
+	}
+}
+
+// On a series path the head fins change the air the barrel gets: the
+// optimiser keeps the barrel at or below its limit as well (here a tight
+// 150 C, which the coolest head alone would break: 160 C).
+func TestOptimiseSeriesKeepsOtherLimit(t *testing.T) {
+	dir := t.TempDir()
+	src := strings.Replace(string(demo.LaidOver), "[limits]", "[limits]\nbarrel = \"150 C\"", 1)
+	path := filepath.Join(dir, "tight.toml")
+	if err := os.WriteFile(path, []byte(src), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	js, errs, code := run(t, "optimise", path, "--goal", "cool", "--levels", "3", "-f", "json")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	var o struct {
+		Optimum struct {
+			Wall  float64 `json:"wall_K"`
+			Other float64 `json:"other_set_wall_K"`
+		} `json:"optimum"`
+	}
+	if err := json.Unmarshal([]byte(js), &o); err != nil {
+		t.Fatal(err)
+	}
+	if o.Optimum.Other > 150+273.15+1e-6 {
+		t.Errorf("barrel at %.2f C over its 150 C limit (head %.2f C)", o.Optimum.Other-273.15, o.Optimum.Wall-273.15)
 	}
 }
