@@ -267,8 +267,8 @@ var readmeRun = regexp.MustCompile("(?s)```\nfinmarch ((?:sweep|optimise) [^\n]*
 var workersNote = regexp.MustCompile(`on \d+ workers?`)
 
 // The sweep and optimiser examples of the README are what those commands
-// print on the starter design (run from a folder holding it as
-// upright.toml); -update rewrites them. The worker count in the sweep's
+// print on the starter designs (run from a folder holding them as
+// upright.toml and laid-over.toml); -update rewrites them. The worker count in the sweep's
 // title depends on the machine and is not compared.
 func TestReadmeExamples(t *testing.T) {
 	readme, err := filepath.Abs("../../../README.md")
@@ -286,6 +286,9 @@ func TestReadmeExamples(t *testing.T) {
 	}
 	dir := t.TempDir()
 	if err := os.WriteFile(filepath.Join(dir, "upright.toml"), demo.Upright, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(filepath.Join(dir, "laid-over.toml"), demo.LaidOver, 0o644); err != nil {
 		t.Fatal(err)
 	}
 	t.Chdir(dir)

@@ -697,16 +697,23 @@ func (e *env) alloysCmd() *cobra.Command {
 }
 
 func (e *env) newCmd() *cobra.Command {
-	return &cobra.Command{
+	var laidOver bool
+	cmd := &cobra.Command{
 		Use:   "new DESIGN.toml",
-		Short: "Write a commented starter design (the upright demo) to a new file",
+		Short: "Write a commented starter design (the upright demo, or with --laid-over the laid-over one) to a new file",
 		Args:  cobra.ExactArgs(1),
 		RunE: func(_ *cobra.Command, args []string) error {
-			if err := writeFile(args[0], demo.Upright, e.opt.force); err != nil {
+			src := demo.Upright
+			if laidOver {
+				src = demo.LaidOver
+			}
+			if err := writeFile(args[0], src, e.opt.force); err != nil {
 				return err
 			}
 			fmt.Fprintf(e.stdout, "wrote %s; edit it, then run: finmarch estimate %s\n", args[0], args[0])
 			return nil
 		},
 	}
+	cmd.Flags().BoolVar(&laidOver, "laid-over", false, "write the demo's laid-over cylinder (longitudinal fins, 90 deg tilt) instead")
+	return cmd
 }

@@ -33,14 +33,16 @@ func (e *env) optimiseCmd() *cobra.Command {
 		Long: `optimise varies one fin set's pitch, height, root and tip thickness and count within
 bounds (defaults around the design; set them with --pitch 6mm:14mm and so on) at the
 design's cruise point (or at --speed, --ambient, --altitude), keeping the casting
-limits of a process (minimum thickness,
-height-to-gap ratio, draft). --goal cool minimises the set's wall temperature;
---goal light minimises its fin mass with the wall at or below the limit. It prints
-the optimum, the constraints that hold it, and the trade-off front of temperature
-against fin mass from every design it evaluated.`,
+limits of a process (minimum thickness, height-to-gap ratio, draft). --goal cool
+minimises the set's wall temperature; --goal light minimises its fin mass with the
+wall at or below the limit. --set both varies head and barrel fins together (the
+bounds flags then apply to both), for the head's wall with the barrel kept within
+its limit: the way to win back what laying a cylinder over costs, where the air
+passes both sets in series. It prints the optimum, the constraints that hold it, and
+the trade-off front of temperature against fin mass from every design it evaluated.`,
 		Args:              cobra.ExactArgs(1),
 		ValidArgsFunction: tomlArgs,
-		RunE: func(_ *cobra.Command, args []string) error {
+		RunE: func(cmd *cobra.Command, args []string) error {
 			d, err := e.load(args[0])
 			if err != nil {
 				return err
@@ -48,8 +50,9 @@ against fin mass from every design it evaluated.`,
 			if d.WallFixed {
 				return fail(ExitUsage, fmt.Errorf("the design fixes the wall temperatures ([override]); remove them to optimise"))
 			}
-			if set != "head" && set != "barrel" {
-				return fail(ExitUsage, fmt.Errorf("--set %q: head or barrel", set))
+			names := map[string][]string{"head": {"head"}, "barrel": {"barrel"}, "both": {"head", "barrel"}}[set]
+			if names == nil {
+				return fail(ExitUsage, fmt.Errorf("--set %q: head, barrel or both", set))
 			}
 			if goal != "cool" && goal != "light" {
 				return fail(ExitUsage, fmt.Errorf("--goal %q: cool or light", goal))
@@ -86,18 +89,28 @@ against fin mass from every design it evaluated.`,
 					return fail(ExitUsage, fmt.Errorf("--limit: %w", err))
 				}
 			}
+			if len(names) == 2 && !cmd.Flags().Changed("levels") {
+				levels = 3 // 3^10 grid points for ten variables
+			}
 			if levels < 3 || levels > 9 {
 				return fail(ExitUsage, fmt.Errorf("--levels %d: allowed 3 to 9", levels))
 			}
-			vars, err := optBounds(d, set, p, ranges)
-			if err != nil {
-				return err
+			if n := math.Pow(float64(levels), float64(5*len(names))); n > 2e6 {
+				return fail(ExitUsage, fmt.Errorf("--levels %d with --set both is a grid of %.0f designs; at most 2 million (use 3 or 4)", levels, n))
 			}
-			return e.optimise(d, set, goal, p, lim, vars, levels)
+			var vars [][]optVar
+			for _, n := range names {
+				v, err := optBounds(d, n, p, ranges)
+				if err != nil {
+					return err
+				}
+				vars = append(vars, v)
+			}
+			return e.optimise(d, names, goal, p, lim, vars, levels)
 		},
 	}
 	f := cmd.Flags()
-	f.StringVar(&set, "set", "head", "fin set to optimise: head or barrel")
+	f.StringVar(&set, "set", "head", "fin set to optimise: head, barrel, or both (the head's wall with the barrel's limit kept)")
 	f.StringVar(&goal, "goal", "cool", "cool (lowest wall temperature) or light (least fin mass within the limit)")
 	f.StringVar(&process, "process", "permanent-mould", "casting process: sand, permanent-mould, die-casting or machined")
 	f.StringVar(&limit, "limit", "", "wall temperature limit for --goal light (default: the design's limit)")
@@ -164,38 +177,68 @@ type optPoint struct {
 	feasible bool
 }
 
-func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit float64, vars []optVar, levels int) error {
+// optSet is one fin set the optimiser varies: its five variables sit at
+// x[off:off+5] (pitch, height, root and tip thickness, count).
+type optSet struct {
+	name string
+	base fins.Set
+	vars []optVar
+	off  int
+}
+
+func (o optSet) set(x []float64) fins.Set {
+	s := o.base
+	y := x[o.off : o.off+5]
+	s.Pitch, s.Height, s.RootThickness, s.TipThickness, s.Count = y[0], y[1], y[2], y[3], int(y[4])
+	return s
+}
+
+func (o optSet) baseX() []float64 {
+	return []float64{o.base.Pitch, o.base.Height, o.base.RootThickness, o.base.TipThickness, float64(o.base.Count)}
+}
+
+// optimise searches the fin sets of vars (one set, or head and barrel
+// together) for goal at the design's operating point. The objective
+// temperature is the set's wall, or the head's when both vary; limit
+// applies to it under goal light. Guards keep other walls at their limits:
+// the barrel's when both vary, and on a series path (both sets
+// longitudinal) the other set's, whose air the chosen fins change.
+func (e *env) optimise(d *design.Design, names []string, goal string, p fins.Process, limit float64, vars [][]optVar, levels int) error {
 	_, u, err := e.settings()
 	if err != nil {
 		return err
 	}
-	base := d.Case.Head.Set
-	if set == "barrel" {
-		base = d.Case.Barrel.Set
+	both := len(names) == 2
+	var sets []optSet
+	var all []optVar
+	for i, n := range names {
+		b := d.Case.Head.Set
+		if n == "barrel" {
+			b = d.Case.Barrel.Set
+		}
+		sets = append(sets, optSet{name: n, base: b, vars: vars[i], off: len(all)})
+		all = append(all, vars[i]...)
 	}
+	primary := names[0] // the head when both vary
+	other := map[string]string{"head": "barrel", "barrel": "head"}[primary]
+	limitOf := map[string]float64{"head": d.HeadLimit, "barrel": d.BarrelLimit}
+	series := d.Case.Head.Set.Style == fins.StyleLongitudinal && d.Case.Barrel.Set.Style == fins.StyleLongitudinal
+	guardOther := both || series
+	otherLimit := limitOf[other]
 	var mu sync.Mutex
 	var pts []optPoint
-	setOf := func(x []float64) fins.Set {
-		s := base
-		s.Pitch, s.Height, s.RootThickness, s.TipThickness, s.Count = x[0], x[1], x[2], x[3], int(x[4])
-		return s
-	}
-	// On a series path (both sets longitudinal) the chosen set changes the
-	// air the other set gets, so the other set's limit is kept too.
-	other := map[string]string{"head": "barrel", "barrel": "head"}[set]
-	otherLimit := d.BarrelLimit
-	if other == "head" {
-		otherLimit = d.HeadLimit
-	}
-	series := d.Case.Head.Set.Style == fins.StyleLongitudinal && d.Case.Barrel.Set.Style == fins.StyleLongitudinal
-	// measure evaluates the set at x (its wall, its fin mass, the other
-	// set's wall); cast applies the process limits
+	// measureAs evaluates x: the primary wall, the fin mass of the varied
+	// sets, the other wall; cast applies the process limits
 	measureAs := func(x []float64, cast bool) (float64, float64, float64, bool) {
-		s := setOf(x)
-		if s.TipThickness > s.RootThickness || cast && !p.Feasible(s) {
-			return 0, 0, 0, false
+		vals := map[string]float64{}
+		for _, o := range sets {
+			s := o.set(x)
+			if s.TipThickness > s.RootThickness || cast && !p.Feasible(s) {
+				return 0, 0, 0, false
+			}
+			y := x[o.off : o.off+5]
+			vals[o.name+".pitch"], vals[o.name+".height"], vals[o.name+".root_thickness"], vals[o.name+".tip_thickness"], vals[o.name+".count"] = y[0], y[1], y[2], y[3], y[4]
 		}
-		vals := map[string]float64{set + ".pitch": x[0], set + ".height": x[1], set + ".root_thickness": x[2], set + ".tip_thickness": x[3], set + ".count": x[4]}
 		v, err := d.With(vals)
 		if err != nil {
 			return 0, 0, 0, false
@@ -205,15 +248,19 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 			return 0, 0, 0, false
 		}
 		r, q := o.res.Head, o.res.Barrel
-		if set == "barrel" {
+		if primary == "barrel" {
 			r, q = q, r
 		}
-		return r.WallTemp, r.FinMass, q.WallTemp, true
+		m := r.FinMass
+		if both {
+			m += q.FinMass
+		}
+		return r.WallTemp, m, q.WallTemp, true
 	}
 	measure := func(x []float64) (float64, float64, float64, bool) { return measureAs(x, true) }
-	// over is how far a series path's other set runs above its limit, K
+	// over is how far a guarded other set runs above its limit, K
 	over := func(ot float64) float64 {
-		if !series {
+		if !guardOther {
 			return 0
 		}
 		return math.Max(0, ot-otherLimit)
@@ -221,7 +268,7 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 	obj := func(x []float64) float64 {
 		t, m, ot, ok := measure(x)
 		mu.Lock()
-		pts = append(pts, optPoint{x: append([]float64(nil), x...), t: t, mass: m, feasible: ok})
+		pts = append(pts, optPoint{x: append([]float64(nil), x...), t: t, mass: m, feasible: ok && over(ot) == 0})
 		mu.Unlock()
 		switch {
 		case !ok:
@@ -237,23 +284,27 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 		}
 		return m
 	}
-	lo := make([]float64, len(vars))
-	hi := make([]float64, len(vars))
-	integer := make([]bool, len(vars))
-	for i, v := range vars {
+	lo := make([]float64, len(all))
+	hi := make([]float64, len(all))
+	integer := make([]bool, len(all))
+	for i, v := range all {
 		lo[i], hi[i], integer[i] = v.lo, v.hi, v.integer
 	}
 	res := optimise.Minimize(obj, lo, hi, integer, optimise.Options{Levels: levels, Tol: 1e-3}, nil)
-	if goal == "light" && !math.IsInf(res.F, 1) {
-		if t, _, ot, _ := measure(res.X); t > limit+1e-6 || over(ot) > 1e-6 {
+	if !math.IsInf(res.F, 1) {
+		if t, _, ot, _ := measure(res.X); goal == "light" && t > limit+1e-6 || over(ot) > 1e-6 {
 			res.F = math.Inf(1)
 		}
 	}
+	L := func(v float64) string { return output.Num(u.Len(v), u.LenDec()+1) }
 	if math.IsInf(res.F, 1) {
 		why := "no design within the bounds and casting limits reaches an equilibrium"
+		if guardOther {
+			why += fmt.Sprintf(" with the %s at or below its %s %s", other, fmtT(u, otherLimit), u.TempU())
+		}
 		if goal == "light" {
-			why = fmt.Sprintf("no design within the bounds and casting limits keeps the %s at or below %s %s", set, fmtT(u, limit), u.TempU())
-			if series {
+			why = fmt.Sprintf("no design within the bounds and casting limits keeps the %s at or below %s %s", primary, fmtT(u, limit), u.TempU())
+			if guardOther {
 				why += fmt.Sprintf(" with the %s at or below its %s %s", other, fmtT(u, otherLimit), u.TempU())
 			}
 			// say how close it came
@@ -264,83 +315,127 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 				}
 			}
 			if !math.IsInf(best.t, 1) {
-				L := func(v float64) string { return output.Num(u.Len(v), u.LenDec()+1) }
-				why += fmt.Sprintf(" (the coolest it found runs at %s %s: %d fins at %s %s pitch, %s %s high)", fmtT(u, best.t), u.TempU(),
-					int(best.x[4]), L(best.x[0]), u.LenU(), L(best.x[1]), u.LenU())
+				why += fmt.Sprintf(" (the coolest it found runs at %s %s", fmtT(u, best.t), u.TempU())
+				for _, o := range sets {
+					y := best.x[o.off : o.off+5]
+					why += fmt.Sprintf(", %s %d fins at %s %s pitch, %s %s high", o.name, int(y[4]), L(y[0]), u.LenU(), L(y[1]), u.LenU())
+				}
+				why += ")"
 			}
 		}
 		more := ""
-		if series {
-			more = fmt.Sprintf("; the air passes the head and then the barrel fins in series here, so the %s fins, which this search keeps as they are, meter it too: 'finmarch sweep --vary %s.pitch=...' shows what they do to the %s", other, other, set)
+		if series && !both {
+			more = fmt.Sprintf("; the air passes the head and then the barrel fins in series here, so the %s fins, which this search keeps as they are, meter it too: 'finmarch sweep --vary %s.pitch=...' shows what they do to the %s, and --set both varies them together", other, other, primary)
 		}
 		return fail(ExitModel, fmt.Errorf("%s: %s; widen the bounds (--pitch, --height, ...), choose a finer process, or lower the load%s", d.Name, why, more))
 	}
+	var base []float64
+	for _, o := range sets {
+		base = append(base, o.baseX()...)
+	}
 	bt, bm, bo, _ := measure(res.X)
-	dt, dm, do, dok := measureAs([]float64{base.Pitch, base.Height, base.RootThickness, base.TipThickness, float64(base.Count)}, false)
+	dt, dm, do, dok := measureAs(base, false)
 	var broken []string
-	for _, v := range p.Check(base) {
-		if v.Slack < -1e-12 {
-			broken = append(broken, v.Constraint)
+	for _, o := range sets {
+		for _, v := range p.Check(o.base) {
+			if v.Slack < -1e-12 {
+				c := v.Constraint
+				if both {
+					c = o.name + " " + c
+				}
+				broken = append(broken, c)
+			}
 		}
 	}
-	L := func(v float64) string { return output.Num(u.Len(v), u.LenDec()+1) }
-	g := output.Grid{Title: fmt.Sprintf("Optimum %s fins (%s, goal %s)", set, p.Name, goal), Header: []string{"quantity", "unit", "design", "optimum", "bounds"}, Left: 2}
-	for i, v := range vars {
-		cur := []float64{base.Pitch, base.Height, base.RootThickness, base.TipThickness, float64(base.Count)}[i]
-		if v.integer {
-			g.Rows = append(g.Rows, []string{v.name, "", fmt.Sprint(int(cur)), fmt.Sprint(int(res.X[i])), fmt.Sprintf("%d to %d", int(v.lo), int(v.hi))})
-			continue
+	// label prefixes a row with the set's name when both sets vary
+	label := func(o optSet, s string) string {
+		if both {
+			return o.name + " " + s
 		}
-		g.Rows = append(g.Rows, []string{v.name, u.LenU(), L(cur), L(res.X[i]), L(v.lo) + " to " + L(v.hi)})
+		return s
+	}
+	title := fmt.Sprintf("Optimum %s fins (%s, goal %s)", primary, p.Name, goal)
+	if both {
+		title = fmt.Sprintf("Optimum head and barrel fins (%s, goal %s)", p.Name, goal)
+	}
+	g := output.Grid{Title: title, Header: []string{"quantity", "unit", "design", "optimum", "bounds"}, Left: 2}
+	for _, o := range sets {
+		cur := o.baseX()
+		for i, v := range o.vars {
+			xi := res.X[o.off+i]
+			if v.integer {
+				g.Rows = append(g.Rows, []string{label(o, v.name), "", fmt.Sprint(int(cur[i])), fmt.Sprint(int(xi)), fmt.Sprintf("%d to %d", int(v.lo), int(v.hi))})
+				continue
+			}
+			g.Rows = append(g.Rows, []string{label(o, v.name), u.LenU(), L(cur[i]), L(xi), L(v.lo) + " to " + L(v.hi)})
+		}
 	}
 	dT, dM, dO := "n/a", "n/a", "n/a"
 	if dok {
 		dT, dM, dO = fmtT(u, dt), output.Num(u.Mass(dm), 3), fmtT(u, do)
 	}
-	g.Rows = append(g.Rows, []string{set + " wall temperature", u.TempU(), dT, fmtT(u, bt), ""},
-		[]string{set + " fin mass", u.MassU(), dM, output.Num(u.Mass(bm), 3), ""},
-		[]string{other + " wall temperature (fins as designed)", u.TempU(), dO, fmtT(u, bo), ""})
+	if both {
+		g.Rows = append(g.Rows, []string{"head wall temperature", u.TempU(), dT, fmtT(u, bt), ""},
+			[]string{"barrel wall temperature", u.TempU(), dO, fmtT(u, bo), ""},
+			[]string{"fin mass, both sets", u.MassU(), dM, output.Num(u.Mass(bm), 3), ""})
+	} else {
+		g.Rows = append(g.Rows, []string{primary + " wall temperature", u.TempU(), dT, fmtT(u, bt), ""},
+			[]string{primary + " fin mass", u.MassU(), dM, output.Num(u.Mass(bm), 3), ""},
+			[]string{other + " wall temperature (fins as designed)", u.TempU(), dO, fmtT(u, bo), ""})
+	}
 	if goal == "light" {
 		g.Rows = append(g.Rows, []string{"limit", u.TempU(), "", fmtT(u, limit), ""})
 	}
 	c := output.Grid{Title: "Constraints at the optimum (slack 0 = active)", Header: []string{"constraint", "limit", "value", "slack", "active"}, Left: 1}
-	opt := setOf(res.X)
-	for _, v := range p.Check(opt) {
-		// the slack in the constraint's own unit
-		var lim, val, slack string
-		switch v.Constraint {
-		case "minimum thickness":
-			lim, val, slack = L(p.MinThickness)+" "+u.LenU(), L(opt.TipThickness)+" "+u.LenU(), L(v.Slack)+" "+u.LenU()
-		case "height to gap":
-			lim, val, slack = output.Num(p.MaxAspect, 2), output.Num(opt.Height/(opt.Pitch-opt.RootThickness), 2), output.Num(v.Slack, 2)
-		case "draft":
-			d := math.Atan((opt.RootThickness - opt.TipThickness) / (2 * opt.Height))
-			lim, val, slack = output.Num(p.MinDraft*180/math.Pi, 2)+" deg", output.Num(d*180/math.Pi, 2)+" deg", output.Num((d-p.MinDraft)*180/math.Pi, 2)+" deg"
-		default:
-			slack = fmt.Sprintf("%.3g", v.Slack)
+	var checks []fins.Violation
+	for _, o := range sets {
+		opt := o.set(res.X)
+		cs := p.Check(opt)
+		checks = append(checks, cs...)
+		for _, v := range cs {
+			// the slack in the constraint's own unit
+			var lim, val, slack string
+			switch v.Constraint {
+			case "minimum thickness":
+				lim, val, slack = L(p.MinThickness)+" "+u.LenU(), L(opt.TipThickness)+" "+u.LenU(), L(v.Slack)+" "+u.LenU()
+			case "height to gap":
+				lim, val, slack = output.Num(p.MaxAspect, 2), output.Num(opt.Height/(opt.Pitch-opt.RootThickness), 2), output.Num(v.Slack, 2)
+			case "draft":
+				d := math.Atan((opt.RootThickness - opt.TipThickness) / (2 * opt.Height))
+				lim, val, slack = output.Num(p.MinDraft*180/math.Pi, 2)+" deg", output.Num(d*180/math.Pi, 2)+" deg", output.Num((d-p.MinDraft)*180/math.Pi, 2)+" deg"
+			default:
+				slack = fmt.Sprintf("%.3g", v.Slack)
+			}
+			// active: within 2% of the limit's own size
+			scale := map[string]float64{"minimum thickness": p.MinThickness, "height to gap": p.MaxAspect, "draft": math.Tan(p.MinDraft)}[v.Constraint]
+			active := "no"
+			if v.Slack <= 0.02*scale+1e-9 {
+				active = "yes"
+			}
+			c.Rows = append(c.Rows, []string{label(o, v.Constraint), lim, val, slack, active})
 		}
-		// active: within 2% of the limit's own size
-		scale := map[string]float64{"minimum thickness": p.MinThickness, "height to gap": p.MaxAspect, "draft": math.Tan(p.MinDraft)}[v.Constraint]
-		active := "no"
-		if v.Slack <= 0.02*scale+1e-9 {
-			active = "yes"
-		}
-		c.Rows = append(c.Rows, []string{v.Constraint, lim, val, slack, active})
-	}
-	for i, v := range vars {
-		span := v.hi - v.lo
-		if span > 0 && (res.X[i]-v.lo <= 1e-3*span || v.hi-res.X[i] <= 1e-3*span) {
-			c.Rows = append(c.Rows, []string{v.name + " bound", L(v.lo) + " to " + L(v.hi), L(res.X[i]), "0", "yes"})
-			if v.integer {
-				c.Rows[len(c.Rows)-1] = []string{v.name + " bound", fmt.Sprintf("%d to %d", int(v.lo), int(v.hi)), fmt.Sprint(int(res.X[i])), "0", "yes"}
+		for i, v := range o.vars {
+			xi := res.X[o.off+i]
+			span := v.hi - v.lo
+			if span > 0 && (xi-v.lo <= 1e-3*span || v.hi-xi <= 1e-3*span) {
+				row := []string{label(o, v.name+" bound"), L(v.lo) + " to " + L(v.hi), L(xi), "0", "yes"}
+				if v.integer {
+					row = []string{label(o, v.name+" bound"), fmt.Sprintf("%d to %d", int(v.lo), int(v.hi)), fmt.Sprint(int(xi)), "0", "yes"}
+				}
+				c.Rows = append(c.Rows, row)
 			}
 		}
 	}
+	yes := map[bool]string{true: "yes", false: "no"}
 	if goal == "light" {
-		c.Rows = append(c.Rows, []string{set + " temperature limit", fmtT(u, limit) + " " + u.TempU(), fmtT(u, bt) + " " + u.TempU(), fmtDT(u, limit-bt), map[bool]string{true: "yes", false: "no"}[limit-bt < 1]})
+		c.Rows = append(c.Rows, []string{primary + " temperature limit", fmtT(u, limit) + " " + u.TempU(), fmtT(u, bt) + " " + u.TempU(), fmtDT(u, limit-bt), yes[limit-bt < 1]})
 	}
-	if series {
-		c.Rows = append(c.Rows, []string{other + " temperature limit (series air)", fmtT(u, otherLimit) + " " + u.TempU(), fmtT(u, bo) + " " + u.TempU(), fmtDT(u, otherLimit-bo), map[bool]string{true: "yes", false: "no"}[otherLimit-bo < 1]})
+	if guardOther {
+		name := other + " temperature limit"
+		if !both {
+			name += " (series air)"
+		}
+		c.Rows = append(c.Rows, []string{name, fmtT(u, otherLimit) + " " + u.TempU(), fmtT(u, bo) + " " + u.TempU(), fmtDT(u, otherLimit-bo), yes[otherLimit-bo < 1]})
 	}
 	front := pareto(pts)
 	// the optimum always shows, in its place by mass
@@ -349,14 +444,33 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 	if k >= len(front) || front[k].mass != bm {
 		front = append(front[:k], append([]optPoint{optP}, front[k:]...)...)
 	}
-	fg := output.Grid{Title: "Trade-off front: wall temperature against fin mass (evaluated designs that no other beats on both)",
-		Header: []string{"fin mass (" + u.MassU() + ")", set + " (" + u.TempU() + ")", "pitch (" + u.LenU() + ")", "height (" + u.LenU() + ")", "root (" + u.LenU() + ")", "tip (" + u.LenU() + ")", "count", ""}}
+	massHead := "fin mass (" + u.MassU() + ")"
+	if both {
+		massHead = "fin mass, both (" + u.MassU() + ")"
+	}
+	hdr := []string{massHead, primary + " (" + u.TempU() + ")"}
+	for _, o := range sets {
+		for _, col := range []string{"pitch", "height", "root", "tip"} {
+			hdr = append(hdr, label(o, col)+" ("+u.LenU()+")")
+		}
+		hdr = append(hdr, label(o, "count"))
+	}
+	fg := output.Grid{Title: "Trade-off front: wall temperature against fin mass (evaluated designs that no other beats on both)", Header: append(hdr, "")}
 	for _, q := range front {
+		row := []string{output.Num(u.Mass(q.mass), 3), fmtT(u, q.t)}
+		for _, o := range sets {
+			y := q.x[o.off : o.off+5]
+			row = append(row, L(y[0]), L(y[1]), L(y[2]), L(y[3]), fmt.Sprint(int(y[4])))
+		}
 		mark := ""
 		if q.mass == bm && q.t == bt {
 			mark = "optimum"
 		}
-		fg.Rows = append(fg.Rows, []string{output.Num(u.Mass(q.mass), 3), fmtT(u, q.t), L(q.x[0]), L(q.x[1]), L(q.x[2]), L(q.x[3]), fmt.Sprint(int(q.x[4])), mark})
+		fg.Rows = append(fg.Rows, append(row, mark))
+	}
+	keepNote := "The other fin set and everything else stay as the design has them; check the result with 'finmarch estimate' after editing the design."
+	if both {
+		keepNote = "Everything but the two fin sets stays as the design has it; check the result with 'finmarch estimate' after editing the design."
 	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: fin optimisation at %s %s, ambient %s %s", d.Name, output.Num(u.Road(d.Case.Speed), 0), u.RoadU(), fmtT(u, d.Case.Ambient), u.TempU()),
 		Grids: []output.Grid{g, c, fg}, Caution: true,
@@ -364,11 +478,26 @@ func (e *env) optimise(d *design.Design, set, goal string, p fins.Process, limit
 			fmt.Sprintf("Casting limits (%s): %s.", p.Name, processSource(p)),
 			fmt.Sprintf("%d designs evaluated: a grid of %d levels per variable, then compass search from the best grid points.", res.Evals, levels),
 			designNote(broken, p),
-			"The other fin set and everything else stay as the design has them; check the result with 'finmarch estimate' after editing the design.",
+			keepNote,
 		}}
-	js := map[string]any{"design": d.Name, "set": set, "goal": goal, "process": p, "optimum": map[string]any{
-		"pitch_m": res.X[0], "height_m": res.X[1], "root_thickness_m": res.X[2], "tip_thickness_m": res.X[3], "count": int(res.X[4]),
-		"wall_K": bt, "fin_mass_kg": bm, "other_set_wall_K": bo}, "constraints": p.Check(opt), "front": frontJSON(front), "evaluations": res.Evals, "caution": output.Caution,
+	setJSON := func(o optSet, x []float64) map[string]any {
+		y := x[o.off : o.off+5]
+		return map[string]any{"pitch_m": y[0], "height_m": y[1], "root_thickness_m": y[2], "tip_thickness_m": y[3], "count": int(y[4])}
+	}
+	optimum := map[string]any{"wall_K": bt, "fin_mass_kg": bm, "other_set_wall_K": bo}
+	if both {
+		optimum = map[string]any{"head": setJSON(sets[0], res.X), "barrel": setJSON(sets[1], res.X), "head_wall_K": bt, "barrel_wall_K": bo, "fin_mass_kg": bm}
+	} else {
+		for k, v := range setJSON(sets[0], res.X) {
+			optimum[k] = v
+		}
+	}
+	setName := primary
+	if both {
+		setName = "both"
+	}
+	js := map[string]any{"design": d.Name, "set": setName, "goal": goal, "process": p, "optimum": optimum,
+		"constraints": checks, "front": frontJSON(front, sets), "evaluations": res.Evals, "caution": output.Caution,
 		"speed_m_s": d.Case.Speed, "ambient_K": d.Case.Ambient, "pressure_Pa": d.Case.Pressure}
 	if dok {
 		js["as_designed"] = map[string]any{"wall_K": dt, "fin_mass_kg": dm, "other_set_wall_K": do}
@@ -434,11 +563,19 @@ func pareto(pts []optPoint) []optPoint {
 	return out
 }
 
-func frontJSON(f []optPoint) []map[string]float64 {
+func frontJSON(f []optPoint, sets []optSet) []map[string]float64 {
 	var out []map[string]float64
 	for _, p := range f {
-		out = append(out, map[string]float64{"fin_mass_kg": p.mass, "wall_K": p.t, "pitch_m": p.x[0], "height_m": p.x[1],
-			"root_thickness_m": p.x[2], "tip_thickness_m": p.x[3], "count": p.x[4]})
+		m := map[string]float64{"fin_mass_kg": p.mass, "wall_K": p.t}
+		for _, o := range sets {
+			pre := ""
+			if len(sets) > 1 {
+				pre = o.name + "_"
+			}
+			y := p.x[o.off : o.off+5]
+			m[pre+"pitch_m"], m[pre+"height_m"], m[pre+"root_thickness_m"], m[pre+"tip_thickness_m"], m[pre+"count"] = y[0], y[1], y[2], y[3], y[4]
+		}
+		out = append(out, m)
 	}
 	return out
 }

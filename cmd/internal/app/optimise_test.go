@@ -174,3 +174,79 @@ func TestOptimiseSeriesKeepsOtherLimit(t *testing.T) {
 		t.Errorf("barrel at %.2f C over its 150 C limit (head %.2f C)", o.Optimum.Other-273.15, o.Optimum.Wall-273.15)
 	}
 }
+
+// --set both varies head and barrel fins together. On the laid-over demo,
+// with every variable but the two pitches held (the bounds flags apply to
+// both sets), the optimum keeps the casting limits and the barrel's limit
+// on both sets and is no worse than the best point of a 17 x 17 grid of
+// head pitch by barrel pitch over the same bounds.
+func TestOptimiseBothAgainstFineGrid(t *testing.T) {
+	_, lo := designs(t)
+	out, errs, code := run(t, "optimise", lo, "--set", "both", "--goal", "cool", "-f", "json",
+		"--pitch", "8mm:12mm", "--height", "30mm:30mm", "--root-thickness", "3.5mm:3.5mm", "--tip-thickness", "2mm:2mm", "--count", "22:22")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	type setJ struct {
+		Pitch float64 `json:"pitch_m"`
+		Count int     `json:"count"`
+	}
+	var v struct {
+		Optimum struct {
+			Head, Barrel setJ
+			HeadWall     float64 `json:"head_wall_K"`
+			BarrelWall   float64 `json:"barrel_wall_K"`
+		} `json:"optimum"`
+	}
+	if err := json.Unmarshal([]byte(out), &v); err != nil {
+		t.Fatal(err)
+	}
+	o := v.Optimum
+	d, _ := design.Parse(demo.LaidOver, "l.toml")
+	p, _ := fins.LookupProcess("permanent-mould")
+	vals := func(hp, bp float64) map[string]float64 {
+		m := map[string]float64{"head.pitch": hp, "barrel.pitch": bp}
+		for _, s := range []string{"head", "barrel"} {
+			m[s+".height"], m[s+".root_thickness"], m[s+".tip_thickness"], m[s+".count"] = 0.03, 0.0035, 0.002, 22
+		}
+		return m
+	}
+	for _, q := range []struct {
+		name string
+		s    fins.Set
+		p    float64
+	}{{"head", d.Case.Head.Set, o.Head.Pitch}, {"barrel", d.Case.Barrel.Set, o.Barrel.Pitch}} {
+		s := q.s
+		s.Pitch, s.Height, s.RootThickness, s.TipThickness, s.Count = q.p, 0.03, 0.0035, 0.002, 22
+		if !p.Feasible(s) || q.p < 0.008-1e-12 || q.p > 0.012+1e-12 {
+			t.Errorf("%s at %.5f m pitch: outside the bounds or the casting limits %+v", q.name, q.p, p.Check(s))
+		}
+	}
+	if o.BarrelWall > d.BarrelLimit+1e-6 {
+		t.Errorf("barrel %.2f K over its limit", o.BarrelWall)
+	}
+	best, bx := math.Inf(1), [2]float64{}
+	for i := 0; i <= 16; i++ {
+		for j := 0; j <= 16; j++ {
+			hp, bp := 0.008+0.004*float64(i)/16, 0.008+0.004*float64(j)/16
+			vd, err := d.With(vals(hp, bp))
+			if err != nil {
+				continue
+			}
+			r, err := evaluate(vd, vd.Case.Speed)
+			if err != nil || r.err != nil || r.res.Barrel.WallTemp > d.BarrelLimit {
+				continue
+			}
+			if r.res.Head.WallTemp < best {
+				best, bx = r.res.Head.WallTemp, [2]float64{hp, bp}
+			}
+		}
+	}
+	if o.HeadWall > best+1e-6 {
+		t.Errorf("optimum head %.3f K at pitches %.5f/%.5f m; the grid has %.3f K at %.5f/%.5f m", o.HeadWall, o.Head.Pitch, o.Barrel.Pitch, best, bx[0], bx[1])
+	}
+	// ten variables at five levels is too big a grid
+	if _, errs, code := run(t, "optimise", lo, "--set", "both", "--levels", "5"); code != ExitUsage || !strings.Contains(errs, "at most 2 million") {
+		t.Errorf("--levels 5: exit %d, %s", code, errs)
+	}
+}
