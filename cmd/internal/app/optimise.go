@@ -299,14 +299,13 @@ func (e *env) optimise(d *design.Design, names []string, goal string, p fins.Pro
 	L := func(v float64) string { return output.Num(u.Len(v), u.LenDec()+1) }
 	if math.IsInf(res.F, 1) {
 		why := "no design within the bounds and casting limits reaches an equilibrium"
+		if goal == "light" {
+			why = fmt.Sprintf("no design within the bounds and casting limits keeps the %s at or below %s %s", primary, fmtT(u, limit), u.TempU())
+		}
 		if guardOther {
 			why += fmt.Sprintf(" with the %s at or below its %s %s", other, fmtT(u, otherLimit), u.TempU())
 		}
 		if goal == "light" {
-			why = fmt.Sprintf("no design within the bounds and casting limits keeps the %s at or below %s %s", primary, fmtT(u, limit), u.TempU())
-			if guardOther {
-				why += fmt.Sprintf(" with the %s at or below its %s %s", other, fmtT(u, otherLimit), u.TempU())
-			}
 			// say how close it came
 			best := optPoint{t: math.Inf(1)}
 			for _, q := range pts {
