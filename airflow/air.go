@@ -1,7 +1,3 @@
-// Package airflow holds the air side: dry-air properties, the standard
-// atmosphere, the convection and radiation correlations, and (in later
-// files) the passage flow, the air-temperature march and the heat balance.
-// SI units throughout: K, Pa, m, m/s, W.
 package airflow
 
 import (
@@ -53,12 +49,12 @@ type Air struct {
 // Valid 250-1000 K (checked, with a warning outside) and any pressure at
 // which air is an ideal gas (checked 1 kPa to 1 MPa).
 func Properties(T, p float64, log *validity.Log) Air {
-	log.Check(propsName, propsTemp, T, 250, 1000)
+	log.Check(PropertiesName, PropertiesTemperature, T, 250, 1000)
 	log.Check("air properties (ideal gas)", "pressure Pa", p, 1e3, 1e6)
 	var a Air
 	a.T, a.P = T, p
 	a.Rho = p / (RAir * T)
-	a.Mu, a.K, a.Cp = transport(T)
+	a.Mu, a.K, a.Cp = Transport(T)
 	a.Pr = a.Mu * a.Cp / a.K
 	a.Nu = a.Mu / a.Rho
 	a.Alpha = a.K / (a.Rho * a.Cp)
@@ -66,14 +62,18 @@ func Properties(T, p float64, log *validity.Log) Air {
 	return a
 }
 
+// The name and quantity under which Properties checks its temperature
+// range, for callers of Transport that check it themselves.
 const (
-	propsName = "air properties (Sutherland / Cengel cp)"
-	propsTemp = "temperature K"
+	PropertiesName        = "air properties (Sutherland / Cengel cp)"
+	PropertiesTemperature = "temperature K"
 )
 
-// transport returns the viscosity (Pa s), conductivity (W/(m K)) and cp
-// (J/(kg K)) of Properties at T (K), for callers that need no more.
-func transport(T float64) (mu, k, cp float64) {
+// Transport returns the viscosity (Pa s), conductivity (W/(m K)) and cp
+// (J/(kg K)) of Properties at T (K), for callers that need no more (the
+// march's inner loop). It checks no range: check T against 250-1000 K
+// under PropertiesName where a warning is wanted.
+func Transport(T float64) (mu, k, cp float64) {
 	r := T / 273.15
 	r15 := r * math.Sqrt(r) // (T/T0)^1.5
 	mu = 1.716e-5 * r15 * (273.15 + 110.4) / (T + 110.4)

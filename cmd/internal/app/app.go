@@ -13,7 +13,7 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"finmarch/airflow"
+	"finmarch/airflow/cylinder"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
 )
@@ -293,7 +293,7 @@ func writeFile(path string, data []byte, force bool) error {
 
 // modelError maps a physics error to an exit error with advice.
 func modelError(name string, err error) error {
-	if errors.Is(err, airflow.ErrNoEquilibrium) {
+	if errors.Is(err, cylinder.ErrNoEquilibrium) {
 		return fail(ExitModel, fmt.Errorf("%s: %w", name, err))
 	}
 	return fail(ExitModel, fmt.Errorf("%s: the model failed: %w", name, err))

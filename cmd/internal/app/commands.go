@@ -7,7 +7,7 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"finmarch/airflow"
+	"finmarch/airflow/cylinder"
 	"finmarch/cmd/internal/demo"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
@@ -123,51 +123,51 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 			output.Num(u.Alt(d.Altitude), 0), u.AltU(), output.Num(u.Press(c.Pressure), 1), u.PressU(), c.Tilt*180/math.Pi),
 		Caution: true,
 	}
-	pair := func(f func(r airflow.SetResult) string) []string { return []string{f(h), f(b)} }
+	pair := func(f func(r cylinder.SetResult) string) []string { return []string{f(h), f(b)} }
 	row := func(q, unit string, vals []string) []string { return append([]string{q, unit}, vals...) }
 	g := output.Grid{Title: "Heat balance per fin set", Header: []string{"quantity", "unit", "head", "barrel"}, Left: 2}
 	if o.fixed {
-		g.Rows = append(g.Rows, row("wall temperature (given)", u.TempU(), pair(func(r airflow.SetResult) string { return fmtT(u, r.WallTemp) })))
+		g.Rows = append(g.Rows, row("wall temperature (given)", u.TempU(), pair(func(r cylinder.SetResult) string { return fmtT(u, r.WallTemp) })))
 	} else {
 		g.Rows = append(g.Rows,
-			row("heat load", "W", pair(func(r airflow.SetResult) string { return output.Num(r.HeatLoad, 0) })))
+			row("heat load", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.HeatLoad, 0) })))
 	}
 	g.Rows = append(g.Rows,
-		row("heat rejected", "W", pair(func(r airflow.SetResult) string { return output.Num(r.HeatRejected, 0) })),
-		row("  by convection", "W", pair(func(r airflow.SetResult) string { return output.Num(r.ConvectionHeat, 0) })),
-		row("    forced alone", "W", pair(func(r airflow.SetResult) string { return output.Num(r.ForcedHeat, 0) })),
-		row("    natural alone", "W", pair(func(r airflow.SetResult) string { return output.Num(r.NaturalHeat, 0) })),
-		row("  by radiation", "W", pair(func(r airflow.SetResult) string { return output.Num(r.RadiationHeat, 0) })),
+		row("heat rejected", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.HeatRejected, 0) })),
+		row("  by convection", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.ConvectionHeat, 0) })),
+		row("    forced alone", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.ForcedHeat, 0) })),
+		row("    natural alone", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.NaturalHeat, 0) })),
+		row("  by radiation", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.RadiationHeat, 0) })),
 	)
 	if !o.fixed {
 		g.Rows = append(g.Rows,
-			row("wall temperature at fin roots", u.TempU(), pair(func(r airflow.SetResult) string { return fmtT(u, r.WallTemp) })),
+			row("wall temperature at fin roots", u.TempU(), pair(func(r cylinder.SetResult) string { return fmtT(u, r.WallTemp) })),
 			row("limit", u.TempU(), []string{fmtT(u, d.HeadLimit), fmtT(u, d.BarrelLimit)}),
 			row("margin to limit", u.TempDiffU(), []string{fmtDT(u, o.headMargin()), fmtDT(u, o.barrelMargin())}),
 			row("status", "", []string{setStatus(o.err, h, o.headMargin()), setStatus(o.err, b, o.barrelMargin())}),
 		)
 	}
 	g.Rows = append(g.Rows,
-		row("air at inlet", u.TempU(), pair(func(r airflow.SetResult) string { return fmtT(u, r.AirIn) })),
-		row("air at outlet", u.TempU(), pair(func(r airflow.SetResult) string { return fmtT(u, r.AirOut) })),
-		row("air rise along the path", u.TempDiffU(), pair(func(r airflow.SetResult) string { return fmtDT(u, r.AirOut-r.AirIn) })),
-		row("road speed along the fins", u.RoadU(), pair(func(r airflow.SetResult) string { return output.Num(u.Road(r.ApproachComponent), 0) })),
-		row("passage velocity", u.VelU(), pair(func(r airflow.SetResult) string { return output.Num(u.Vel(r.PassageVelocity), 2) })),
-		row("Reynolds number (2 x gap)", "-", pair(func(r airflow.SetResult) string { return output.Num(r.Reynolds, 0) })),
-		row("flow regime", "", pair(func(r airflow.SetResult) string { return r.Regime })),
-		row("air paths x path length", u.LenU(), pair(func(r airflow.SetResult) string {
+		row("air at inlet", u.TempU(), pair(func(r cylinder.SetResult) string { return fmtT(u, r.AirIn) })),
+		row("air at outlet", u.TempU(), pair(func(r cylinder.SetResult) string { return fmtT(u, r.AirOut) })),
+		row("air rise along the path", u.TempDiffU(), pair(func(r cylinder.SetResult) string { return fmtDT(u, r.AirOut-r.AirIn) })),
+		row("road speed along the fins", u.RoadU(), pair(func(r cylinder.SetResult) string { return output.Num(u.Road(r.ApproachComponent), 0) })),
+		row("passage velocity", u.VelU(), pair(func(r cylinder.SetResult) string { return output.Num(u.Vel(r.PassageVelocity), 2) })),
+		row("Reynolds number (2 x gap)", "-", pair(func(r cylinder.SetResult) string { return output.Num(r.Reynolds, 0) })),
+		row("flow regime", "", pair(func(r cylinder.SetResult) string { return r.Regime })),
+		row("air paths x path length", u.LenU(), pair(func(r cylinder.SetResult) string {
 			dec := 0
 			if u.US {
 				dec = 1
 			}
 			return fmt.Sprintf("%d x %s", r.Paths, output.Num(u.Len(r.PathLength), dec))
 		})),
-		row("mean h (forced)", u.HU(), pair(func(r airflow.SetResult) string { return output.Num(u.H(r.MeanH), 1) })),
-		row("fin efficiency", "-", pair(func(r airflow.SetResult) string { return output.Num(r.FinEfficiency, 3) })),
-		row("surface efficiency", "-", pair(func(r airflow.SetResult) string { return output.Num(r.SurfaceEfficiency, 3) })),
-		row("finned surface (fins + base)", u.AreaU(), pair(func(r airflow.SetResult) string { return output.Num(u.Area(r.TotalArea), 3) })),
-		row("fin mass", u.MassU(), pair(func(r airflow.SetResult) string { return output.Num(u.Mass(r.FinMass), 2) })),
-		row("heat per mass of fin", u.PerMassU(), pair(func(r airflow.SetResult) string { return output.Num(u.PerMass(r.HeatRejected/r.FinMass), 0) })),
+		row("mean h (forced)", u.HU(), pair(func(r cylinder.SetResult) string { return output.Num(u.H(r.MeanH), 1) })),
+		row("fin efficiency", "-", pair(func(r cylinder.SetResult) string { return output.Num(r.FinEfficiency, 3) })),
+		row("surface efficiency", "-", pair(func(r cylinder.SetResult) string { return output.Num(r.SurfaceEfficiency, 3) })),
+		row("finned surface (fins + base)", u.AreaU(), pair(func(r cylinder.SetResult) string { return output.Num(u.Area(r.TotalArea), 3) })),
+		row("fin mass", u.MassU(), pair(func(r cylinder.SetResult) string { return output.Num(u.Mass(r.FinMass), 2) })),
+		row("heat per mass of fin", u.PerMassU(), pair(func(r cylinder.SetResult) string { return output.Num(u.PerMass(r.HeatRejected/r.FinMass), 0) })),
 	)
 	doc.Grids = append(doc.Grids, g)
 	if !o.fixed && !d.Load.Direct {
@@ -228,7 +228,7 @@ func energyNote(imb float64) string {
 	return "Energy check: heat taken from the metal equals the air's enthalpy rise to " + v + " (relative)."
 }
 
-func setStatus(err error, r airflow.SetResult, margin float64) string {
+func setStatus(err error, r cylinder.SetResult, margin float64) string {
 	switch {
 	case err != nil && r.HeatRejected < r.HeatLoad:
 		return "NO EQUILIBRIUM"
@@ -241,10 +241,10 @@ func setStatus(err error, r airflow.SetResult, margin float64) string {
 }
 
 // orientationNote says in words how the air reaches the fins.
-func orientationNote(d *design.Design, r airflow.Result) string {
+func orientationNote(d *design.Design, r cylinder.Result) string {
 	tilt := d.Case.Tilt * 180 / math.Pi
 	var parts []string
-	for _, s := range []airflow.SetResult{r.Head, r.Barrel} {
+	for _, s := range []cylinder.SetResult{r.Head, r.Barrel} {
 		switch {
 		case s.Style == "annular":
 			parts = append(parts, fmt.Sprintf("the %s's annular fins take the road-speed share in their plane (cos %.0f deg = %.2f) on %d short paths round half the circumference, each fed with ambient air",
@@ -475,9 +475,9 @@ func (e *env) tilt(d *design.Design, step float64) error {
 		Header: []string{"tilt (deg)", "annular head (" + T + ")", "annular barrel (" + T + ")", "longitudinal head (" + T + ")", "longitudinal barrel (" + T + ")", "cooler style"}}
 	var warns [][]string
 	var rows []map[string]any
-	cell := func(o outcome, r airflow.SetResult) string {
+	cell := func(o outcome, r cylinder.SetResult) string {
 		if o.err != nil && r.HeatRejected < r.HeatLoad {
-			return "over " + fmtT(u, airflow.SaneWallLimit)
+			return "over " + fmtT(u, cylinder.SaneWallLimit)
 		}
 		return fmtT(u, r.WallTemp)
 	}
@@ -545,7 +545,7 @@ func (e *env) march(d *design.Design) error {
 	T, L := u.TempU(), u.LenU()
 	g := output.Grid{Title: "March along one air path of each fin set (heat and flux summed over all parallel paths)",
 		Header: []string{"set", "segment", "x (" + L + ")", "air in (" + T + ")", "air out (" + T + ")", "h (" + u.HU() + ")", "fin eff", "flux (" + u.FluxU() + ")", "heat (W)"}, Left: 1}
-	for _, s := range []airflow.SetResult{o.res.Head, o.res.Barrel} {
+	for _, s := range []cylinder.SetResult{o.res.Head, o.res.Barrel} {
 		for i, sg := range s.March {
 			g.Rows = append(g.Rows, []string{s.Name, fmt.Sprint(i + 1), output.Num(u.Len(sg.X), u.LenDec()), fmtT(u, sg.AirIn), fmtT(u, sg.AirOut),
 				output.Num(u.H(sg.H), 1), output.Num(sg.FinEff, 3), output.Num(u.Flux(sg.Flux), 0), output.Num(sg.Heat, 1)})
@@ -554,7 +554,7 @@ func (e *env) march(d *design.Design) error {
 	doc := output.Doc{Title: fmt.Sprintf("%s: march at %s %s (head wall %s %s, barrel wall %s %s)", d.Name,
 		output.Num(u.Road(d.Case.Speed), 0), u.RoadU(), fmtT(u, o.res.Head.WallTemp), T, fmtT(u, o.res.Barrel.WallTemp), T),
 		Grids: []output.Grid{g}, Caution: true}
-	for _, s := range []airflow.SetResult{o.res.Head, o.res.Barrel} {
+	for _, s := range []cylinder.SetResult{o.res.Head, o.res.Barrel} {
 		if len(s.March) == 0 {
 			doc.Notes = append(doc.Notes, fmt.Sprintf("The %s fins get no forced flow at this tilt and speed: natural convection and radiation only.", s.Name))
 			continue
@@ -634,10 +634,10 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 		ht, bt := fmtT(u, o.res.Head.WallTemp), fmtT(u, o.res.Barrel.WallTemp)
 		if o.err != nil {
 			if o.res.Head.HeatRejected < o.res.Head.HeatLoad {
-				ht = "over " + fmtT(u, airflow.SaneWallLimit)
+				ht = "over " + fmtT(u, cylinder.SaneWallLimit)
 			}
 			if o.res.Barrel.HeatRejected < o.res.Barrel.HeatLoad {
-				bt = "over " + fmtT(u, airflow.SaneWallLimit)
+				bt = "over " + fmtT(u, cylinder.SaneWallLimit)
 			}
 		}
 		st, margin := o.status(), fmtDT(u, o.headMargin())
@@ -653,8 +653,8 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 		Grids: []output.Grid{g}, Caution: true}
 	if !d.Load.Direct {
 		note := "The heat load follows the road load at each speed."
-		if d.Load.IdleSet {
-			note += fmt.Sprintf(" It never falls below load.idle_heat = %.0f W, the engine at idle.", d.Load.Idle)
+		if d.Load.Road.IdleHeat > 0 {
+			note += fmt.Sprintf(" It never falls below load.idle_heat = %.0f W, the engine at idle.", d.Load.Road.IdleHeat)
 		} else if from == 0 {
 			note += " At 0 speed the road load is nil: set load.idle_heat (heat to the fins at idle) for an idle check."
 		}
@@ -669,7 +669,7 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 }
 
 // summary drops the march arrays from a set result for compact JSON rows.
-func summary(r airflow.SetResult) airflow.SetResult {
+func summary(r cylinder.SetResult) cylinder.SetResult {
 	r.March = nil
 	return r
 }

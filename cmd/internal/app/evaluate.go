@@ -5,15 +5,15 @@ import (
 	"fmt"
 	"math"
 
-	"finmarch/airflow"
+	"finmarch/airflow/cylinder"
 	"finmarch/cmd/internal/design"
 )
 
 // outcome is one design evaluated at one condition.
 type outcome struct {
 	d     *design.Design
-	load  airflow.HeatLoad
-	res   airflow.Result
+	load  cylinder.HeatLoad
+	res   cylinder.Result
 	err   error // ErrNoEquilibrium (result still filled) or nil
 	fixed bool  // wall temperatures were given; heat is the result
 	speed float64
@@ -29,29 +29,30 @@ func evaluate(d *design.Design, v float64) (outcome, error) {
 // evaluateWith is evaluate with a fin-efficiency curve cache (nil for none),
 // for a goroutine that evaluates many variants, and with totalsOnly leaving
 // out the march profile that only single-design reports show.
-func evaluateWith(d *design.Design, v float64, cache *airflow.CurveCache, totalsOnly bool) (outcome, error) {
+func evaluateWith(d *design.Design, v float64, cache *cylinder.Workspace, totalsOnly bool) (outcome, error) {
 	c := d.Case
 	c.Speed = v
-	c.Curves = cache
-	c.TotalsOnly = totalsOnly
+	set := d.Run
+	set.Workspace = cache
+	set.TotalsOnly = totalsOnly
 	o := outcome{d: d, speed: v, fixed: d.WallFixed}
 	if d.WallFixed {
-		r, err := c.AtWall(d.HeadWall, d.BarrelWall)
+		r, err := c.AtWall(d.HeadWall, d.BarrelWall, set)
 		if err != nil {
 			return o, err
 		}
 		o.res = r
 		return o, nil
 	}
-	load, err := d.Heat(v)
+	load, err := d.Load.At(c)
 	if err != nil {
 		return o, err
 	}
 	o.load = load
-	r, err := c.Balance(load)
+	r, err := c.Balance(load, set)
 	o.res = r
 	if err != nil {
-		if errors.Is(err, airflow.ErrNoEquilibrium) {
+		if errors.Is(err, cylinder.ErrNoEquilibrium) {
 			o.err = err
 			return o, nil
 		}

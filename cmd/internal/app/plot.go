@@ -9,7 +9,7 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"finmarch/airflow"
+	"finmarch/airflow/cylinder"
 	"finmarch/cmd/internal/demo"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
@@ -149,7 +149,7 @@ func (e *env) marchFigure(ds []*design.Design) (*plots.Figure, error) {
 		if err := o.check(); err != nil {
 			return nil, fail(ExitInternal, err)
 		}
-		for k, s := range []airflow.SetResult{o.res.Head, o.res.Barrel} {
+		for k, s := range []cylinder.SetResult{o.res.Head, o.res.Barrel} {
 			if len(s.March) == 0 {
 				continue
 			}

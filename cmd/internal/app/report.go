@@ -127,13 +127,13 @@ func inputTable(d *design.Design, u output.Units) htmlTable {
 	both("ambient", fmtT(u, c.Ambient)+" "+u.TempU())
 	both("air pressure", output.Num(u.Press(c.Pressure), 1)+" "+u.PressU())
 	if d.Load.Direct {
-		both("heat load head / barrel", output.Num(d.Load.Head, 0)+" / "+output.Num(d.Load.Barrel, 0)+" W")
+		both("heat load head / barrel", output.Num(d.Load.Given.Head, 0)+" / "+output.Num(d.Load.Given.Barrel, 0)+" W")
 	} else {
 		r := d.Load.Road
 		both("road load", fmt.Sprintf("%s %s, CdA %.3g m2, Crr %.3g, driveline %.2f, brake thermal %.2f, cooling share %.2f, head share %.2f, %d cylinder(s)",
 			output.Num(u.Mass(r.Mass), 0), u.MassU(), r.CdA, r.Crr, r.Driveline, r.Thermal, r.CoolShare, r.HeadShare, r.Cylinders))
 	}
-	both("march segments per path", fmt.Sprint(c.Segments))
+	both("march segments per path", fmt.Sprint(d.Run.Segments))
 	return t
 }
 

@@ -20,7 +20,7 @@ import (
 	"github.com/spf13/cobra"
 	"golang.org/x/term"
 
-	"finmarch/airflow"
+	"finmarch/airflow/cylinder"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
 	"finmarch/fins"
@@ -212,7 +212,7 @@ func runGrid(d *design.Design, axes []axis, total, workers int, fit bool, sink f
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			cache := airflow.NewCurveCache()
+			cache := cylinder.NewWorkspace()
 			vals := make(map[string]float64, len(axes)+2)
 			for sp := range jobs {
 				batch := make([]sweepRow, 0, sp.hi-sp.lo)
@@ -278,7 +278,7 @@ func fitCounts(d *design.Design, vals map[string]float64) {
 	}
 }
 
-func evalPoint(d *design.Design, axes []axis, i int, vals map[string]float64, fit bool, cache *airflow.CurveCache) sweepRow {
+func evalPoint(d *design.Design, axes []axis, i int, vals map[string]float64, fit bool, cache *cylinder.Workspace) sweepRow {
 	r := sweepRow{idx: i, vals: make([]float64, len(axes))}
 	j := i
 	for k := len(axes) - 1; k >= 0; k-- {

@@ -15,6 +15,7 @@ import (
 	"github.com/BurntSushi/toml"
 
 	"finmarch/airflow"
+	"finmarch/airflow/cylinder"
 	"finmarch/fins"
 	"finmarch/materials"
 )
@@ -105,21 +106,13 @@ type AlloyT struct {
 	MaxService        Q[Temperature]  `toml:"max_service"`
 }
 
-// LoadSpec is the heat load as the design gives it.
-type LoadSpec struct {
-	Direct       bool
-	Head, Barrel float64 // W, when Direct
-	Road         airflow.RoadLoad
-	Idle         float64 // W to the fins of one cylinder at idle, the least the road load gives (road load only)
-	IdleSet      bool
-}
-
 // Design is a checked design, ready for the physics.
 type Design struct {
 	Name        string
 	Source      string
-	Case        airflow.Case
-	Load        LoadSpec
+	Case        cylinder.Case
+	Run         cylinder.Settings // segments; the command line adds caches and totals-only per use
+	Load        cylinder.Load
 	HeadLimit   float64 // K
 	BarrelLimit float64 // K
 	Altitude    float64 // m (0 when the pressure was given)
@@ -137,25 +130,15 @@ type Design struct {
 // OverrideSegments sets the march segments from the command line; designs
 // derived by With keep it.
 func (d *Design) OverrideSegments(n int) {
-	d.Case.Segments = n
+	d.Run.Segments = n
 	d.segOverride = true
 }
 
-// Heat returns the heat load at the design's speed, or at speed v (m/s).
-func (d *Design) Heat(v float64) (airflow.HeatLoad, error) {
-	if d.Load.Direct {
-		return airflow.HeatLoad{Head: d.Load.Head, Barrel: d.Load.Barrel}, nil
-	}
-	rho := d.Case.Pressure / (airflow.RAir * d.Case.Ambient)
-	l, err := d.Load.Road.Heat(v, rho)
-	if err != nil {
-		return l, err
-	}
-	// the engine never rejects less than at idle
-	if h := d.Load.Road.HeadShare; d.Load.IdleSet && l.Head+l.Barrel < d.Load.Idle {
-		l.Head, l.Barrel = h*d.Load.Idle, (1-h)*d.Load.Idle
-	}
-	return l, nil
+// Heat returns the heat load at speed v (m/s) in the design's air.
+func (d *Design) Heat(v float64) (cylinder.HeatLoad, error) {
+	c := d.Case
+	c.Speed = v
+	return d.Load.At(c)
 }
 
 // Error is one problem in a design file.
@@ -472,9 +455,9 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 		return a, true
 	}
 
-	finSet := func(tbl string, t FinSetT, dia, length float64) airflow.FinSet {
+	finSet := func(tbl string, t FinSetT, dia, length float64) cylinder.FinSet {
 		key := func(field string) string { return setKey(tbl, field) }
-		fs := airflow.FinSet{Name: tbl}
+		fs := cylinder.FinSet{Name: tbl}
 		if !md.IsDefined(tbl) {
 			add(tbl, "missing table [%s]: the %s fin set (style, count, pitch, height, root_thickness, alloy)", tbl, tbl)
 			return fs
@@ -526,7 +509,7 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 
 	// air
 	c.Speed = need("air.speed", f.Air.Speed.raw(), f.Air.Speed.Set, 0, 400/3.6, "km/h", 1/3.6, 0)
-	c.Recovery = opt("air.pressure_recovery", f.Air.PressureRecovery.raw(), f.Air.PressureRecovery.Set, airflow.DefaultRecovery, 0.05, 1, "", 1, 0,
+	c.Recovery = opt("air.pressure_recovery", f.Air.PressureRecovery.raw(), f.Air.PressureRecovery.Set, cylinder.DefaultRecovery, 0.05, 1, "", 1, 0,
 		"0.5 (common practice for an uncowled cylinder; calibrate against a measured head temperature)")
 	c.Ambient = need("air.ambient", f.Air.Ambient.raw(), f.Air.Ambient.Set, -50+C, 60+C, "C", 1, C)
 	if f.Air.Pressure.Set && f.Air.Altitude.Set {
@@ -542,9 +525,9 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 		if f.Segments < 1 || f.Segments > 10000 {
 			add("segments", "%d; allowed 1 to 10000", f.Segments)
 		}
-		c.Segments = f.Segments
+		d.Run.Segments = f.Segments
 	} else {
-		c.Segments = airflow.DefaultSegments
+		d.Run.Segments = cylinder.DefaultSegments
 	}
 
 	// load
@@ -553,8 +536,8 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 		add("load", "missing table [load]: give head_heat and barrel_heat, or the road load (mass, cda)")
 	} else if l.HeadHeat.Set || l.BarrelHeat.Set {
 		d.Load.Direct = true
-		d.Load.Head = need("load.head_heat", l.HeadHeat.raw(), l.HeadHeat.Set, 0, 50e3, "kW", 1e3, 0)
-		d.Load.Barrel = need("load.barrel_heat", l.BarrelHeat.raw(), l.BarrelHeat.Set, 0, 50e3, "kW", 1e3, 0)
+		d.Load.Given.Head = need("load.head_heat", l.HeadHeat.raw(), l.HeadHeat.Set, 0, 50e3, "kW", 1e3, 0)
+		d.Load.Given.Barrel = need("load.barrel_heat", l.BarrelHeat.raw(), l.BarrelHeat.Set, 0, 50e3, "kW", 1e3, 0)
 		for _, k := range []struct {
 			k   string
 			set bool
@@ -567,15 +550,14 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 		r := &d.Load.Road
 		r.Mass = need("load.mass", l.Mass.raw(), l.Mass.Set, 30, 5000, "kg", 1, 0)
 		r.CdA = need("load.cda", l.CdA.raw(), l.CdA.Set, 0.05, 5, "m2", 1, 0)
-		r.Crr = opt("load.rolling_resistance", l.RollingResistance.raw(), l.RollingResistance.Set, airflow.DefaultCrr, 0.002, 0.1, "", 1, 0, "0.02 (common practice, road tyre on asphalt)")
-		r.Driveline = opt("load.driveline_efficiency", l.DrivelineEfficiency.raw(), l.DrivelineEfficiency.Set, airflow.DefaultDriveline, 0.5, 1, "", 1, 0, "0.90 (common practice, chain or belt drive)")
-		r.Thermal = opt("load.thermal_efficiency", l.ThermalEfficiency.raw(), l.ThermalEfficiency.Set, airflow.DefaultThermal, 0.1, 0.45, "", 1, 0, "0.25 (Heywood 1988, part-load SI; from memory)")
-		r.CoolShare = opt("load.cooling_share", l.CoolingShare.raw(), l.CoolingShare.Set, airflow.DefaultCoolShare, 0.05, 0.6, "", 1, 0, "0.22 (Heywood 1988 Table 12.1; from memory)")
-		r.HeadShare = opt("load.head_share", l.HeadShare.raw(), l.HeadShare.Set, airflow.DefaultHeadShare, 0, 1, "", 1, 0, "0.65 (common practice)")
+		r.Crr = opt("load.rolling_resistance", l.RollingResistance.raw(), l.RollingResistance.Set, cylinder.DefaultCrr, 0.002, 0.1, "", 1, 0, "0.02 (common practice, road tyre on asphalt)")
+		r.Driveline = opt("load.driveline_efficiency", l.DrivelineEfficiency.raw(), l.DrivelineEfficiency.Set, cylinder.DefaultDriveline, 0.5, 1, "", 1, 0, "0.90 (common practice, chain or belt drive)")
+		r.Thermal = opt("load.thermal_efficiency", l.ThermalEfficiency.raw(), l.ThermalEfficiency.Set, cylinder.DefaultThermal, 0.1, 0.45, "", 1, 0, "0.25 (Heywood 1988, part-load SI; from memory)")
+		r.CoolShare = opt("load.cooling_share", l.CoolingShare.raw(), l.CoolingShare.Set, cylinder.DefaultCoolShare, 0.05, 0.6, "", 1, 0, "0.22 (Heywood 1988 Table 12.1; from memory)")
+		r.HeadShare = opt("load.head_share", l.HeadShare.raw(), l.HeadShare.Set, cylinder.DefaultHeadShare, 0.05, 1, "", 1, 0, "0.65 (common practice)")
 		r.GradePct = opt("load.grade", l.Grade.raw(), l.Grade.Set, 0, -20, 20, "%", 1, 0, "0 % (level road)")
 		if l.IdleHeat.Set {
-			d.Load.IdleSet = true
-			d.Load.Idle = opt("load.idle_heat", l.IdleHeat.raw(), true, 0, 0, 20e3, "kW", 1e3, 0, "")
+			r.IdleHeat = opt("load.idle_heat", l.IdleHeat.raw(), true, 0, 0, 20e3, "kW", 1e3, 0, "")
 		}
 		r.ExtraPowerW = opt("load.extra_power", l.ExtraPower.raw(), l.ExtraPower.Set, 0, 0, 100e3, "kW", 1e3, 0, "0 W")
 		r.Cylinders = 1
@@ -623,7 +605,7 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 	// cross-field rules
 	for _, s := range []struct {
 		tbl string
-		fs  airflow.FinSet
+		fs  cylinder.FinSet
 	}{{"head", c.Head}, {"barrel", c.Barrel}} {
 		set := s.fs.Set
 		if set.Height > 0 && set.RootDiameter > 0 && set.Height > set.RootDiameter {

@@ -152,10 +152,10 @@ func TestDefaults(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if d.Case.Tilt != 0 || d.Case.Recovery != 0.5 || d.Case.Segments != 40 || d.Case.Head.Set.TipThickness != 0.004 {
+	if d.Case.Tilt != 0 || d.Case.Recovery != 0.5 || d.Run.Segments != 40 || d.Case.Head.Set.TipThickness != 0.004 {
 		t.Errorf("defaults wrong: %+v", d.Case)
 	}
-	if d.HeadLimit != d.Case.Head.Alloy.MaxService || !d.Load.Direct || d.Load.Head != 2000 {
+	if d.HeadLimit != d.Case.Head.Alloy.MaxService || !d.Load.Direct || d.Load.Given.Head != 2000 {
 		t.Error("limit or load default wrong")
 	}
 	if len(d.Defaults) < 4 {
@@ -292,8 +292,8 @@ func TestIdleHeat(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if !d.Load.IdleSet || d.Load.Idle != 500 {
-		t.Fatalf("idle heat %g", d.Load.Idle)
+	if d.Load.Road.IdleHeat != 500 {
+		t.Fatalf("idle heat %g", d.Load.Road.IdleHeat)
 	}
 	for _, v := range []float64{0, 3, 25} {
 		l, err := d.Heat(v)

@@ -159,8 +159,8 @@ func (d *Design) With(values map[string]float64) (*Design, error) {
 	// the variant keeps its own decoded file, so that a variant of it
 	// carries this one's changes too
 	nd.file, nd.md, nd.loc = &f, d.md, d.loc
-	if d.Case.Segments != 0 && !hasKey(values, "segments") && d.segOverride {
-		nd.Case.Segments, nd.segOverride = d.Case.Segments, true
+	if d.Run.Segments != 0 && !hasKey(values, "segments") && d.segOverride {
+		nd.Run.Segments, nd.segOverride = d.Run.Segments, true
 	}
 	return nd, nil
 }

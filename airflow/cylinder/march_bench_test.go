@@ -1,4 +1,4 @@
-package airflow
+package cylinder
 
 import "testing"
 
@@ -6,14 +6,15 @@ import "testing"
 // filled: the unit the wall balance repeats.
 func BenchmarkMarch(b *testing.B) {
 	c := demoCase(b, false)
-	p, err := c.prepare(nil)
+	p, err := c.prepare(Settings{}, nil)
 	if err != nil {
 		b.Fatal(err)
 	}
-	p.setHeat(c.Head, p.hg, p.hc, p.hp, 480, c.Ambient, p.hm, false)
+	st := &p.sets[head]
+	p.setHeat(st, 480, c.Ambient, false)
 	b.ReportAllocs()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		p.march(c.Head, p.hg, p.hc, p.hp, 480+float64(i&1)*1e-3, c.Ambient, p.hm, false)
+		p.march(st, 480+float64(i&1)*1e-3, c.Ambient, false)
 	}
 }

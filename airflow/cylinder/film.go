@@ -1,6 +1,10 @@
-package airflow
+package cylinder
 
-import "math"
+import (
+	"math"
+
+	"finmarch/airflow"
+)
 
 // The march evaluates the developing-flow correlation once per segment at
 // film properties that change little from one segment to the next (the
@@ -45,8 +49,11 @@ var (
 	bPr23    = newBinom(2.0 / 3)
 	bMu114   = newBinom(-1.14) // Re = reC/mu, so Re^a = (reC/mu)^a
 	bMu064   = newBinom(-0.64)
-	reLam114 = math.Pow(ReLaminar, 1.14)
-	reLam064 = math.Pow(ReLaminar, 0.64)
+	reLam114 = math.Pow(airflow.ReLaminar, 1.14)
+	reLam064 = math.Pow(airflow.ReLaminar, 0.64)
+	// the Petukhov factor at the turbulent end of transition
+	fTurb      = airflow.PetukhovFriction(airflow.ReTurbulent, nil)
+	sqrtF8Turb = math.Sqrt(fTurb / 8)
 )
 
 // filmPowers are the powers of the film Prandtl and Reynolds numbers of the
@@ -86,7 +93,7 @@ func (f *filmPowers) step(pr, mu, re float64) {
 	f.n++
 }
 
-// nuPowers is ChannelNu for the march's inner loop at a segment end with
+// nuPowers is airflow.ChannelNu for the march's inner loop at a segment end with
 // e1 = (x/Dh)^-1.14 and e2 = (x/Dh)^-0.64 and d23 = (Dh/x)^(2/3)
 // precomputed, and the film powers of f: Stephan's correlation written as
 //
@@ -101,14 +108,14 @@ func nuPowers(re float64, f *filmPowers, e1, e2, d23 float64) float64 {
 		return f8 * (re - 1000) * f.pr / (1 + 12.7*sf8*(f.pr23-1)) * (1 + d23)
 	}
 	switch {
-	case re <= ReLaminar:
+	case re <= airflow.ReLaminar:
 		return 7.55 + 0.024*e1*f.re114*f.pr114/(1+0.0358*e2*f.re064*f.pr081)
-	case re >= ReTurbulent:
-		fr := PetukhovFriction(re, nil)
+	case re >= airflow.ReTurbulent:
+		fr := airflow.PetukhovFriction(re, nil)
 		return gn(re, fr/8, math.Sqrt(fr/8))
 	}
 	nl := 7.55 + 0.024*e1*reLam114*f.pr114/(1+0.0358*e2*reLam064*f.pr081)
-	nt := gn(ReTurbulent, fTurb/8, sqrtF8Turb)
-	g := (re - ReLaminar) / (ReTurbulent - ReLaminar)
+	nt := gn(airflow.ReTurbulent, fTurb/8, sqrtF8Turb)
+	g := (re - airflow.ReLaminar) / (airflow.ReTurbulent - airflow.ReLaminar)
 	return (1-g)*nl + g*nt
 }

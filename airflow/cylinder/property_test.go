@@ -1,4 +1,4 @@
-package airflow
+package cylinder
 
 import (
 	"errors"
@@ -6,13 +6,14 @@ import (
 	"math/rand/v2"
 	"testing"
 
+	"finmarch/airflow"
 	"finmarch/fins"
 	"finmarch/materials"
 )
 
 // randomCase draws a valid design: feasible fin sets of either style, any
 // tilt, speed 0 to 200 km/h, ambient -30 to 50 C, altitude 0 to 4000 m.
-func randomCase(r *rand.Rand) (Case, HeatLoad) {
+func randomCase(r *rand.Rand) (Case, Settings, HeatLoad) {
 	all := materials.All()
 	u := func(lo, hi float64) float64 { return lo + (hi-lo)*r.Float64() }
 	set := func(d, l float64) fins.Set {
@@ -35,15 +36,16 @@ func randomCase(r *rand.Rand) (Case, HeatLoad) {
 	hd, bd := u(0.05, 0.2), u(0.04, 0.15)
 	c := Case{
 		Tilt: u(0, math.Pi/2), Speed: u(0, 200/3.6), Recovery: u(0.1, 1), Ambient: u(243, 323),
-		Pressure: ISA(u(0, 4000), nil).P, Segments: 5 + r.IntN(60),
-		Head:   FinSet{Name: "head", Alloy: all[r.IntN(len(all))], Emissivity: u(0.05, 1), Set: set(hd, u(0.02, 0.15))},
-		Barrel: FinSet{Name: "barrel", Alloy: all[r.IntN(len(all))], Emissivity: u(0.05, 1), Set: set(bd, u(0.02, 0.2))},
+		Pressure: airflow.ISA(u(0, 4000), nil).P,
+		Head:     FinSet{Name: "head", Alloy: all[r.IntN(len(all))], Emissivity: u(0.05, 1), Set: set(hd, u(0.02, 0.15))},
+		Barrel:   FinSet{Name: "barrel", Alloy: all[r.IntN(len(all))], Emissivity: u(0.05, 1), Set: set(bd, u(0.02, 0.2))},
 	}
+	s := Settings{Segments: 5 + r.IntN(60)}
 	if r.IntN(3) == 0 {
 		c.Speed = 0
-		return c, HeatLoad{Head: u(0, 300), Barrel: u(0, 150)}
+		return c, s, HeatLoad{Head: u(0, 300), Barrel: u(0, 150)}
 	}
-	return c, HeatLoad{Head: u(0, 3000), Barrel: u(0, 1500)}
+	return c, s, HeatLoad{Head: u(0, 3000), Barrel: u(0, 1500)}
 }
 
 // Over thousands of random valid designs: no panic, every output number
@@ -58,11 +60,11 @@ func TestRandomDesigns(t *testing.T) {
 	r := rand.New(rand.NewPCG(7, 11))
 	noEq := 0
 	for i := 0; i < n; i++ {
-		c, load := randomCase(r)
+		c, set, load := randomCase(r)
 		if _, err := c.Head.Set.Geometry(); err != nil {
 			t.Fatalf("generator made an invalid head: %v", err)
 		}
-		res, err := c.Balance(load)
+		res, err := c.Balance(load, set)
 		if err != nil {
 			if !errors.Is(err, ErrNoEquilibrium) {
 				t.Fatalf("case %d: %v\n%+v", i, err, c)

@@ -1,23 +1,47 @@
-package airflow
+package cylinder
 
 import (
 	"fmt"
 	"math"
+
+	"finmarch/airflow"
 )
 
 // RoadLoad describes a vehicle at steady cruise, for the heat the engine
-// must reject. SI units.
+// must reject. SI units. A zero coefficient, efficiency, share or count
+// means its sourced default (the Default constants below).
 type RoadLoad struct {
 	Mass        float64 // kg, vehicle with rider and load
 	CdA         float64 // m2, drag area
-	Crr         float64 // rolling-resistance coefficient, -
-	Driveline   float64 // drivetrain efficiency, wheel power / brake power, -
-	Thermal     float64 // brake thermal efficiency, brake power / fuel power, -
-	CoolShare   float64 // share of fuel power rejected through the fins, -
-	Cylinders   int     // number of cylinders sharing the load
-	HeadShare   float64 // share of one cylinder's fin heat through the head fins, -
+	Crr         float64 // rolling-resistance coefficient, -; 0 means DefaultCrr
+	Driveline   float64 // drivetrain efficiency, wheel power / brake power, -; 0 means DefaultDriveline
+	Thermal     float64 // brake thermal efficiency, brake power / fuel power, -; 0 means DefaultThermal
+	CoolShare   float64 // share of fuel power rejected through the fins, -; 0 means DefaultCoolShare
+	Cylinders   int     // number of cylinders sharing the load; 0 means 1
+	HeadShare   float64 // share of one cylinder's fin heat through the head fins, -; 0 means DefaultHeadShare
 	GradePct    float64 // road grade, per cent (0 on the level)
 	ExtraPowerW float64 // W at the wheel, e.g. a towed load or headwind allowance
+	// IdleHeat is the heat one cylinder's fins reject at idle, W: the
+	// least the road load gives (0: no floor).
+	IdleHeat float64
+}
+
+// withDefaults returns r with every zero that has a default replaced by it.
+func (r RoadLoad) withDefaults() RoadLoad {
+	def := func(v *float64, d float64) {
+		if *v == 0 {
+			*v = d
+		}
+	}
+	def(&r.Crr, DefaultCrr)
+	def(&r.Driveline, DefaultDriveline)
+	def(&r.Thermal, DefaultThermal)
+	def(&r.CoolShare, DefaultCoolShare)
+	def(&r.HeadShare, DefaultHeadShare)
+	if r.Cylinders == 0 {
+		r.Cylinders = 1
+	}
+	return r
 }
 
 // Road-load defaults with their sources.
@@ -58,21 +82,44 @@ type HeatLoad struct {
 //	Q_fins  = CoolShare P_fuel / cylinders, split HeadShare : 1 - HeadShare
 //
 // (road-load equation, e.g. Gillespie, Fundamentals of Vehicle Dynamics,
-// 1992, Ch. 4). At v = 0 the wheel power is zero and the engine is taken
-// at idle; give an idle load directly instead.
+// 1992, Ch. 4). The engine never rejects less than IdleHeat, split the
+// same way. At v = 0 the wheel power is zero and the engine is taken at
+// idle: give IdleHeat, or the load directly.
 func (r RoadLoad) Heat(v, rho float64) (HeatLoad, error) {
+	r = r.withDefaults()
 	if err := r.check(); err != nil {
 		return HeatLoad{}, err
 	}
 	a := math.Atan(r.GradePct / 100)
-	pw := (0.5*rho*r.CdA*v*v+r.Crr*r.Mass*G0*math.Cos(a)+r.Mass*G0*math.Sin(a))*v + r.ExtraPowerW
+	pw := (0.5*rho*r.CdA*v*v+r.Crr*r.Mass*airflow.G0*math.Cos(a)+r.Mass*airflow.G0*math.Sin(a))*v + r.ExtraPowerW
 	if pw < 0 {
 		pw = 0 // coasting downhill: no load from the road
 	}
 	pb := pw / r.Driveline
 	pf := pb / r.Thermal
 	q := r.CoolShare * pf / float64(r.Cylinders)
-	return HeatLoad{Head: r.HeadShare * q, Barrel: (1 - r.HeadShare) * q, WheelPower: pw, BrakePower: pb, FuelPower: pf}, nil
+	l := HeatLoad{Head: r.HeadShare * q, Barrel: (1 - r.HeadShare) * q, WheelPower: pw, BrakePower: pb, FuelPower: pf}
+	if h := r.HeadShare; r.IdleHeat > 0 && l.Head+l.Barrel < r.IdleHeat {
+		l.Head, l.Barrel = h*r.IdleHeat, (1-h)*r.IdleHeat
+	}
+	return l, nil
+}
+
+// Load is the heat load of one cylinder as a design gives it: the heats
+// directly, or the road load at the operating point.
+type Load struct {
+	Direct bool     // Given holds the heats; otherwise Road gives them
+	Given  HeatLoad // W, when Direct
+	Road   RoadLoad
+}
+
+// At returns the heat load of the case: Given, or the road load at the
+// case's road speed and the density of its ambient air.
+func (l Load) At(c Case) (HeatLoad, error) {
+	if l.Direct {
+		return HeatLoad{Head: l.Given.Head, Barrel: l.Given.Barrel}, nil
+	}
+	return l.Road.Heat(c.Speed, c.Pressure/(airflow.RAir*c.Ambient))
 }
 
 func (r RoadLoad) check() error {
@@ -84,7 +131,7 @@ func (r RoadLoad) check() error {
 		{"mass", r.Mass, 1, 50000}, {"cda", r.CdA, 0.01, 20}, {"rolling_resistance", r.Crr, 0, 0.5},
 		{"driveline_efficiency", r.Driveline, 0.3, 1}, {"thermal_efficiency", r.Thermal, 0.05, 0.6},
 		{"cooling_share", r.CoolShare, 0.01, 0.9}, {"head_share", r.HeadShare, 0, 1}, {"grade", r.GradePct, -30, 30},
-		{"extra_power", r.ExtraPowerW, 0, 1e6},
+		{"extra_power", r.ExtraPowerW, 0, 1e6}, {"idle_heat", r.IdleHeat, 0, 1e6},
 	} {
 		if math.IsNaN(c.v) || c.v < c.lo || c.v > c.hi {
 			return fmt.Errorf("road load: %s = %g outside %g to %g", c.k, c.v, c.lo, c.hi)

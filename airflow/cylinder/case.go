@@ -1,0 +1,180 @@
+package cylinder
+
+import (
+	"fmt"
+	"math"
+
+	"finmarch/airflow"
+	"finmarch/fins"
+	"finmarch/materials"
+)
+
+// Model constants with their sources.
+const (
+	// DefaultSegments is the number of march segments per air path.
+	DefaultSegments = 40
+	// SegmentGrading spaces the segment ends as L (i/N)^SegmentGrading,
+	// finer at the entrance where h falls steeply; the march result moves
+	// less with N than on a uniform grid (TestSegmentIndependence).
+	SegmentGrading = 2 // the march squares i/N directly
+	// DefaultEntryLoss is the loss coefficient of the sharp-edged passage
+	// entry, in velocity heads of the passage (Idelchik, Handbook of
+	// Hydraulic Resistance, 3rd ed. 1994, Diagram 3-1: 0.5 for a
+	// sharp-edged inlet; from memory).
+	DefaultEntryLoss = 0.5
+	// DefaultExitLoss is the kinetic energy of the passage flow lost at
+	// the exit, one velocity head (Borda-Carnot into open air; Idelchik
+	// 1994, Diagram 4-1; from memory).
+	DefaultExitLoss = 1.0
+	// DefaultRecovery is the share of the road speed's dynamic pressure
+	// available across the fin passages of an uncowled cylinder, 0.5
+	// (common practice; it lumps the blockage of frame, tank and legs and
+	// should be calibrated against a measured head temperature).
+	DefaultRecovery = 0.5
+	// minDrive is the driving pressure (Pa) below which a passage is taken
+	// to have no forced flow: a road-speed component under about 1 mm/s,
+	// such as cos 90 deg in floating point.
+	minDrive = 1e-6
+	// balanceTol is the relative heat balance at which the wall search
+	// stops: 1e-5 of the load, about 2 mK at a wall 150-250 K above
+	// ambient (Q is nearly proportional to the wall excess). Our choice.
+	balanceTol = 1e-5
+	// SaneWallLimit is the highest wall temperature the balance searches,
+	// 500 C: aluminium heads are long past their limits there.
+	SaneWallLimit = 773.15
+)
+
+// FinSet is one fin set with its material and finish.
+type FinSet struct {
+	Name       string // "head" or "barrel"
+	Set        fins.Set
+	Alloy      materials.Alloy
+	Emissivity float64 // -, of the finish
+}
+
+// Case is one cylinder in one operating condition: the physics inputs.
+// How the estimate is computed (segments, loss coefficients, correlations,
+// caches) is in Settings.
+type Case struct {
+	Tilt     float64 // rad, cylinder axis from vertical: 0 upright, pi/2 laid over
+	Head     FinSet
+	Barrel   FinSet
+	Speed    float64 // m/s, road speed (air speed relative to the cylinder)
+	Recovery float64 // -, share of the dynamic pressure available across the fins; 0 means DefaultRecovery
+	Ambient  float64 // K
+	Pressure float64 // Pa
+	FixedH   float64 // W/(m2 K), a measured forced-convection coefficient; 0 uses the correlations
+}
+
+// Settings are the run settings of an estimate. The zero value is the
+// sourced default of every field.
+type Settings struct {
+	Segments  int     // march segments per path; 0 means DefaultSegments
+	EntryLoss float64 // passage entry loss coefficient; 0 means DefaultEntryLoss
+	ExitLoss  float64 // passage exit loss coefficient; 0 means DefaultExitLoss
+	// Passage is the forced-convection correlation of a fin passage; nil
+	// means airflow.DevelopingPlates, which the march evaluates by its
+	// fast path (film powers carried by binomial series; TestFastPath).
+	Passage airflow.PassageModel
+	// Natural is the natural-convection correlation of the fin set; nil
+	// means airflow.BarCohenRohsenow.
+	Natural airflow.NaturalModel
+	// TotalsOnly leaves SetResult.March empty: sweeps and the optimiser
+	// need the totals, not the segment-by-segment profile.
+	TotalsOnly bool
+	// Workspace, when set, keeps the fin-efficiency curves and march
+	// position terms of fin sets already seen, so that a sweep over speed,
+	// ambient or load does not tabulate the same fins again. It is not
+	// safe for concurrent use: give each goroutine its own.
+	Workspace *Workspace
+}
+
+// resolved returns the settings with every zero replaced by its default.
+func (s Settings) resolved() Settings {
+	if s.Segments == 0 {
+		s.Segments = DefaultSegments
+	}
+	if s.EntryLoss == 0 {
+		s.EntryLoss = DefaultEntryLoss
+	}
+	if s.ExitLoss == 0 {
+		s.ExitLoss = DefaultExitLoss
+	}
+	if s.Natural == nil {
+		s.Natural = airflow.BarCohenRohsenow{}
+	}
+	return s
+}
+
+// Workspace holds fin-efficiency curves by fin set and march position
+// terms by path, at most a few hundred of each (it starts afresh when
+// full, so its memory stays bounded).
+type Workspace struct {
+	m    map[fins.Set]*fins.Curve
+	segs map[segKey][]segPre // march position terms by path and segment count
+}
+
+// NewWorkspace returns an empty workspace.
+func NewWorkspace() *Workspace { return &Workspace{m: map[fins.Set]*fins.Curve{}} }
+
+const workspaceSize = 256
+
+func (w *Workspace) curve(s fins.Set, g fins.Geometry) *fins.Curve {
+	if w == nil {
+		return s.NewCurve(g)
+	}
+	if c, ok := w.m[s]; ok {
+		return c
+	}
+	if len(w.m) >= workspaceSize {
+		clear(w.m)
+	}
+	c := s.NewCurve(g)
+	w.m[s] = c
+	return c
+}
+
+// recovery is the pressure recovery with its default.
+func (c Case) recovery() float64 {
+	if c.Recovery == 0 {
+		return DefaultRecovery
+	}
+	return c.Recovery
+}
+
+func (c Case) validate(s Settings) error {
+	switch {
+	case !(c.Tilt >= 0 && c.Tilt <= math.Pi/2+1e-12):
+		return fmt.Errorf("tilt %g deg outside 0 to 90", c.Tilt*180/math.Pi)
+	case !(c.Speed >= 0 && c.Speed <= 150):
+		return fmt.Errorf("speed %g m/s outside 0 to 150", c.Speed)
+	case !(c.Recovery >= 0 && c.Recovery <= 1):
+		return fmt.Errorf("pressure recovery %g outside 0 (the default) to 1", c.Recovery)
+	case !(c.Ambient > 200 && c.Ambient < 350):
+		return fmt.Errorf("ambient %g K outside 200 to 350 K", c.Ambient)
+	case !(c.Pressure > 2e4 && c.Pressure < 1.2e5):
+		return fmt.Errorf("pressure %g Pa outside 20 to 120 kPa", c.Pressure)
+	case s.Segments < 0 || s.Segments > 100000:
+		return fmt.Errorf("segments %d outside 1 to 100000", s.Segments)
+	case !(c.FixedH >= 0 && c.FixedH < 1e4):
+		return fmt.Errorf("fixed h %g W/(m2 K) outside 0 to 10000", c.FixedH)
+	case !(s.EntryLoss >= 0 && s.EntryLoss < 100) || !(s.ExitLoss >= 0 && s.ExitLoss < 100):
+		return fmt.Errorf("loss coefficients %g, %g outside 0 to 100", s.EntryLoss, s.ExitLoss)
+	}
+	for _, s := range []FinSet{c.Head, c.Barrel} {
+		if !(s.Emissivity > 0 && s.Emissivity <= 1) {
+			return fmt.Errorf("%s: emissivity %g outside 0 to 1", s.Name, s.Emissivity)
+		}
+		if !(s.Alloy.K300 > 0) || !(s.Alloy.Density > 0) {
+			return fmt.Errorf("%s: alloy %q has no conductivity or density", s.Name, s.Alloy.Name)
+		}
+	}
+	return nil
+}
+
+// Series reports whether the air passes the head fins and then the barrel
+// fins: both sets longitudinal, so that the air runs along the axis
+// through both (the orientation model; see the package documentation).
+func (c Case) Series() bool {
+	return c.Head.Set.Style == fins.StyleLongitudinal && c.Barrel.Set.Style == fins.StyleLongitudinal
+}

@@ -1,0 +1,61 @@
+package cylinder
+
+import (
+	"math"
+
+	"finmarch/airflow"
+	"finmarch/fins"
+)
+
+// natural returns the natural-convection heat (W), coefficient and fin
+// efficiency of a set at wall temperature tw by the settings' natural
+// correlation (Bar-Cohen & Rohsenow's vertical channel by default) on the
+// passages, of height equal to the tip diameter (annular) or the finned
+// length (longitudinal), with film properties and the fin efficiency at
+// that h. Orientation effects on free convection are not modelled.
+func (p *prepared) natural(st *setState, tw float64) (float64, float64, float64) {
+	dT := tw - p.c.Ambient
+	if dT <= 0 {
+		return 0, 0, 1
+	}
+	fs, g := st.fs, st.g
+	air := airflow.Properties(0.5*(tw+p.c.Ambient), p.c.Pressure, p.log)
+	L := g.TipDiameter
+	if fs.Set.Style == fins.StyleLongitudinal {
+		L = fs.Set.Length
+	}
+	h := p.set.Natural.H(air, g.GapMean, L, dT, p.log)
+	eta := st.cv.Efficiency(h, fs.Alloy.Conductivity(tw), p.log)
+	return h * g.SurfaceEfficiency(eta) * g.TotalArea * dT, h, eta
+}
+
+// setHeat evaluates one fin set at wall temperature tw with air entering
+// at tin: the forced march and natural convection combined as
+// Q^3 = Q_F^3 + Q_N^3 (Churchill 1977's rule for assisting mixed
+// convection, applied to the heats of the set), and radiation from the
+// envelope at the mean fin surface temperature T_a + eta_o (T_w - T_a) to
+// surroundings at ambient (Incropera 6th ed. Eq. 1.7).
+func (p *prepared) setHeat(st *setState, tw, tin float64, keep bool) (SetResult, marchOut) {
+	fs, g, pt := st.fs, st.g, st.pt
+	m := p.march(st, tw, tin, keep)
+	qn, hn, etaN := p.natural(st, tw)
+	qc := math.Cbrt(m.q*m.q*m.q + qn*qn*qn)
+	r := SetResult{Name: fs.Name, Style: fs.Set.Style.String(), WallTemp: tw, AirIn: tin, AirOut: m.tOut,
+		ForcedHeat: m.q, NaturalHeat: qn, ConvectionHeat: qc, NaturalH: hn, Paths: pt.Paths, PathLength: pt.Length,
+		Series: pt.Series, FinArea: g.FinArea, TotalArea: g.TotalArea, FinMass: g.FinVolume * fs.Alloy.Density,
+		ApproachComponent: pt.Component, Reynolds: m.re, Regime: m.regime, March: m.seg}
+	if m.area > 0 {
+		r.MeanH = m.hA / m.area
+		r.FinEfficiency = m.etaA / m.area
+	} else {
+		r.MeanH, r.FinEfficiency, r.Regime = hn, etaN, "natural only"
+	}
+	r.SurfaceEfficiency = g.SurfaceEfficiency(r.FinEfficiency)
+	ts := p.c.Ambient + r.SurfaceEfficiency*(tw-p.c.Ambient)
+	r.RadiationHeat = fs.Emissivity * airflow.Sigma * g.EnvelopeArea * (ts*ts*ts*ts - math.Pow(p.c.Ambient, 4))
+	r.HeatRejected = qc + r.RadiationHeat
+	// relative to the heat, or to a milliwatt when the heat is nil (a wall
+	// at the temperature of its inlet air) and only rounding is left
+	r.EnergyImbalance = math.Abs(m.qMetal-m.q) / math.Max(math.Abs(m.q), 1e-3)
+	return r, m
+}

@@ -1,0 +1,108 @@
+package cylinder
+
+import (
+	"fmt"
+	"math"
+
+	"finmarch/airflow"
+	"finmarch/fins"
+	"finmarch/fins/validity"
+)
+
+// The two fin sets, in the order the air meets them on a series path.
+const (
+	head = iota
+	barrel
+)
+
+// setState is one fin set as the estimate sees it: its geometry, its
+// efficiency curve, the air path and the mass flow through it.
+type setState struct {
+	fs   FinSet
+	g    fins.Geometry
+	cv   *fins.Curve // fin efficiency against h/k, filled as the march needs it
+	pt   Path
+	mdot float64 // kg/s per path
+	vel  float64 // m/s, passage velocity at inlet density
+}
+
+// prepared is a case ready for marches: the geometry, the paths and the
+// passage flows, with the resolved settings and the buffers the trials of
+// the wall search reuse.
+type prepared struct {
+	c         Case
+	set       Settings // resolved
+	passage   airflow.PassageModel
+	fast      bool // the built-in passage correlation, by the march's fast path
+	sets      [2]setState
+	series    bool
+	n         int // segments of the current march (the balance's coarse marches lower it)
+	amb       airflow.Air
+	log       *validity.Log
+	scratch   validity.Log
+	segBuf    []Segment           // the march of the latest trial
+	pre       map[segKey][]segPre // position terms by path and segment count
+	exactFilm bool                // film powers exact at every segment (tests)
+}
+
+func (c Case) prepare(s Settings, log *validity.Log) (*prepared, error) {
+	if err := c.validate(s); err != nil {
+		return nil, err
+	}
+	c.Recovery = c.recovery()
+	p := &prepared{c: c, set: s.resolved(), log: log, passage: s.Passage, fast: s.Passage == nil}
+	if p.fast {
+		p.passage = airflow.DevelopingPlates{}
+	}
+	p.n = p.set.Segments
+	for i, fs := range []FinSet{c.Head, c.Barrel} {
+		st := &p.sets[i]
+		st.fs = fs
+		var err error
+		if st.g, err = fs.Set.Geometry(); err != nil {
+			return nil, fmt.Errorf("%s fins: %w", fs.Name, err)
+		}
+		st.cv = p.set.Workspace.curve(fs.Set, st.g)
+	}
+	p.amb = airflow.Properties(c.Ambient, c.Pressure, log)
+	for i := range p.sets {
+		st := &p.sets[i]
+		st.pt = path(st.fs.Set, st.g, c.Speed, c.Tilt)
+	}
+	if c.Series() {
+		p.sets[head].pt.Series, p.sets[barrel].pt.Series = true, true
+		p.series = true
+	}
+	if err := p.flows(); err != nil {
+		return nil, err
+	}
+	for i := range p.sets {
+		st := &p.sets[i]
+		st.vel = st.mdot / (p.amb.Rho * st.pt.FlowArea)
+	}
+	return p, nil
+}
+
+// flows solves the mass flow per path of each set from the share of the
+// road speed's dynamic pressure that drives its passages.
+func (p *prepared) flows() error {
+	c := p.c
+	q := c.Recovery * 0.5 * p.amb.Rho * c.Speed * c.Speed
+	drive := func(st *setState) float64 { return q * sq(st.pt.Component/math.Max(c.Speed, 1e-300)) }
+	h, b := &p.sets[head], &p.sets[barrel]
+	if p.series {
+		w, err := p.seriesFlow(drive(h))
+		if err != nil {
+			return err
+		}
+		h.mdot, b.mdot = w/float64(h.pt.Paths), w/float64(b.pt.Paths)
+		return nil
+	}
+	for _, st := range []*setState{h, b} {
+		var err error
+		if st.mdot, err = p.parallelFlow(st.pt, drive(st)); err != nil {
+			return fmt.Errorf("%s passages: %w", st.fs.Name, err)
+		}
+	}
+	return nil
+}

@@ -1,0 +1,93 @@
+package cylinder
+
+import (
+	"errors"
+	"math"
+
+	"finmarch/fins/validity"
+)
+
+// Segment is one step of the march along an air path. Heat and areas are
+// totals over all parallel paths of the set.
+type Segment struct {
+	X        float64 `json:"x_m"`       // m, path position at the segment's end
+	AirIn    float64 `json:"air_in_K"`  // K
+	AirOut   float64 `json:"air_out_K"` // K
+	H        float64 `json:"h_W_m2K"`   // W/(m2 K), forced coefficient, segment mean
+	FinEff   float64 `json:"fin_eff"`   // -, fin efficiency at that h
+	Flux     float64 `json:"flux_W_m2"` // W/m2 of finned surface (fins + base)
+	Heat     float64 `json:"heat_W"`    // W
+	Reynolds float64 `json:"reynolds"`  // Reynolds number on the plate hydraulic diameter
+}
+
+// SetResult is the outcome for one fin set.
+type SetResult struct {
+	Name              string    `json:"name"`
+	Style             string    `json:"style"`
+	HeatLoad          float64   `json:"heat_load_W"`
+	HeatRejected      float64   `json:"heat_rejected_W"`
+	ForcedHeat        float64   `json:"forced_heat_W"`
+	NaturalHeat       float64   `json:"natural_heat_W"`
+	ConvectionHeat    float64   `json:"convection_heat_W"`
+	RadiationHeat     float64   `json:"radiation_heat_W"`
+	WallTemp          float64   `json:"wall_temperature_K"`
+	MeanH             float64   `json:"mean_h_W_m2K"`
+	NaturalH          float64   `json:"natural_h_W_m2K"`
+	FinEfficiency     float64   `json:"fin_efficiency"`
+	SurfaceEfficiency float64   `json:"surface_efficiency"`
+	AirIn             float64   `json:"air_inlet_K"`
+	AirOut            float64   `json:"air_outlet_K"`
+	PassageVelocity   float64   `json:"passage_velocity_m_s"`
+	ApproachComponent float64   `json:"approach_component_m_s"`
+	Reynolds          float64   `json:"reynolds"`
+	Regime            string    `json:"regime"`
+	Paths             int       `json:"paths"`
+	PathLength        float64   `json:"path_length_m"`
+	Series            bool      `json:"series_path"`
+	FinArea           float64   `json:"fin_area_m2"`
+	TotalArea         float64   `json:"total_area_m2"`
+	FinMass           float64   `json:"fin_mass_kg"`
+	EnergyImbalance   float64   `json:"energy_imbalance"`
+	March             []Segment `json:"march"`
+}
+
+// Result is the outcome for one cylinder.
+type Result struct {
+	Head      SetResult          `json:"head"`
+	Barrel    SetResult          `json:"barrel"`
+	Warnings  []validity.Warning `json:"warnings"`
+	Ambient   float64            `json:"ambient_K"`
+	Pressure  float64            `json:"pressure_Pa"`
+	Speed     float64            `json:"speed_m_s"`
+	TiltDeg   float64            `json:"tilt_deg"`
+	MaxImbal  float64            `json:"energy_imbalance_max"`
+	Converged bool               `json:"converged"`
+}
+
+// FinMass is the fin mass of both sets, kg.
+func (r Result) FinMass() float64 { return r.Head.FinMass + r.Barrel.FinMass }
+
+// HeatPerFinMass is the heat both sets reject per kilogram of their fins,
+// W/kg: the figure of merit for comparing fin designs.
+func (r Result) HeatPerFinMass() float64 {
+	return (r.Head.HeatRejected + r.Barrel.HeatRejected) / r.FinMass()
+}
+
+// ErrNoEquilibrium is wrapped by Balance when the fins cannot reject the
+// load at any wall temperature up to SaneWallLimit.
+var ErrNoEquilibrium = errors.New("no equilibrium")
+
+// own gives a result its own copy of the march, which setHeat leaves in the
+// shared trial buffer.
+func own(r *SetResult) {
+	r.March = append([]Segment(nil), r.March...)
+}
+
+func (p *prepared) result(hr, br SetResult, log *validity.Log, conv bool) Result {
+	hr.PassageVelocity, br.PassageVelocity = p.sets[head].vel, p.sets[barrel].vel
+	r := Result{Head: hr, Barrel: br, Ambient: p.c.Ambient, Pressure: p.c.Pressure, Speed: p.c.Speed,
+		TiltDeg: p.c.Tilt * 180 / math.Pi, Converged: conv}
+	r.MaxImbal = math.Max(hr.EnergyImbalance, br.EnergyImbalance)
+	r.Warnings = log.Warnings()
+	return r
+}

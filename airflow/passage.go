@@ -1,0 +1,184 @@
+// Forced convection in a fin passage: the correlations, their blend and
+// the PassageModel the cylinder estimator chooses through.
+
+package airflow
+
+import (
+	"math"
+
+	"finmarch/fins/validity"
+)
+
+// Transition limits of flow in a passage (Gnielinski, VDI Heat Atlas, 2nd
+// ed. 2010, Sec. G1, Eq. 30: laminar below 2300, turbulent above 1e4).
+const (
+	ReLaminar   = 2300.0
+	ReTurbulent = 1.0e4
+)
+
+// fTurb is the Petukhov factor at the turbulent end of transition.
+var fTurb = PetukhovFriction(ReTurbulent, nil)
+
+// ParallelPlatesNu returns the mean Nusselt number Nu = h Dh / k (Dh = 2 s,
+// s the plate spacing) for simultaneously developing laminar flow between
+// isothermal parallel plates, by Stephan's correlation as quoted in Shah &
+// London, Laminar Flow Forced Convection in Ducts (1978), Sec. VI.C:
+//
+//	Nu_m = 7.55 + 0.024 x*^-1.14 / (1 + 0.0358 Pr^0.17 x*^-0.64),
+//	x* = L / (Dh Re Pr),
+//
+// with h based on the log-mean temperature difference. Valid Re < 2300 and
+// 0.1 <= Pr <= 1000 (Shah & London). Arguments are dimensionless.
+func ParallelPlatesNu(xStar, pr float64, log *validity.Log) float64 {
+	log.Check("Stephan developing laminar flow (Shah & London 1978)", "Prandtl number", pr, 0.1, 1000)
+	// the powers through one logarithm each (math.Pow is several times
+	// slower and this sits in the march's inner loop)
+	lx := math.Log(xStar)
+	return 7.55 + 0.024*math.Exp(-1.14*lx)/(1+0.0358*math.Exp(0.17*math.Log(pr)-0.64*lx))
+}
+
+// ParallelPlatesFriction returns the apparent Fanning friction factor f_app
+// over a length L of developing laminar flow between parallel plates
+// (entrance pressure defect included), by Shah's correlation (Shah & London
+// 1978, Eq. 341, with the parallel-plate constants f Re = 24, K(inf) =
+// 0.674, C = 0.000029):
+//
+//	f_app Re = 3.44/sqrt(x+) + (24 + 0.674/(4x+) - 3.44/sqrt(x+)) / (1 + 0.000029/x+^2),
+//	x+ = L/(Dh Re).
+//
+// Valid for laminar flow, Re < 2300 (Dh = 2 s). Dimensionless arguments.
+func ParallelPlatesFriction(re, xPlus float64, log *validity.Log) float64 {
+	log.Check("Shah apparent friction, parallel plates (Shah & London 1978)", "Reynolds number", re, 0, ReLaminar)
+	r := 3.44 / math.Sqrt(xPlus)
+	return (r + (24+0.674/(4*xPlus)-r)/(1+0.000029/(xPlus*xPlus))) / re
+}
+
+// PetukhovFriction returns the Darcy friction factor of a smooth duct in
+// turbulent flow, f = (0.790 ln Re - 1.64)^-2 (Petukhov 1970; Incropera et
+// al. 6th ed. Eq. 8.21). Valid 3000 <= Re <= 5e6.
+func PetukhovFriction(re float64, log *validity.Log) float64 {
+	log.Check("Petukhov friction factor", "Reynolds number", re, 3000, 5e6)
+	v := 0.790*math.Log(re) - 1.64
+	return 1 / (v * v)
+}
+
+// GnielinskiNu returns the mean Nusselt number of turbulent flow in a duct
+// of hydraulic diameter Dh and length L:
+//
+//	Nu = (f/8)(Re - 1000) Pr / (1 + 12.7 sqrt(f/8) (Pr^(2/3) - 1)) * (1 + (Dh/L)^(2/3)),
+//
+// with f the Petukhov Darcy factor; the last factor is Gnielinski's
+// entrance correction for a developing flow (Gnielinski, Int. Chem. Eng. 16,
+// 1976; Incropera et al. 6th ed. Eq. 8.62; VDI Heat Atlas 2010, G1 Eq. 28).
+// Valid 3000 <= Re <= 5e6, 0.5 <= Pr <= 2000, Dh/L <= 1. dhOverL is
+// dimensionless (pass 0 for a fully developed flow).
+func GnielinskiNu(re, pr, dhOverL float64, log *validity.Log) float64 {
+	log.Check("Gnielinski turbulent duct flow", "Reynolds number", re, 3000, 5e6)
+	log.Check("Gnielinski turbulent duct flow", "Prandtl number", pr, 0.5, 2000)
+	log.Check("Gnielinski turbulent duct flow", "Dh/L", dhOverL, 0, 1)
+	var f float64
+	if re == ReTurbulent {
+		f = fTurb // the transition blend's fixed end
+	} else {
+		f = PetukhovFriction(math.Max(re, 3000), nil)
+	}
+	f8 := f / 8
+	c := math.Cbrt(pr)
+	nu := f8 * (re - 1000) * pr / (1 + 12.7*math.Sqrt(f8)*(c*c-1))
+	d := math.Cbrt(dhOverL)
+	return nu * (1 + d*d)
+}
+
+// ChannelFlow is the heat-transfer and friction state of flow through a fin
+// passage modelled as parallel plates.
+type ChannelFlow struct {
+	Nu     float64 // mean Nusselt number h Dh / k (log-mean basis)
+	Fapp   float64 // apparent Fanning friction factor over the passage length
+	Regime string  // "laminar", "transition" or "turbulent"
+}
+
+// Channel returns the mean Nusselt number and apparent friction factor of a
+// passage of hydraulic diameter Dh = 2 s and length L at Reynolds number Re
+// (based on Dh) and Prandtl number Pr: ChannelNu and ChannelFriction.
+// lOverDh is L/Dh.
+func Channel(re, pr, lOverDh float64, log *validity.Log) ChannelFlow {
+	nu, regime := ChannelNu(re, pr, lOverDh, log)
+	return ChannelFlow{Nu: nu, Fapp: ChannelFriction(re, lOverDh, log), Regime: regime}
+}
+
+// blend is the position of Re in the laminar-turbulent transition, g =
+// (Re - 2300)/7700, for the linear blend that Gnielinski recommends (VDI
+// Heat Atlas 2010, G1 Eq. 30), X = (1 - g) X_lam(2300) + g X_turb(1e4),
+// which is continuous at both ends. The one statement of the blend, for
+// the Nusselt number and the friction factor alike.
+func blend(re float64) float64 { return (re - ReLaminar) / (ReTurbulent - ReLaminar) }
+
+// ChannelNu returns the mean Nusselt number h Dh/k of a passage of length
+// L = lOverDh Dh at Reynolds number Re (on Dh) and Prandtl number Pr, and
+// the regime: Stephan (ParallelPlatesNu) below Re = 2300, Gnielinski
+// (GnielinskiNu with its entrance correction) above 1e4, and the linear
+// blend between (see blend). Each correlation's ranges are checked in its
+// own regime.
+func ChannelNu(re, pr, lOverDh float64, log *validity.Log) (float64, string) {
+	if re <= ReLaminar {
+		return ParallelPlatesNu(lOverDh/(re*pr), pr, log), "laminar"
+	}
+	dh := 1 / lOverDh
+	if re >= ReTurbulent {
+		return GnielinskiNu(re, pr, dh, log), "turbulent"
+	}
+	nl := ParallelPlatesNu(lOverDh/(ReLaminar*pr), pr, nil)
+	nt := GnielinskiNu(ReTurbulent, pr, dh, log)
+	g := blend(re)
+	return (1-g)*nl + g*nt, "transition"
+}
+
+// ChannelFriction returns the apparent Fanning friction factor over a
+// passage of length L = lOverDh Dh at Reynolds number Re: Shah's
+// developing laminar flow (ParallelPlatesFriction) below Re = 2300,
+// Petukhov's Fanning factor f_Darcy/4 plus the laminar entrance excess
+// K(inf)/(4 L/Dh) = 0.674/(4 L/Dh) of Shah & London (1978) above 1e4, and
+// the linear blend between (see blend).
+func ChannelFriction(re, lOverDh float64, log *validity.Log) float64 {
+	if re <= ReLaminar {
+		return ParallelPlatesFriction(re, lOverDh/re, log)
+	}
+	turb := func(r float64) float64 { return PetukhovFriction(r, nil)/4 + 0.674/(4*lOverDh) }
+	if re >= ReTurbulent {
+		return turb(re)
+	}
+	fl := ParallelPlatesFriction(ReLaminar, lOverDh/ReLaminar, nil)
+	g := blend(re)
+	return (1-g)*fl + g*turb(ReTurbulent)
+}
+
+// PassageModel is a forced-convection correlation for the air in one fin
+// passage: a replaceable part of the cylinder estimator (its Settings
+// field Passage; nil means DevelopingPlates).
+type PassageModel interface {
+	// Nu returns the mean Nusselt number h Dh/k over the first x =
+	// xOverDh Dh of a passage at Reynolds number re (on Dh) and Prandtl
+	// number pr, and a name of the regime; it checks its validity ranges
+	// in log (nil for none).
+	Nu(re, pr, xOverDh float64, log *validity.Log) (float64, string)
+	// Friction returns the apparent Fanning friction factor over a
+	// passage of length lOverDh Dh at Reynolds number re and Prandtl
+	// number pr.
+	Friction(re, pr, lOverDh float64) float64
+}
+
+// DevelopingPlates is the passage model of simultaneously developing flow
+// between parallel plates: ChannelNu and ChannelFriction (Stephan and Shah
+// laminar, Gnielinski and Petukhov turbulent, Gnielinski's linear blend
+// between).
+type DevelopingPlates struct{}
+
+// Nu is ChannelNu.
+func (DevelopingPlates) Nu(re, pr, xOverDh float64, log *validity.Log) (float64, string) {
+	return ChannelNu(re, pr, xOverDh, log)
+}
+
+// Friction is ChannelFriction, without range checks.
+func (DevelopingPlates) Friction(re, _, lOverDh float64) float64 {
+	return ChannelFriction(re, lOverDh, nil)
+}
