@@ -20,9 +20,9 @@ func Example() {
 		panic(err)
 	}
 	c := cylinder.Case{
-		Speed:    90 / 3.6,                  // m/s
-		Ambient:  308.15,                    // K
-		Pressure: airflow.ISA(0, nil).P,     // Pa, sea level
+		Speed:    90 / 3.6,              // m/s
+		Ambient:  308.15,                // K
+		Pressure: airflow.ISA(0, nil).P, // Pa, sea level
 		Head: cylinder.FinSet{Name: "head", Alloy: al, Emissivity: 0.2, Set: fins.Set{
 			Style: fins.StyleAnnular, Count: 8, Pitch: 0.009, Height: 0.040,
 			RootThickness: 0.004, TipThickness: 0.002, RootDiameter: 0.12, Length: 0.072}},
