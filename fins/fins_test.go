@@ -3,6 +3,7 @@ package fins
 import (
 	"encoding/csv"
 	"math"
+	"math/rand/v2"
 	"os"
 	"strconv"
 	"testing"
@@ -632,6 +633,31 @@ func TestCurveMeshMatchesAnnularTapered(t *testing.T) {
 			if got := c.efficiency(h / k); math.Abs(got-want) > 1e-13 {
 				t.Fatalf("h=%g k=%g: mesh %.15f, AnnularTapered %.15f", h, k, got, want)
 			}
+		}
+	}
+}
+
+// Fitting is the count that fits: Geometry accepts that many fins and
+// refuses one more, for both styles over random sets (the two rules must
+// agree), and an exact fit counts the last fin (7 pitches of 9 mm plus a
+// 4 mm root make 67 mm: 8 fins).
+func TestFittingAgreesWithGeometry(t *testing.T) {
+	if n := Fitting(StyleAnnular, 0.009, 0.004, 0.067, 0.1); n != 8 {
+		t.Errorf("exact fit: %d fins, want 8", n)
+	}
+	r := rand.New(rand.NewPCG(3, 5))
+	for i := 0; i < 2000; i++ {
+		s := Set{Style: Style(r.IntN(2)), RootThickness: 0.001 + 0.005*r.Float64(), Height: 0.005 + 0.03*r.Float64(),
+			RootDiameter: 0.04 + 0.15*r.Float64(), Length: 0.02 + 0.15*r.Float64()}
+		s.TipThickness = s.RootThickness
+		s.Pitch = s.RootThickness + 0.001 + 0.02*r.Float64()
+		s.Count = s.Fitting()
+		if _, err := s.Geometry(); err != nil {
+			t.Fatalf("%+v: %d fins fit by Fitting, refused by Geometry: %v", s, s.Count, err)
+		}
+		s.Count++
+		if _, err := s.Geometry(); err == nil {
+			t.Fatalf("%+v: Geometry accepts one more fin than Fitting", s)
 		}
 	}
 }

@@ -198,6 +198,22 @@ func (g Geometry) SurfaceEfficiency(etaFin float64) float64 {
 	return 1 - g.FinArea/g.TotalArea*(1-etaFin)
 }
 
+// Fitting returns the most fins of a style that fit, at least one: annular
+// fins of root thickness t at axial pitch p along a finned length L,
+// (n - 1) p + t <= L; longitudinal fins at root pitch p round a root
+// diameter D, n p <= pi D (lengths in m). The one count-that-fits rule of
+// the project (Restyle, sweeps, the optimiser's bounds).
+func Fitting(style Style, p, t, L, D float64) int {
+	if style == StyleAnnular {
+		return max(1, int(math.Floor((L-t)/p+1e-9))+1)
+	}
+	return max(1, int(math.Floor(math.Pi*D/p+1e-9)))
+}
+
+// Fitting returns as many fins as fit the set's length or circumference
+// at its pitch and root thickness (the package function Fitting).
+func (s Set) Fitting() int { return Fitting(s.Style, s.Pitch, s.RootThickness, s.Length, s.RootDiameter) }
+
 // Restyle returns the set laid the other way at the same fin height,
 // thicknesses, root diameter, length and mean clear gap (so the same fin
 // density as the air sees it): annular fins are stacked along the length
@@ -219,13 +235,12 @@ func (s Set) Restyle(style Style) (Set, error) {
 	switch style {
 	case StyleAnnular:
 		out.Pitch = mid
-		out.Count = max(1, int(math.Floor((s.Length-s.RootThickness)/mid+1e-9))+1)
+		out.Count = out.Fitting()
 	case StyleLongitudinal:
 		r1 := s.RootDiameter / 2
 		rootPitch := mid * r1 / (r1 + s.Height/2)
-		circ := math.Pi * s.RootDiameter
-		out.Count = max(1, int(math.Floor(circ/rootPitch+1e-9)))
-		out.Pitch = circ / float64(out.Count)
+		out.Count = Fitting(style, rootPitch, s.RootThickness, s.Length, s.RootDiameter)
+		out.Pitch = math.Pi * s.RootDiameter / float64(out.Count)
 	}
 	if _, err := out.Geometry(); err != nil {
 		return Set{}, err

@@ -160,13 +160,7 @@ func optBounds(d *design.Design, set string, p fins.Process, ranges map[string]*
 		}
 	}
 	if *ranges["count"] == "" {
-		minPitch := vars[0].lo
-		if s.Style == fins.StyleAnnular {
-			vars[4].hi = math.Floor((s.Length-vars[2].lo)/minPitch) + 1
-		} else {
-			vars[4].hi = math.Floor(math.Pi * s.RootDiameter / minPitch)
-		}
-		vars[4].hi = math.Max(vars[4].hi, 1)
+		vars[4].hi = float64(fins.Fitting(s.Style, vars[0].lo, vars[2].lo, s.Length, s.RootDiameter))
 	}
 	return vars, nil
 }

@@ -268,13 +268,7 @@ func fitCounts(d *design.Design, vals map[string]float64) {
 		if !touched || !(p > 0) {
 			continue
 		}
-		n := 1
-		if s.set.Style == fins.StyleAnnular {
-			n = int(math.Floor((L-t)/p+1e-9)) + 1
-		} else {
-			n = int(math.Floor(math.Pi*D/p + 1e-9))
-		}
-		vals[s.name+".count"] = float64(max(n, 1))
+		vals[s.name+".count"] = float64(fins.Fitting(s.set.Style, p, t, L, D))
 	}
 }
 
