@@ -13,7 +13,6 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"finmarch/airflow/cylinder"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
 )
@@ -289,14 +288,6 @@ func writeFile(path string, data []byte, force bool) error {
 		return fail(ExitIO, fmt.Errorf("cannot write %s: %w", path, err))
 	}
 	return f.Commit()
-}
-
-// modelError maps a physics error to an exit error with advice.
-func modelError(name string, err error) error {
-	if errors.Is(err, cylinder.ErrNoEquilibrium) {
-		return fail(ExitModel, fmt.Errorf("%s: %w", name, err))
-	}
-	return fail(ExitModel, fmt.Errorf("%s: the model failed: %w", name, err))
 }
 
 func warningsOf(ws ...[]string) []string {

@@ -95,8 +95,8 @@ func (e *env) estimate(d *design.Design) error {
 	if err := e.emit(doc); err != nil {
 		return err
 	}
-	if o.err != nil {
-		return modelError(d.Name, o.err)
+	if o.NoEquilibrium != nil {
+		return modelError(d.Name, o.NoEquilibrium)
 	}
 	return nil
 }
@@ -110,12 +110,9 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 	}
 	o, err := evaluate(d, d.Case.Speed)
 	if err != nil {
-		return output.Doc{}, o, modelError(d.Name, err)
+		return output.Doc{}, o, err
 	}
-	if err := o.check(); err != nil {
-		return output.Doc{}, o, fail(ExitInternal, err)
-	}
-	h, b := o.res.Head, o.res.Barrel
+	h, b := o.Result.Head, o.Result.Barrel
 	c := d.Case
 	doc := output.Doc{
 		Title: fmt.Sprintf("%s: %s %s, ambient %s %s, altitude %s %s (%s %s), tilt %.0f deg", d.Name,
@@ -126,7 +123,7 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 	pair := func(f func(r cylinder.SetResult) string) []string { return []string{f(h), f(b)} }
 	row := func(q, unit string, vals []string) []string { return append([]string{q, unit}, vals...) }
 	g := output.Grid{Title: "Heat balance per fin set", Header: []string{"quantity", "unit", "head", "barrel"}, Left: 2}
-	if o.fixed {
+	if o.Fixed {
 		g.Rows = append(g.Rows, row("wall temperature (given)", u.TempU(), pair(func(r cylinder.SetResult) string { return fmtT(u, r.WallTemp) })))
 	} else {
 		g.Rows = append(g.Rows,
@@ -139,12 +136,12 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		row("    natural alone", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.NaturalHeat, 0) })),
 		row("  by radiation", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.RadiationHeat, 0) })),
 	)
-	if !o.fixed {
+	if !o.Fixed {
 		g.Rows = append(g.Rows,
 			row("wall temperature at fin roots", u.TempU(), pair(func(r cylinder.SetResult) string { return fmtT(u, r.WallTemp) })),
 			row("limit", u.TempU(), []string{fmtT(u, d.HeadLimit), fmtT(u, d.BarrelLimit)}),
-			row("margin to limit", u.TempDiffU(), []string{fmtDT(u, o.headMargin()), fmtDT(u, o.barrelMargin())}),
-			row("status", "", []string{setStatus(o.err, h, o.headMargin()), setStatus(o.err, b, o.barrelMargin())}),
+			row("margin to limit", u.TempDiffU(), []string{fmtDT(u, o.HeadMargin()), fmtDT(u, o.BarrelMargin())}),
+			row("status", "", []string{setStatus(o.NoEquilibrium, h, o.HeadMargin()), setStatus(o.NoEquilibrium, b, o.BarrelMargin())}),
 		)
 	}
 	g.Rows = append(g.Rows,
@@ -170,16 +167,16 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		row("heat per mass of fin", u.PerMassU(), pair(func(r cylinder.SetResult) string { return output.Num(u.PerMass(r.HeatRejected/r.FinMass), 0) })),
 	)
 	doc.Grids = append(doc.Grids, g)
-	if !o.fixed && !d.Load.Direct {
+	if !o.Fixed && !d.Load.Direct {
 		doc.Notes = append(doc.Notes, fmt.Sprintf("Road load at %s %s: %.2f kW at the wheel, %.2f kW at the crank, %.1f kW of fuel; %.0f%% of the fuel power to the fins of %d cylinder(s), %.0f%% of it through the head.",
-			output.Num(u.Road(c.Speed), 0), u.RoadU(), o.load.WheelPower/1e3, o.load.BrakePower/1e3, o.load.FuelPower/1e3,
+			output.Num(u.Road(c.Speed), 0), u.RoadU(), o.Load.WheelPower/1e3, o.Load.BrakePower/1e3, o.Load.FuelPower/1e3,
 			100*d.Load.Road.CoolShare, d.Load.Road.Cylinders, 100*d.Load.Road.HeadShare))
 	}
-	doc.Notes = append(doc.Notes, orientationNote(d, o.res), noteWall, noteMixed,
-		energyNote(o.res.MaxImbal),
+	doc.Notes = append(doc.Notes, orientationNote(d, o.Result), noteWall, noteMixed,
+		energyNote(o.Result.MaxImbal),
 		noteModel)
-	if o.err != nil {
-		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.err.Error()+".")
+	if o.NoEquilibrium != nil {
+		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.NoEquilibrium.Error()+".")
 	}
 	doc.Warnings = o.warnings()
 	doc.Alerts = limitAlerts(u, o)
@@ -187,9 +184,9 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		"limit_warnings": doc.Alerts,
 		"design":         d.Name, "source": d.Source, "tilt_deg": c.Tilt * 180 / math.Pi, "speed_m_s": c.Speed,
 		"ambient_K": c.Ambient, "pressure_Pa": c.Pressure, "altitude_m": d.Altitude,
-		"load": o.load, "result": o.res, "head_limit_K": d.HeadLimit, "barrel_limit_K": d.BarrelLimit,
-		"head_margin_K": o.headMargin(), "barrel_margin_K": o.barrelMargin(), "status": o.status(),
-		"fixed_walls": o.fixed, "equilibrium": o.err == nil, "energy_imbalance": o.res.MaxImbal,
+		"load": o.Load, "result": o.Result, "head_limit_K": d.HeadLimit, "barrel_limit_K": d.BarrelLimit,
+		"head_margin_K": o.HeadMargin(), "barrel_margin_K": o.BarrelMargin(), "status": o.Status(),
+		"fixed_walls": o.Fixed, "equilibrium": o.NoEquilibrium == nil, "energy_imbalance": o.Result.MaxImbal,
 		"warnings": doc.Warnings, "defaults_applied": d.Defaults, "caution": output.Caution,
 	}
 	return doc, o, nil
@@ -197,7 +194,7 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 
 // limitAlerts says which wall is over its limit, and by how much.
 func limitAlerts(u output.Units, o outcome) []string {
-	if o.fixed {
+	if o.Fixed {
 		return nil
 	}
 	var out []string
@@ -206,7 +203,7 @@ func limitAlerts(u output.Units, o outcome) []string {
 		wall   float64
 		limit  float64
 		margin float64
-	}{{"head", o.res.Head.WallTemp, o.d.HeadLimit, o.headMargin()}, {"barrel", o.res.Barrel.WallTemp, o.d.BarrelLimit, o.barrelMargin()}} {
+	}{{"head", o.Result.Head.WallTemp, o.d.HeadLimit, o.HeadMargin()}, {"barrel", o.Result.Barrel.WallTemp, o.d.BarrelLimit, o.BarrelMargin()}} {
 		if x.margin < 0 {
 			out = append(out, fmt.Sprintf("%s: the %s runs at %s %s, %s %s over its %s %s limit",
 				o.d.Name, x.name, fmtT(u, x.wall), u.TempU(), fmtDT(u, -x.margin), u.TempDiffU(), fmtT(u, x.limit), u.TempU()))
@@ -294,10 +291,7 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 	for _, d := range ds {
 		o, err := evaluate(d, d.Case.Speed)
 		if err != nil {
-			return output.Doc{}, modelError(d.Name, err)
-		}
-		if err := o.check(); err != nil {
-			return output.Doc{}, fail(ExitInternal, err)
+			return output.Doc{}, err
 		}
 		os = append(os, o)
 		warns = append(warns, o.warnings())
@@ -314,39 +308,41 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 		g.Rows = append(g.Rows, r)
 	}
 	add("tilt from vertical", "deg", func(o outcome) string { return output.Num(o.d.Case.Tilt*180/math.Pi, 0) })
-	add("fin style head / barrel", "", func(o outcome) string { return o.res.Head.Style + " / " + o.res.Barrel.Style })
+	add("fin style head / barrel", "", func(o outcome) string { return o.Result.Head.Style + " / " + o.Result.Barrel.Style })
 	add("road speed", u.RoadU(), func(o outcome) string { return output.Num(u.Road(o.speed), 0) })
 	add("ambient", u.TempU(), func(o outcome) string { return fmtT(u, o.d.Case.Ambient) })
 	add("heat load head / barrel", "W", func(o outcome) string {
-		return output.Num(o.res.Head.HeatLoad, 0) + " / " + output.Num(o.res.Barrel.HeatLoad, 0)
+		return output.Num(o.Result.Head.HeatLoad, 0) + " / " + output.Num(o.Result.Barrel.HeatLoad, 0)
 	})
-	add("head temperature", u.TempU(), func(o outcome) string { return fmtT(u, o.res.Head.WallTemp) })
-	add("barrel temperature", u.TempU(), func(o outcome) string { return fmtT(u, o.res.Barrel.WallTemp) })
-	add("head margin to limit", u.TempDiffU(), func(o outcome) string { return fmtDT(u, o.headMargin()) })
-	add("barrel margin to limit", u.TempDiffU(), func(o outcome) string { return fmtDT(u, o.barrelMargin()) })
-	add("status", "", func(o outcome) string { return o.status() })
+	add("head temperature", u.TempU(), func(o outcome) string { return fmtT(u, o.Result.Head.WallTemp) })
+	add("barrel temperature", u.TempU(), func(o outcome) string { return fmtT(u, o.Result.Barrel.WallTemp) })
+	add("head margin to limit", u.TempDiffU(), func(o outcome) string { return fmtDT(u, o.HeadMargin()) })
+	add("barrel margin to limit", u.TempDiffU(), func(o outcome) string { return fmtDT(u, o.BarrelMargin()) })
+	add("status", "", func(o outcome) string { return string(o.Status()) })
 	add("passage velocity head / barrel", u.VelU(), func(o outcome) string {
-		return output.Num(u.Vel(o.res.Head.PassageVelocity), 1) + " / " + output.Num(u.Vel(o.res.Barrel.PassageVelocity), 1)
+		return output.Num(u.Vel(o.Result.Head.PassageVelocity), 1) + " / " + output.Num(u.Vel(o.Result.Barrel.PassageVelocity), 1)
 	})
 	add("air rise head / barrel", u.TempDiffU(), func(o outcome) string {
-		return fmtDT(u, o.res.Head.AirOut-o.res.Head.AirIn) + " / " + fmtDT(u, o.res.Barrel.AirOut-o.res.Barrel.AirIn)
+		return fmtDT(u, o.Result.Head.AirOut-o.Result.Head.AirIn) + " / " + fmtDT(u, o.Result.Barrel.AirOut-o.Result.Barrel.AirIn)
 	})
-	add("air reaching barrel fins", u.TempU(), func(o outcome) string { return fmtT(u, o.res.Barrel.AirIn) })
+	add("air reaching barrel fins", u.TempU(), func(o outcome) string { return fmtT(u, o.Result.Barrel.AirIn) })
 	add("mean h head / barrel", u.HU(), func(o outcome) string {
-		return output.Num(u.H(o.res.Head.MeanH), 1) + " / " + output.Num(u.H(o.res.Barrel.MeanH), 1)
+		return output.Num(u.H(o.Result.Head.MeanH), 1) + " / " + output.Num(u.H(o.Result.Barrel.MeanH), 1)
 	})
-	add("finned surface", u.AreaU(), func(o outcome) string { return output.Num(u.Area(o.res.Head.TotalArea+o.res.Barrel.TotalArea), 3) })
-	add("fin mass", u.MassU(), func(o outcome) string { return output.Num(u.Mass(o.res.Head.FinMass+o.res.Barrel.FinMass), 2) })
+	add("finned surface", u.AreaU(), func(o outcome) string {
+		return output.Num(u.Area(o.Result.Head.TotalArea+o.Result.Barrel.TotalArea), 3)
+	})
+	add("fin mass", u.MassU(), func(o outcome) string { return output.Num(u.Mass(o.Result.Head.FinMass+o.Result.Barrel.FinMass), 2) })
 	add("heat rejected per mass of fin", u.PerMassU(), func(o outcome) string {
-		return output.Num(u.PerMass((o.res.Head.HeatRejected+o.res.Barrel.HeatRejected)/(o.res.Head.FinMass+o.res.Barrel.FinMass)), 0)
+		return output.Num(u.PerMass((o.Result.Head.HeatRejected+o.Result.Barrel.HeatRejected)/(o.Result.Head.FinMass+o.Result.Barrel.FinMass)), 0)
 	})
 	doc := output.Doc{Title: heading, Grids: []output.Grid{g}, Caution: true}
 	for i := 1; i < len(os); i++ {
 		doc.Notes = append(doc.Notes, explain(u, os[0], os[i], 'A', rune('A'+i)))
 	}
 	for i, o := range os {
-		if o.err != nil {
-			doc.Notes = append(doc.Notes, fmt.Sprintf("%c: NO EQUILIBRIUM: %v.", 'A'+i, o.err))
+		if o.NoEquilibrium != nil {
+			doc.Notes = append(doc.Notes, fmt.Sprintf("%c: NO EQUILIBRIUM: %v.", 'A'+i, o.NoEquilibrium))
 		}
 	}
 	doc.Notes = append(doc.Notes, noteWall, noteModel)
@@ -356,9 +352,9 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 	}
 	var js []map[string]any
 	for _, o := range os {
-		js = append(js, map[string]any{"design": o.d.Name, "source": o.d.Source, "load": o.load, "result": o.res,
-			"head_margin_K": o.headMargin(), "barrel_margin_K": o.barrelMargin(), "status": o.status(),
-			"equilibrium": o.err == nil, "energy_imbalance": o.res.MaxImbal})
+		js = append(js, map[string]any{"design": o.d.Name, "source": o.d.Source, "load": o.Load, "result": o.Result,
+			"head_margin_K": o.HeadMargin(), "barrel_margin_K": o.BarrelMargin(), "status": o.Status(),
+			"equilibrium": o.NoEquilibrium == nil, "energy_imbalance": o.Result.MaxImbal})
 	}
 	doc.JSON = map[string]any{"designs": js, "notes": doc.Notes, "warnings": doc.Warnings, "caution": output.Caution}
 	return doc, nil
@@ -366,8 +362,8 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 
 // explain says how much hotter or cooler design b runs than a, and why.
 func explain(u output.Units, a, b outcome, la, lb rune) string {
-	dh := b.res.Head.WallTemp - a.res.Head.WallTemp
-	db := b.res.Barrel.WallTemp - a.res.Barrel.WallTemp
+	dh := b.Result.Head.WallTemp - a.Result.Head.WallTemp
+	db := b.Result.Barrel.WallTemp - a.Result.Barrel.WallTemp
 	word := func(d float64) string {
 		if d >= 0 {
 			return fmt.Sprintf("%s %s hotter", output.Num(u.TempDiff(d), 0), u.TempDiffU())
@@ -383,7 +379,7 @@ func explain(u output.Units, a, b outcome, la, lb rune) string {
 			better = append(better, text)
 		}
 	}
-	ha, hb := a.res.Head, b.res.Head
+	ha, hb := a.Result.Head, b.Result.Head
 	if math.Abs(hb.PassageVelocity-ha.PassageVelocity) > 0.05*math.Max(ha.PassageVelocity, 0.1) {
 		w := fmt.Sprintf("head passage air at %s against %s %s", output.Num(u.Vel(hb.PassageVelocity), 1), output.Num(u.Vel(ha.PassageVelocity), 1), u.VelU())
 		if hb.Series && !ha.Series {
@@ -398,15 +394,15 @@ func explain(u output.Units, a, b outcome, la, lb rune) string {
 	if math.Abs(rb-ra) > 3 {
 		side(rb > ra, fmt.Sprintf("air warming %s %s along the head fins against %s", output.Num(u.TempDiff(rb), 0), u.TempDiffU(), output.Num(u.TempDiff(ra), 0)))
 	}
-	if math.Abs(b.res.Barrel.AirIn-a.res.Barrel.AirIn) > 1 {
-		side(b.res.Barrel.AirIn > a.res.Barrel.AirIn, fmt.Sprintf("air reaching the barrel fins at %s %s against %s (on a series path the head has warmed it)",
-			fmtT(u, b.res.Barrel.AirIn), u.TempU(), fmtT(u, a.res.Barrel.AirIn)))
+	if math.Abs(b.Result.Barrel.AirIn-a.Result.Barrel.AirIn) > 1 {
+		side(b.Result.Barrel.AirIn > a.Result.Barrel.AirIn, fmt.Sprintf("air reaching the barrel fins at %s %s against %s (on a series path the head has warmed it)",
+			fmtT(u, b.Result.Barrel.AirIn), u.TempU(), fmtT(u, a.Result.Barrel.AirIn)))
 	}
-	aa, ab := ha.TotalArea+a.res.Barrel.TotalArea, hb.TotalArea+b.res.Barrel.TotalArea
+	aa, ab := ha.TotalArea+a.Result.Barrel.TotalArea, hb.TotalArea+b.Result.Barrel.TotalArea
 	if math.Abs(ab-aa) > 0.03*aa {
 		side(ab < aa, fmt.Sprintf("finned surface %s against %s %s", output.Num(u.Area(ab), 3), output.Num(u.Area(aa), 3), u.AreaU()))
 	}
-	lda, ldb := ha.HeatLoad+a.res.Barrel.HeatLoad, hb.HeatLoad+b.res.Barrel.HeatLoad
+	lda, ldb := ha.HeatLoad+a.Result.Barrel.HeatLoad, hb.HeatLoad+b.Result.Barrel.HeatLoad
 	if math.Abs(ldb-lda) > 0.02*math.Max(lda, 1) {
 		side(ldb > lda, fmt.Sprintf("heat load %s against %s W", output.Num(ldb, 0), output.Num(lda, 0)))
 	}
@@ -476,7 +472,7 @@ func (e *env) tilt(d *design.Design, step float64) error {
 	var warns [][]string
 	var rows []map[string]any
 	cell := func(o outcome, r cylinder.SetResult) string {
-		if o.err != nil && r.HeatRejected < r.HeatLoad {
+		if o.NoEquilibrium != nil && r.HeatRejected < r.HeatLoad {
 			return "over " + fmtT(u, cylinder.SaneWallLimit)
 		}
 		return fmtT(u, r.WallTemp)
@@ -493,22 +489,19 @@ func (e *env) tilt(d *design.Design, step float64) error {
 			cp.Case.Tilt = t * math.Pi / 180
 			o, err := evaluate(&cp, cp.Case.Speed)
 			if err != nil {
-				return modelError(d.Name, err)
-			}
-			if err := o.check(); err != nil {
-				return fail(ExitInternal, err)
+				return err
 			}
 			outs = append(outs, o)
 			warns = append(warns, o.warnings())
 		}
 		a, l := outs[0], outs[1]
 		better := "annular"
-		if math.Max(l.res.Head.WallTemp, l.res.Barrel.WallTemp) < math.Max(a.res.Head.WallTemp, a.res.Barrel.WallTemp) {
+		if math.Max(l.Result.Head.WallTemp, l.Result.Barrel.WallTemp) < math.Max(a.Result.Head.WallTemp, a.Result.Barrel.WallTemp) {
 			better = "longitudinal"
 		}
-		g.Rows = append(g.Rows, []string{output.Num(t, 0), cell(a, a.res.Head), cell(a, a.res.Barrel), cell(l, l.res.Head), cell(l, l.res.Barrel), better})
-		rows = append(rows, map[string]any{"tilt_deg": t, "annular": a.res, "longitudinal": l.res,
-			"annular_equilibrium": a.err == nil, "longitudinal_equilibrium": l.err == nil})
+		g.Rows = append(g.Rows, []string{output.Num(t, 0), cell(a, a.Result.Head), cell(a, a.Result.Barrel), cell(l, l.Result.Head), cell(l, l.Result.Barrel), better})
+		rows = append(rows, map[string]any{"tilt_deg": t, "annular": a.Result, "longitudinal": l.Result,
+			"annular_equilibrium": a.NoEquilibrium == nil, "longitudinal_equilibrium": l.NoEquilibrium == nil})
 	}
 	hs, bs := an.Case.Head.Set, an.Case.Barrel.Set
 	hl, bl := lo.Case.Head.Set, lo.Case.Barrel.Set
@@ -537,24 +530,21 @@ func (e *env) march(d *design.Design) error {
 	}
 	o, err := evaluate(d, d.Case.Speed)
 	if err != nil {
-		return modelError(d.Name, err)
-	}
-	if err := o.check(); err != nil {
-		return fail(ExitInternal, err)
+		return err
 	}
 	T, L := u.TempU(), u.LenU()
 	g := output.Grid{Title: "March along one air path of each fin set (heat and flux summed over all parallel paths)",
 		Header: []string{"set", "segment", "x (" + L + ")", "air in (" + T + ")", "air out (" + T + ")", "h (" + u.HU() + ")", "fin eff", "flux (" + u.FluxU() + ")", "heat (W)"}, Left: 1}
-	for _, s := range []cylinder.SetResult{o.res.Head, o.res.Barrel} {
+	for _, s := range []cylinder.SetResult{o.Result.Head, o.Result.Barrel} {
 		for i, sg := range s.March {
 			g.Rows = append(g.Rows, []string{s.Name, fmt.Sprint(i + 1), output.Num(u.Len(sg.X), u.LenDec()), fmtT(u, sg.AirIn), fmtT(u, sg.AirOut),
 				output.Num(u.H(sg.H), 1), output.Num(sg.FinEff, 3), output.Num(u.Flux(sg.Flux), 0), output.Num(sg.Heat, 1)})
 		}
 	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: march at %s %s (head wall %s %s, barrel wall %s %s)", d.Name,
-		output.Num(u.Road(d.Case.Speed), 0), u.RoadU(), fmtT(u, o.res.Head.WallTemp), T, fmtT(u, o.res.Barrel.WallTemp), T),
+		output.Num(u.Road(d.Case.Speed), 0), u.RoadU(), fmtT(u, o.Result.Head.WallTemp), T, fmtT(u, o.Result.Barrel.WallTemp), T),
 		Grids: []output.Grid{g}, Caution: true}
-	for _, s := range []cylinder.SetResult{o.res.Head, o.res.Barrel} {
+	for _, s := range []cylinder.SetResult{o.Result.Head, o.Result.Barrel} {
 		if len(s.March) == 0 {
 			doc.Notes = append(doc.Notes, fmt.Sprintf("The %s fins get no forced flow at this tilt and speed: natural convection and radiation only.", s.Name))
 			continue
@@ -564,18 +554,18 @@ func (e *env) march(d *design.Design) error {
 			title(s.Name), fmtT(u, s.AirIn), fmtT(u, s.AirOut), T, output.Num(u.Len(s.PathLength), 0), L,
 			output.Num(u.Flux(first.Flux), 0), output.Num(u.Flux(last.Flux), 0), u.FluxU(), output.Num(100*last.Flux/first.Flux, 0)))
 	}
-	if o.err != nil {
-		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.err.Error()+"; the march is shown at the search limit.")
+	if o.NoEquilibrium != nil {
+		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.NoEquilibrium.Error()+"; the march is shown at the search limit.")
 	}
-	doc.Notes = append(doc.Notes, energyNote(o.res.MaxImbal))
+	doc.Notes = append(doc.Notes, energyNote(o.Result.MaxImbal))
 	doc.Warnings = o.warnings()
-	doc.JSON = map[string]any{"design": d.Name, "head": o.res.Head, "barrel": o.res.Barrel, "energy_imbalance": o.res.MaxImbal,
-		"equilibrium": o.err == nil, "warnings": doc.Warnings, "caution": output.Caution}
+	doc.JSON = map[string]any{"design": d.Name, "head": o.Result.Head, "barrel": o.Result.Barrel, "energy_imbalance": o.Result.MaxImbal,
+		"equilibrium": o.NoEquilibrium == nil, "warnings": doc.Warnings, "caution": output.Caution}
 	if err := e.emit(doc); err != nil {
 		return err
 	}
-	if o.err != nil {
-		return modelError(d.Name, o.err)
+	if o.NoEquilibrium != nil {
+		return modelError(d.Name, o.NoEquilibrium)
 	}
 	return nil
 }
@@ -625,29 +615,26 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 		}
 		o, err := evaluate(d, v)
 		if err != nil {
-			return modelError(d.Name, err)
-		}
-		if err := o.check(); err != nil {
-			return fail(ExitInternal, err)
+			return err
 		}
 		warns = append(warns, o.warnings())
-		ht, bt := fmtT(u, o.res.Head.WallTemp), fmtT(u, o.res.Barrel.WallTemp)
-		if o.err != nil {
-			if o.res.Head.HeatRejected < o.res.Head.HeatLoad {
+		ht, bt := fmtT(u, o.Result.Head.WallTemp), fmtT(u, o.Result.Barrel.WallTemp)
+		if o.NoEquilibrium != nil {
+			if o.Result.Head.HeatRejected < o.Result.Head.HeatLoad {
 				ht = "over " + fmtT(u, cylinder.SaneWallLimit)
 			}
-			if o.res.Barrel.HeatRejected < o.res.Barrel.HeatLoad {
+			if o.Result.Barrel.HeatRejected < o.Result.Barrel.HeatLoad {
 				bt = "over " + fmtT(u, cylinder.SaneWallLimit)
 			}
 		}
-		st, margin := o.status(), fmtDT(u, o.headMargin())
-		if !o.fixed && o.load.Head == 0 && o.load.Barrel == 0 {
+		st, margin := string(o.Status()), fmtDT(u, o.HeadMargin())
+		if !o.Fixed && o.Load.Head == 0 && o.Load.Barrel == 0 {
 			st, margin, ht, bt = "no load", "-", "-", "-"
 		}
-		g.Rows = append(g.Rows, []string{output.Num(u.Road(v), 0), output.Num(o.res.Head.HeatLoad, 0), output.Num(o.res.Barrel.HeatLoad, 0),
+		g.Rows = append(g.Rows, []string{output.Num(u.Road(v), 0), output.Num(o.Result.Head.HeatLoad, 0), output.Num(o.Result.Barrel.HeatLoad, 0),
 			ht, bt, margin, st})
-		rows = append(rows, map[string]any{"speed_m_s": v, "load": o.load, "head": summary(o.res.Head), "barrel": summary(o.res.Barrel),
-			"head_margin_K": o.headMargin(), "status": o.status(), "equilibrium": o.err == nil})
+		rows = append(rows, map[string]any{"speed_m_s": v, "load": o.Load, "head": summary(o.Result.Head), "barrel": summary(o.Result.Barrel),
+			"head_margin_K": o.HeadMargin(), "status": o.Status(), "equilibrium": o.NoEquilibrium == nil})
 	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: road-speed sweep, ambient %s %s, tilt %.0f deg", d.Name, fmtT(u, d.Case.Ambient), T, d.Case.Tilt*180/math.Pi),
 		Grids: []output.Grid{g}, Caution: true}

@@ -238,10 +238,10 @@ func (e *env) optimise(d *design.Design, names []string, goal string, p fins.Pro
 			return 0, 0, 0, false
 		}
 		o, err := evaluateWith(v, v.Case.Speed, nil, true)
-		if err != nil || o.err != nil || o.check() != nil {
+		if err != nil || o.NoEquilibrium != nil {
 			return 0, 0, 0, false
 		}
-		r, q := o.res.Head, o.res.Barrel
+		r, q := o.Result.Head, o.Result.Barrel
 		if primary == "barrel" {
 			r, q = q, r
 		}

@@ -69,15 +69,15 @@ func TestOptimiserAgainstFineGrid(t *testing.T) {
 						continue
 					}
 					r, err := evaluate(vd, vd.Case.Speed)
-					if err != nil || r.err != nil {
+					if err != nil || r.NoEquilibrium != nil {
 						continue
 					}
-					f := r.res.Head.WallTemp
+					f := r.Result.Head.WallTemp
 					if goal == "light" {
 						if f > limit {
 							continue
 						}
-						f = r.res.Head.FinMass
+						f = r.Result.Head.FinMass
 					}
 					best = math.Min(best, f)
 				}
@@ -234,11 +234,11 @@ func TestOptimiseBothAgainstFineGrid(t *testing.T) {
 				continue
 			}
 			r, err := evaluate(vd, vd.Case.Speed)
-			if err != nil || r.err != nil || r.res.Barrel.WallTemp > d.BarrelLimit {
+			if err != nil || r.NoEquilibrium != nil || r.Result.Barrel.WallTemp > d.BarrelLimit {
 				continue
 			}
-			if r.res.Head.WallTemp < best {
-				best, bx = r.res.Head.WallTemp, [2]float64{hp, bp}
+			if r.Result.Head.WallTemp < best {
+				best, bx = r.Result.Head.WallTemp, [2]float64{hp, bp}
 			}
 		}
 	}

@@ -2,6 +2,7 @@ package app
 
 import (
 	"bytes"
+	"errors"
 	"fmt"
 	"path/filepath"
 	"sort"
@@ -144,18 +145,15 @@ func (e *env) marchFigure(ds []*design.Design) (*plots.Figure, error) {
 	for i, d := range ds {
 		o, err := evaluate(d, d.Case.Speed)
 		if err != nil {
-			return nil, modelError(d.Name, err)
+			return nil, err
 		}
-		if err := o.check(); err != nil {
-			return nil, fail(ExitInternal, err)
-		}
-		for k, s := range []cylinder.SetResult{o.res.Head, o.res.Barrel} {
+		for k, s := range []cylinder.SetResult{o.Result.Head, o.Result.Barrel} {
 			if len(s.March) == 0 {
 				continue
 			}
 			off := 0.0
 			if s.Series && s.Name == "barrel" {
-				off = o.res.Head.PathLength
+				off = o.Result.Head.PathLength
 			}
 			t := plots.Series{Label: fmt.Sprintf("%s %s (%s)", letter(i), s.Name, s.Style), Design: i, Dashed: k == 1}
 			q := t
@@ -201,14 +199,17 @@ func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.F
 				break
 			}
 			o, err := evaluate(d, v)
-			if err != nil {
-				return nil, modelError(d.Name, err)
+			if errors.Is(err, cylinder.ErrNotFinite) {
+				continue // leave a gap, as for no equilibrium
 			}
-			if o.err != nil || o.check() != nil || (!o.fixed && o.load.Head+o.load.Barrel == 0) {
+			if err != nil {
+				return nil, err
+			}
+			if o.NoEquilibrium != nil || (!o.Fixed && o.Load.Head+o.Load.Barrel == 0) {
 				continue // no equilibrium or no load at this speed: leave a gap at the end
 			}
-			h.X, h.Y = append(h.X, u.Road(v)), append(h.Y, u.Temp(o.res.Head.WallTemp))
-			b.X, b.Y = append(b.X, u.Road(v)), append(b.Y, u.Temp(o.res.Barrel.WallTemp))
+			h.X, h.Y = append(h.X, u.Road(v)), append(h.Y, u.Temp(o.Result.Head.WallTemp))
+			b.X, b.Y = append(b.X, u.Road(v)), append(b.Y, u.Temp(o.Result.Barrel.WallTemp))
 		}
 		lines = append(lines, h, b)
 		limits[fmt.Sprintf("head limit %s %s", output.Num(u.Temp(d.HeadLimit), 0), u.TempU())] = u.Temp(d.HeadLimit)
@@ -238,14 +239,11 @@ func (e *env) compareFigure(ds []*design.Design) (*plots.Figure, error) {
 	for i, d := range ds {
 		o, err := evaluate(d, d.Case.Speed)
 		if err != nil {
-			return nil, modelError(d.Name, err)
-		}
-		if err := o.check(); err != nil {
-			return nil, fail(ExitInternal, err)
+			return nil, err
 		}
 		names = append(names, letter(i)+": "+short(d.Name))
-		ht = append(ht, u.Temp(o.res.Head.WallTemp))
-		perKg = append(perKg, u.PerMass((o.res.Head.HeatRejected+o.res.Barrel.HeatRejected)/(o.res.Head.FinMass+o.res.Barrel.FinMass)))
+		ht = append(ht, u.Temp(o.Result.Head.WallTemp))
+		perKg = append(perKg, u.PerMass((o.Result.Head.HeatRejected+o.Result.Barrel.HeatRejected)/(o.Result.Head.FinMass+o.Result.Barrel.FinMass)))
 	}
 	return plots.Compare("Designs at cruise\n"+strings.Join(names, "    "), names, []plots.Panel{
 		{Label: "head temperature (" + u.TempU() + ")", Values: ht},

@@ -246,8 +246,8 @@ func (e *env) report(ds []*design.Design) ([]byte, error) {
 			return nil, err
 		}
 		hd := htmlDesign{Name: d.Name, Source: d.Source, Inputs: inputTable(d, u), Results: tables(doc.Grids), Notes: doc.Notes, Defaults: d.Defaults}
-		if o.err != nil {
-			hd.Notes = append(hd.Notes, "NO EQUILIBRIUM: "+o.err.Error())
+		if o.NoEquilibrium != nil {
+			hd.Notes = append(hd.Notes, "NO EQUILIBRIUM: "+o.NoEquilibrium.Error())
 		}
 		data.Designs = append(data.Designs, hd)
 		warns = append(warns, doc.Warnings)

@@ -290,22 +290,19 @@ func evalPoint(d *design.Design, axes []axis, i int, vals map[string]float64, fi
 		return r
 	}
 	o, err := evaluateWith(v, v.Case.Speed, cache, true)
-	if err == nil {
-		err = o.check()
-	}
 	if err != nil {
 		r.status, r.msg = "failed", firstLine(err.Error())
 		return r
 	}
-	r.ok, r.equilibrium = true, o.err == nil
+	r.ok, r.equilibrium = true, o.NoEquilibrium == nil
 	r.hc, r.bc = v.Case.Head.Set.Count, v.Case.Barrel.Set.Count
-	r.headT, r.barrT = o.res.Head.WallTemp, o.res.Barrel.WallTemp
-	r.headM, r.barrM = o.headMargin(), o.barrelMargin()
-	r.mass = o.res.Head.FinMass + o.res.Barrel.FinMass
-	r.perKg = (o.res.Head.HeatRejected + o.res.Barrel.HeatRejected) / r.mass
-	r.status = o.status()
-	if o.err != nil {
-		r.msg = firstLine(o.err.Error())
+	r.headT, r.barrT = o.Result.Head.WallTemp, o.Result.Barrel.WallTemp
+	r.headM, r.barrM = o.HeadMargin(), o.BarrelMargin()
+	r.mass = o.Result.Head.FinMass + o.Result.Barrel.FinMass
+	r.perKg = (o.Result.Head.HeatRejected + o.Result.Barrel.HeatRejected) / r.mass
+	r.status = string(o.Status())
+	if o.NoEquilibrium != nil {
+		r.msg = firstLine(o.NoEquilibrium.Error())
 	}
 	return r
 }

@@ -134,6 +134,16 @@ func (d *Design) OverrideSegments(n int) {
 	d.segOverride = true
 }
 
+// Cylinder is the design as the estimator takes it: the case, the load,
+// the limits and any fixed walls.
+func (d *Design) Cylinder() cylinder.Design {
+	cd := cylinder.Design{Case: d.Case, Load: d.Load, Limits: cylinder.Limits{Head: d.HeadLimit, Barrel: d.BarrelLimit}}
+	if d.WallFixed {
+		cd.Walls = &[2]float64{d.HeadWall, d.BarrelWall}
+	}
+	return cd
+}
+
 // Heat returns the heat load at speed v (m/s) in the design's air.
 func (d *Design) Heat(v float64) (cylinder.HeatLoad, error) {
 	c := d.Case

@@ -1,0 +1,117 @@
+package cylinder
+
+import (
+	"errors"
+	"fmt"
+	"math"
+)
+
+// Limits are the wall temperatures the head and the barrel must stay at or
+// below, K.
+type Limits struct{ Head, Barrel float64 }
+
+// MarginalBand is the margin to a limit below which a design is called
+// marginal, 15 K (common practice: about the spread between cylinders of
+// one engine and between a hot and a mild day's ride).
+const MarginalBand = 15.0
+
+// Status is the verdict on an outcome.
+type Status string
+
+// The verdicts, from worst to best.
+const (
+	StatusNoEquilibrium Status = "NO EQUILIBRIUM" // a set cannot reject its load below SaneWallLimit
+	StatusOver          Status = "OVER LIMIT"     // a wall above its limit
+	StatusMarginal      Status = "marginal"       // a margin under MarginalBand
+	StatusOK            Status = "ok"
+	StatusFixed         Status = "fixed walls" // the walls were given; the heat is the answer
+)
+
+// Design is a cylinder with its heat load and limits, at the operating
+// point of its Case: what a design file describes.
+type Design struct {
+	Case   Case
+	Load   Load
+	Limits Limits
+	// Walls, when set, fixes the wall temperatures of head and barrel (K):
+	// the estimate then gives the heat each set rejects there.
+	Walls *[2]float64
+}
+
+// Outcome is a design evaluated at one operating point.
+type Outcome struct {
+	Result Result
+	Load   HeatLoad // the load balanced (zero when the walls were fixed)
+	// NoEquilibrium wraps ErrNoEquilibrium when a set cannot reject its
+	// load below SaneWallLimit; Result is still filled, at that wall.
+	NoEquilibrium error
+	Fixed         bool // the walls were fixed (Design.Walls)
+	Limits        Limits
+}
+
+// Evaluate estimates the design with settings s: the wall balance at the
+// design's load, or the heat at fixed walls. The absence of an
+// equilibrium is part of the outcome; an error is a failure (bad input, a
+// solver failure, or a result that is not a finite number).
+func (d Design) Evaluate(s Settings) (Outcome, error) {
+	o := Outcome{Limits: d.Limits, Fixed: d.Walls != nil}
+	var err error
+	if d.Walls != nil {
+		o.Result, err = d.Case.AtWall(d.Walls[0], d.Walls[1], s)
+		if err != nil {
+			return o, err
+		}
+		return o, o.check()
+	}
+	if o.Load, err = d.Load.At(d.Case); err != nil {
+		return o, err
+	}
+	o.Result, err = d.Case.Balance(o.Load, s)
+	if errors.Is(err, ErrNoEquilibrium) {
+		o.NoEquilibrium, err = err, nil
+	}
+	if err != nil {
+		return o, err
+	}
+	return o, o.check()
+}
+
+// HeadMargin is the head limit less the head wall temperature, K.
+func (o Outcome) HeadMargin() float64 { return o.Limits.Head - o.Result.Head.WallTemp }
+
+// BarrelMargin is the barrel limit less the barrel wall temperature, K.
+func (o Outcome) BarrelMargin() float64 { return o.Limits.Barrel - o.Result.Barrel.WallTemp }
+
+// WithinLimits reports whether both walls are at or below their limits.
+func (o Outcome) WithinLimits() bool { return o.HeadMargin() >= 0 && o.BarrelMargin() >= 0 }
+
+// Status is the verdict: no equilibrium, fixed walls, over a limit,
+// marginal (a margin under MarginalBand) or ok.
+func (o Outcome) Status() Status {
+	switch {
+	case o.NoEquilibrium != nil:
+		return StatusNoEquilibrium
+	case o.Fixed:
+		return StatusFixed
+	case o.HeadMargin() < 0 || o.BarrelMargin() < 0:
+		return StatusOver
+	case o.HeadMargin() < MarginalBand || o.BarrelMargin() < MarginalBand:
+		return StatusMarginal
+	}
+	return StatusOK
+}
+
+// ErrNotFinite is returned by Evaluate for a result that is not a finite
+// number: a bug in the estimator.
+var ErrNotFinite = errors.New("a result is not a finite number; this is a bug, please report it with the design file")
+
+func (o Outcome) check() error {
+	h, b := o.Result.Head, o.Result.Barrel
+	for _, v := range []float64{h.WallTemp, b.WallTemp, h.HeatRejected, b.HeatRejected, h.MeanH, b.MeanH, h.AirOut, b.AirOut,
+		h.FinEfficiency, b.FinEfficiency, h.PassageVelocity, b.PassageVelocity} {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return fmt.Errorf("%w", ErrNotFinite)
+		}
+	}
+	return nil
+}
