@@ -1,4 +1,4 @@
-// Package optimise is a bounded, derivative-free minimiser for a few mixed
+// Minimize is a bounded, derivative-free minimiser for a few mixed
 // continuous and integer variables: a full grid to find the basins, then
 // compass (pattern) search from the best grid points (Kolda, Lewis &
 // Torczon, Optimization by direct search, SIAM Review 45, 2003, Sec. 3),
@@ -6,6 +6,7 @@
 // objective of +Inf marks an infeasible point. It suits the fin-design
 // objective: a few variables, cheap evaluations, kinks where a fin count
 // changes, and hard casting limits.
+
 package optimise
 
 import (

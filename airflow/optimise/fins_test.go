@@ -1,0 +1,127 @@
+package optimise
+
+import (
+	"math"
+	"testing"
+
+	"finmarch/airflow"
+	"finmarch/airflow/cylinder"
+	"finmarch/fins"
+	"finmarch/materials"
+)
+
+// demo is the upright demo single (an invented scenario) with its cruise
+// heat given directly.
+func demo(t *testing.T) cylinder.Design {
+	al, err := materials.Lookup("A356-T6")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return cylinder.Design{
+		Case: cylinder.Case{Speed: 25, Ambient: 308.15, Pressure: airflow.ISA(0, nil).P,
+			Head: cylinder.FinSet{Name: "head", Alloy: al, Emissivity: 0.2, Set: fins.Set{Style: fins.StyleAnnular, Count: 8, Pitch: 0.009,
+				Height: 0.040, RootThickness: 0.004, TipThickness: 0.002, RootDiameter: 0.12, Length: 0.072}},
+			Barrel: cylinder.FinSet{Name: "barrel", Alloy: al, Emissivity: 0.9, Set: fins.Set{Style: fins.StyleAnnular, Count: 12, Pitch: 0.009,
+				Height: 0.030, RootThickness: 0.0035, TipThickness: 0.0018, RootDiameter: 0.092, Length: 0.108}}},
+		Load:   cylinder.Load{Direct: true, Given: cylinder.HeatLoad{Head: 2681, Barrel: 1443}},
+		Limits: cylinder.Limits{Head: 493.15, Barrel: 493.15},
+	}
+}
+
+// Solve keeps every casting limit and bound, and its optimum is no worse
+// than the best point of a 9-level grid over the same free variables
+// (pitch, height, root thickness; tip and count held) with the same
+// limits: the coolest head, and the lightest head fins at or below 205 C.
+func TestSolveAgainstGrid(t *testing.T) {
+	d := demo(t)
+	proc, _ := fins.LookupProcess("permanent-mould")
+	vars := DefaultVars(d.Case.Head.Set, proc)
+	vars[0].Lo, vars[0].Hi = 0.008, 0.012
+	vars[1].Lo, vars[1].Hi = 0.030, 0.050
+	vars[2].Lo, vars[2].Hi = 0.003, 0.005
+	vars[3].Lo, vars[3].Hi = 0.002, 0.002
+	vars[4].Lo, vars[4].Hi = 7, 7
+	for _, goal := range []Goal{GoalCool, GoalLight} {
+		p := Problem{Base: d, Sets: []int{Head}, Vars: [][]Var{vars}, Goal: goal, Limit: 478.15, Process: proc}
+		sol := Solve(p)
+		if !sol.Found {
+			t.Fatalf("%s: no optimum", goal)
+		}
+		s := p.Set(0, sol.Optimum.X)
+		if !proc.Feasible(s) {
+			t.Errorf("%s: optimum %+v breaks the casting limits", goal, s)
+		}
+		for i, v := range vars {
+			if x := sol.Optimum.X[i]; x < v.Lo-1e-12 || x > v.Hi+1e-12 {
+				t.Errorf("%s: %s %g outside %g to %g", goal, v.Name, x, v.Lo, v.Hi)
+			}
+		}
+		best := math.Inf(1)
+		for i := 0; i <= 8; i++ {
+			for j := 0; j <= 8; j++ {
+				for k := 0; k <= 8; k++ {
+					x := []float64{0.008 + 0.0005*float64(i), 0.030 + 0.0025*float64(j), 0.003 + 0.00025*float64(k), 0.002, 7}
+					wall, mass, _, ok := p.measure(x, true)
+					if !ok || goal == GoalLight && wall > p.Limit {
+						continue
+					}
+					f := wall
+					if goal == GoalLight {
+						f = mass
+					}
+					best = math.Min(best, f)
+				}
+			}
+		}
+		got := sol.Optimum.Wall
+		tol := 0.05 // K: the search's step tolerance, 1e-3 of the box
+		if goal == GoalLight {
+			got, tol = sol.Optimum.Mass, 1e-3 // kg
+			if sol.Optimum.Wall > p.Limit+1e-6 {
+				t.Errorf("light: wall %.3f K over the limit", sol.Optimum.Wall)
+			}
+		}
+		if got > best+tol {
+			t.Errorf("%s: optimum %.4f, grid best %.4f", goal, got, best)
+		}
+		// the front is lightest first, each lighter design hotter
+		for i := 1; i < len(sol.Front); i++ {
+			if !(sol.Front[i].Mass > sol.Front[i-1].Mass && sol.Front[i].Wall < sol.Front[i-1].Wall) {
+				t.Errorf("%s: front rows %d and %d not a trade-off", goal, i-1, i)
+			}
+		}
+	}
+}
+
+// A limit no design can hold is reported as not found, with the coolest
+// feasible design evaluated as how close the search came.
+func TestSolveUnreachable(t *testing.T) {
+	d := demo(t)
+	proc, _ := fins.LookupProcess("sand")
+	vars := DefaultVars(d.Case.Head.Set, proc)
+	FitCount(vars, d.Case.Head.Set)
+	sol := Solve(Problem{Base: d, Sets: []int{Head}, Vars: [][]Var{vars}, Goal: GoalLight, Limit: 320, Process: proc, Levels: 3})
+	if sol.Found || sol.Closest == nil || !(sol.Closest.Wall > 320) {
+		t.Fatalf("found %v, closest %+v", sol.Found, sol.Closest)
+	}
+}
+
+// Pareto keeps the designs no other beats on both mass and wall, lightest
+// first (a hand-made set with a known front), and thins a long front to n
+// rows keeping both ends.
+func TestPareto(t *testing.T) {
+	pts := []Point{{Mass: 1, Wall: 500, Feasible: true}, {Mass: 2, Wall: 450, Feasible: true}, {Mass: 2.5, Wall: 470, Feasible: true},
+		{Mass: 3, Wall: 400, Feasible: true}, {Mass: 0.5, Wall: 300}, {Mass: 4, Wall: 400, Feasible: true}}
+	f := Pareto(pts, 12)
+	if len(f) != 3 || f[0].Mass != 1 || f[1].Mass != 2 || f[2].Mass != 3 {
+		t.Errorf("front %+v", f)
+	}
+	var long []Point
+	for i := 0; i < 100; i++ {
+		long = append(long, Point{Mass: float64(i), Wall: 1000 - float64(i), Feasible: true})
+	}
+	f = Pareto(long, 12)
+	if len(f) != 12 || f[0].Mass != 0 || f[11].Mass != 99 {
+		t.Errorf("thinned front: %d rows from %g to %g", len(f), f[0].Mass, f[len(f)-1].Mass)
+	}
+}
