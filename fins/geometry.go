@@ -212,7 +212,9 @@ func Fitting(style Style, p, t, L, D float64) int {
 
 // Fitting returns as many fins as fit the set's length or circumference
 // at its pitch and root thickness (the package function Fitting).
-func (s Set) Fitting() int { return Fitting(s.Style, s.Pitch, s.RootThickness, s.Length, s.RootDiameter) }
+func (s Set) Fitting() int {
+	return Fitting(s.Style, s.Pitch, s.RootThickness, s.Length, s.RootDiameter)
+}
 
 // Restyle returns the set laid the other way at the same fin height,
 // thicknesses, root diameter, length and mean clear gap (so the same fin
