@@ -1,46 +1,35 @@
 package app
 
 import (
-	"bufio"
-	"container/heap"
-	"encoding/csv"
-	"encoding/json"
 	"fmt"
 	"io"
 	"math"
 	"os"
 	"runtime"
-	"runtime/debug"
 	"sort"
 	"strconv"
 	"strings"
-	"sync"
 
 	"github.com/schollz/progressbar/v3"
 	"github.com/spf13/cobra"
 	"golang.org/x/term"
 
 	"finmarch/airflow/cylinder"
+	"finmarch/airflow/sweep"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
 	"finmarch/fins"
 )
 
-// axis is one varied key with its values (SI).
-type axis struct {
-	key  string
-	vals []float64
-}
-
 // parseAxis reads "key=from:to:step" (units allowed on each part) or
 // "key=v1,v2,v3".
-func parseAxis(spec string) (axis, error) {
+func parseAxis(spec string) (sweep.Axis, error) {
 	k, rest, ok := strings.Cut(spec, "=")
 	k = strings.TrimSpace(k)
 	if !ok || k == "" || strings.TrimSpace(rest) == "" {
-		return axis{}, fmt.Errorf("--vary %q: write key=from:to:step, e.g. head.pitch=6mm:12mm:1mm, or key=a,b,c", spec)
+		return sweep.Axis{}, fmt.Errorf("--vary %q: write key=from:to:step, e.g. head.pitch=6mm:12mm:1mm, or key=a,b,c", spec)
 	}
-	a := axis{key: k}
+	a := sweep.Axis{Key: k}
 	parse := func(s string) (float64, error) {
 		v, err := design.ParseFor(k, s)
 		if err != nil {
@@ -51,7 +40,7 @@ func parseAxis(spec string) (axis, error) {
 	if strings.Contains(rest, ":") {
 		p := strings.Split(rest, ":")
 		if len(p) != 3 {
-			return axis{}, fmt.Errorf("--vary %q: a range is from:to:step", spec)
+			return sweep.Axis{}, fmt.Errorf("--vary %q: a range is from:to:step", spec)
 		}
 		var v [3]float64
 		for i := range p {
@@ -63,74 +52,33 @@ func parseAxis(spec string) (axis, error) {
 				}
 			}
 			if err != nil {
-				return axis{}, err
+				return sweep.Axis{}, err
 			}
 			v[i] = x
 		}
 		if !(v[2] > 0) || v[1] < v[0] {
-			return axis{}, fmt.Errorf("--vary %q: need from <= to and a positive step", spec)
+			return sweep.Axis{}, fmt.Errorf("--vary %q: need from <= to and a positive step", spec)
 		}
 		n := math.Floor((v[1]-v[0])/v[2]+1e-9) + 1
 		if n > 1e7 {
-			return axis{}, fmt.Errorf("--vary %q: %g values on one axis; at most 10 million", spec, n)
+			return sweep.Axis{}, fmt.Errorf("--vary %q: %g values on one axis; at most 10 million", spec, n)
 		}
 		for i := 0; i < int(n); i++ {
 			// to 12 significant digits, so that 30 mm + 1 x 5 mm is 0.035 m
 			// and not 0.034999999999999996 in the JSON and in the design
 			x, _ := strconv.ParseFloat(strconv.FormatFloat(v[0]+float64(i)*v[2], 'g', 12, 64), 64)
-			a.vals = append(a.vals, x)
+			a.Values = append(a.Values, x)
 		}
 		return a, nil
 	}
 	for _, s := range strings.Split(rest, ",") {
 		x, err := parse(s)
 		if err != nil {
-			return axis{}, err
+			return sweep.Axis{}, err
 		}
-		a.vals = append(a.vals, x)
+		a.Values = append(a.Values, x)
 	}
 	return a, nil
-}
-
-type sweepRow struct {
-	idx          int
-	vals         []float64
-	ok           bool
-	equilibrium  bool
-	msg          string
-	headT, barrT float64
-	headM, barrM float64
-	mass, perKg  float64
-	hc, bc       int // fin counts of the evaluated design
-	status       string
-}
-
-// rowHeap keeps the best n rows by a key (a max-heap on the key, so the
-// worst of the kept rows is on top and is dropped first).
-type rowHeap struct {
-	rows []sweepRow
-	key  func(r sweepRow) float64
-}
-
-func (h rowHeap) Len() int           { return len(h.rows) }
-func (h rowHeap) Less(i, j int) bool { return h.key(h.rows[i]) > h.key(h.rows[j]) }
-func (h rowHeap) Swap(i, j int)      { h.rows[i], h.rows[j] = h.rows[j], h.rows[i] }
-func (h *rowHeap) Push(x any)        { h.rows = append(h.rows, x.(sweepRow)) }
-func (h *rowHeap) Pop() any {
-	r := h.rows[len(h.rows)-1]
-	h.rows = h.rows[:len(h.rows)-1]
-	return r
-}
-
-func keep(h *rowHeap, r sweepRow, n int) {
-	if h.Len() < n {
-		heap.Push(h, r)
-		return
-	}
-	if h.key(r) < h.key(h.rows[0]) {
-		h.rows[0] = r
-		heap.Fix(h, 0)
-	}
 }
 
 func (e *env) sweepCmd() *cobra.Command {
@@ -159,7 +107,7 @@ diameter vary and the count does not, each set gets as many fins as fit (use
 			if len(vary) == 0 {
 				return fail(ExitUsage, fmt.Errorf("give at least one --vary KEY=FROM:TO:STEP"))
 			}
-			var axes []axis
+			var axes sweep.Grid
 			total := 1
 			for _, v := range vary {
 				a, err := parseAxis(v)
@@ -167,7 +115,7 @@ diameter vary and the count does not, each set gets as many fins as fit (use
 					return fail(ExitUsage, err)
 				}
 				axes = append(axes, a)
-				total *= len(a.vals)
+				total *= len(a.Values)
 				if total > 100_000_000 {
 					return fail(ExitUsage, fmt.Errorf("the grid has more than 100 million points"))
 				}
@@ -188,53 +136,25 @@ diameter vary and the count does not, each set gets as many fins as fit (use
 	return cmd
 }
 
-// runGrid evaluates every grid point on workers goroutines and hands each
-// row to sink on the calling goroutine, as the rows finish.
-func runGrid(d *design.Design, axes []axis, total, workers int, fit bool, sink func(sweepRow)) {
-	// points go to the workers in chunks and come back in batches, so the
-	// channels carry one message per chunk rather than one per point; a
-	// chunk is small enough that every worker gets many
-	chunk := min(max(total/(64*workers), 1), 32)
-	// The live heap of a sweep is small and steady (each worker's curve
-	// cache, the best-row heaps, the output buffer), while every point
-	// allocates a few kilobytes that die at once: collecting at 5 times the
-	// live heap instead of twice saves about a tenth of the time
-	// (BenchmarkSweep1000*) for a few megabytes more (the 1,000,000-point
-	// sweep in DEVELOPERS.md stays near 30 MB).
-	if total >= 1000 {
-		defer debug.SetGCPercent(debug.SetGCPercent(400))
-	}
-	type span struct{ lo, hi int }
-	jobs := make(chan span, 4*workers)
-	rows := make(chan []sweepRow, 4*workers)
-	var wg sync.WaitGroup
-	for w := 0; w < workers; w++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			cache := cylinder.NewWorkspace()
-			vals := make(map[string]float64, len(axes)+2)
-			for sp := range jobs {
-				batch := make([]sweepRow, 0, sp.hi-sp.lo)
-				for i := sp.lo; i < sp.hi; i++ {
-					clear(vals)
-					batch = append(batch, evalPoint(d, axes, i, vals, fit, cache))
-				}
-				rows <- batch
+// builder returns a sweep.Builder for one worker: the design file with
+// the grid point's keys changed (fin counts fitted unless fit is false),
+// checked by the parser's rules (Design.With).
+func builder(d *design.Design, axes sweep.Grid, fit bool) func() sweep.Builder {
+	return func() sweep.Builder {
+		vals := make(map[string]float64, len(axes)+2)
+		return func(x []float64) (cylinder.Design, cylinder.Settings, error) {
+			clear(vals)
+			for k, a := range axes {
+				vals[a.Key] = x[k]
 			}
-		}()
-	}
-	go func() {
-		for lo := 0; lo < total; lo += chunk {
-			jobs <- span{lo, min(lo+chunk, total)}
-		}
-		close(jobs)
-		wg.Wait()
-		close(rows)
-	}()
-	for b := range rows {
-		for _, r := range b {
-			sink(r)
+			if fit {
+				fitCounts(d, vals)
+			}
+			v, err := d.With(vals)
+			if err != nil {
+				return cylinder.Design{}, cylinder.Settings{}, err
+			}
+			return v.Cylinder(), v.Run, nil
 		}
 	}
 }
@@ -272,48 +192,6 @@ func fitCounts(d *design.Design, vals map[string]float64) {
 	}
 }
 
-func evalPoint(d *design.Design, axes []axis, i int, vals map[string]float64, fit bool, cache *cylinder.Workspace) sweepRow {
-	r := sweepRow{idx: i, vals: make([]float64, len(axes))}
-	j := i
-	for k := len(axes) - 1; k >= 0; k-- {
-		a := axes[k]
-		r.vals[k] = a.vals[j%len(a.vals)]
-		vals[a.key] = r.vals[k]
-		j /= len(a.vals)
-	}
-	if fit {
-		fitCounts(d, vals)
-	}
-	v, err := d.With(vals)
-	if err != nil {
-		r.status, r.msg = "invalid", firstLine(err.Error())
-		return r
-	}
-	o, err := evaluateWith(v, v.Case.Speed, cache, true)
-	if err != nil {
-		r.status, r.msg = "failed", firstLine(err.Error())
-		return r
-	}
-	r.ok, r.equilibrium = true, o.NoEquilibrium == nil
-	r.hc, r.bc = v.Case.Head.Set.Count, v.Case.Barrel.Set.Count
-	r.headT, r.barrT = o.Result.Head.WallTemp, o.Result.Barrel.WallTemp
-	r.headM, r.barrM = o.HeadMargin(), o.BarrelMargin()
-	r.mass = o.Result.Head.FinMass + o.Result.Barrel.FinMass
-	r.perKg = (o.Result.Head.HeatRejected + o.Result.Barrel.HeatRejected) / r.mass
-	r.status = string(o.Status())
-	if o.NoEquilibrium != nil {
-		r.msg = firstLine(o.NoEquilibrium.Error())
-	}
-	return r
-}
-
-func firstLine(s string) string {
-	if i := strings.IndexByte(s, '\n'); i >= 0 {
-		return s[:i] + " (and more)"
-	}
-	return s
-}
-
 // displayFor converts a varied key's SI value to the display unit.
 func displayFor(u output.Units, key string, v float64) (string, string) {
 	switch {
@@ -337,7 +215,7 @@ func displayFor(u output.Units, key string, v float64) (string, string) {
 	return strconv.FormatFloat(v, 'g', 6, 64), design.SIUnit(key)
 }
 
-func (e *env) sweep(d *design.Design, axes []axis, total, workers, top int, keepCount bool) error {
+func (e *env) sweep(d *design.Design, axes sweep.Grid, total, workers, top int, keepCount bool) error {
 	f, u, err := e.settings()
 	if err != nil {
 		return err
@@ -357,82 +235,17 @@ func (e *env) sweep(d *design.Design, axes []axis, total, workers, top int, keep
 		dst = file
 		summaryTo = e.stdout
 	}
-	bw := bufio.NewWriterSize(dst, 1<<16)
-	cw := csv.NewWriter(bw)
-	T := u.TempU()
-	header := []string{"index"}
-	for _, a := range axes {
-		_, unit := displayFor(u, a.key, a.vals[0])
-		if unit != "" {
-			header = append(header, a.key+" ("+unit+")")
-		} else {
-			header = append(header, a.key)
-		}
-	}
-	header = append(header, "head fins", "barrel fins", "head ("+T+")", "barrel ("+T+")", "head margin ("+u.TempDiffU()+")", "barrel margin ("+u.TempDiffU()+")",
-		"fin mass ("+u.MassU()+")", "heat per fin mass ("+u.PerMassU()+")", "status", "note")
-	if f == output.CSV {
-		if err := cw.Write(header); err != nil {
-			return fail(ExitIO, err)
-		}
-	}
-	cells := func(r sweepRow) []string {
-		c := []string{strconv.Itoa(r.idx)}
-		for k, a := range axes {
-			s, _ := displayFor(u, a.key, r.vals[k])
-			c = append(c, s)
-		}
-		if !r.ok {
-			return append(c, "", "", "", "", "", "", "", "", r.status, r.msg)
-		}
-		return append(c, strconv.Itoa(r.hc), strconv.Itoa(r.bc), fmtT(u, r.headT), fmtT(u, r.barrT), fmtDT(u, r.headM), fmtDT(u, r.barrM),
-			output.Num(u.Mass(r.mass), 3), output.Num(u.PerMass(r.perKg), 0), r.status, r.msg)
-	}
+	header := sweepHeader(axes, u)
+	st := output.NewStream(dst, f, header)
 	var bar *progressbar.ProgressBar
 	if sf, ok := e.stderr.(*os.File); ok && !e.opt.quiet && total >= 200 && term.IsTerminal(int(sf.Fd())) {
 		bar = progressbar.NewOptions(total, progressbar.OptionSetWriter(os.Stderr), progressbar.OptionSetDescription("sweep"),
 			progressbar.OptionShowCount(), progressbar.OptionThrottle(100_000_000), progressbar.OptionClearOnFinish())
 	}
-	coolest := &rowHeap{key: func(r sweepRow) float64 { return r.headT }}
-	lightest := &rowHeap{key: func(r sweepRow) float64 { return r.mass }}
-	counts := map[string]int{}
-	var werr error
-	firstInvalid := sweepRow{idx: -1} // the invalid point of lowest index
-	runGrid(d, axes, total, workers, !keepCount, func(r sweepRow) {
-		counts[r.status]++
-		if r.status == "invalid" && (firstInvalid.idx < 0 || r.idx < firstInvalid.idx) {
-			firstInvalid = r
-		}
-		if r.ok && r.equilibrium {
-			keep(coolest, r, top)
-			if r.headM >= 0 && r.barrM >= 0 {
-				keep(lightest, r, top)
-			}
-		}
-		if werr == nil {
-			switch f {
-			case output.CSV:
-				werr = cw.Write(cells(r))
-			case output.JSON:
-				m := map[string]any{"index": r.idx, "status": r.status}
-				for k, a := range axes {
-					m[a.key] = r.vals[k]
-				}
-				if r.ok {
-					m["head_K"], m["barrel_K"], m["head_margin_K"], m["barrel_margin_K"] = r.headT, r.barrT, r.headM, r.barrM
-					m["fin_mass_kg"], m["heat_per_kg_W"], m["equilibrium"] = r.mass, r.perKg, r.equilibrium
-					m["head_fins"], m["barrel_fins"] = r.hc, r.bc
-				}
-				if r.msg != "" {
-					m["note"] = r.msg
-				}
-				var b []byte
-				if b, werr = json.Marshal(m); werr == nil {
-					b = append(b, '\n')
-					_, werr = bw.Write(b)
-				}
-			}
-		}
+	sum := sweep.NewSummary(top)
+	sweep.Run(axes, workers, builder(d, axes, !keepCount), func(r sweep.Row) {
+		sum.Add(r)
+		st.Row(sweepCells(r, axes, u), func() map[string]any { return sweepJSON(r, axes) })
 		if bar != nil {
 			_ = bar.Add(1)
 		}
@@ -440,59 +253,97 @@ func (e *env) sweep(d *design.Design, axes []axis, total, workers, top int, keep
 	if bar != nil {
 		_ = bar.Finish()
 	}
-	cw.Flush()
-	if werr == nil {
-		werr = cw.Error()
-	}
-	if werr == nil {
-		werr = bw.Flush()
-	}
-	if werr != nil {
-		return fail(ExitIO, fmt.Errorf("writing the sweep: %w", werr))
+	if err := st.Close(); err != nil {
+		return fail(ExitIO, fmt.Errorf("writing the sweep: %w", err))
 	}
 	if file != nil {
 		if err := file.Commit(); err != nil {
 			return err
 		}
 	}
-	// summary
-	sorted := func(h *rowHeap) []sweepRow {
-		rs := append([]sweepRow(nil), h.rows...)
-		sort.Slice(rs, func(i, j int) bool {
-			return h.key(rs[i]) < h.key(rs[j]) || h.key(rs[i]) == h.key(rs[j]) && rs[i].idx < rs[j].idx
-		})
-		return rs
+	sf := output.Table
+	if f == output.Markdown {
+		sf = output.Markdown
 	}
-	grid := func(title string, rs []sweepRow) output.Grid {
+	if err := output.Write(summaryTo, sweepSummary(d, axes, sum, total, workers, top, header, u), sf); err != nil {
+		return fail(ExitIO, err)
+	}
+	if fi := sum.FirstInvalid; sum.Counts[sweep.StatusInvalid] == total && fi != nil {
+		return fail(ExitDesign, fmt.Errorf("every point of the sweep breaks a design rule, so none was estimated; point %d: %s", fi.Index, fi.Note))
+	}
+	return nil
+}
+
+// sweepHeader is the header of the sweep's rows: the index, each varied
+// key in its display unit, the results, status and note.
+func sweepHeader(axes sweep.Grid, u output.Units) []string {
+	T := u.TempU()
+	header := []string{"index"}
+	for _, a := range axes {
+		_, unit := displayFor(u, a.Key, a.Values[0])
+		if unit != "" {
+			header = append(header, a.Key+" ("+unit+")")
+		} else {
+			header = append(header, a.Key)
+		}
+	}
+	return append(header, "head fins", "barrel fins", "head ("+T+")", "barrel ("+T+")", "head margin ("+u.TempDiffU()+")", "barrel margin ("+u.TempDiffU()+")",
+		"fin mass ("+u.MassU()+")", "heat per fin mass ("+u.PerMassU()+")", "status", "note")
+}
+
+// sweepCells is a row in display units.
+func sweepCells(r sweep.Row, axes sweep.Grid, u output.Units) []string {
+	c := []string{strconv.Itoa(r.Index)}
+	for k, a := range axes {
+		s, _ := displayFor(u, a.Key, r.Values[k])
+		c = append(c, s)
+	}
+	if !r.Evaluated {
+		return append(c, "", "", "", "", "", "", "", "", r.Status, r.Note)
+	}
+	return append(c, strconv.Itoa(r.HeadFins), strconv.Itoa(r.BarrelFins), fmtT(u, r.HeadWall), fmtT(u, r.BarrelWall), fmtDT(u, r.HeadMargin), fmtDT(u, r.BarrelMargin),
+		output.Num(u.Mass(r.FinMass), 3), output.Num(u.PerMass(r.HeatPerFinMass), 0), r.Status, r.Note)
+}
+
+// sweepJSON is a row as a JSON-lines object (SI).
+func sweepJSON(r sweep.Row, axes sweep.Grid) map[string]any {
+	m := map[string]any{"index": r.Index, "status": r.Status}
+	for k, a := range axes {
+		m[a.Key] = r.Values[k]
+	}
+	if r.Evaluated {
+		m["head_K"], m["barrel_K"], m["head_margin_K"], m["barrel_margin_K"] = r.HeadWall, r.BarrelWall, r.HeadMargin, r.BarrelMargin
+		m["fin_mass_kg"], m["heat_per_kg_W"], m["equilibrium"] = r.FinMass, r.HeatPerFinMass, r.Equilibrium
+		m["head_fins"], m["barrel_fins"] = r.HeadFins, r.BarrelFins
+	}
+	if r.Note != "" {
+		m["note"] = r.Note
+	}
+	return m
+}
+
+// sweepSummary is the document of the best rows.
+func sweepSummary(d *design.Design, axes sweep.Grid, sum *sweep.Summary, total, workers, top int, header []string, u output.Units) output.Doc {
+	grid := func(title string, rs []sweep.Row) output.Grid {
 		g := output.Grid{Title: title, Header: header[:len(header)-1]}
 		for _, r := range rs {
-			c := cells(r)
+			c := sweepCells(r, axes, u)
 			g.Rows = append(g.Rows, c[:len(c)-1])
 		}
 		return g
 	}
 	var keys []string
-	for k := range counts {
-		keys = append(keys, fmt.Sprintf("%s %d", k, counts[k]))
+	for k := range sum.Counts {
+		keys = append(keys, fmt.Sprintf("%s %d", k, sum.Counts[k]))
 	}
 	sort.Strings(keys)
 	doc := output.Doc{Title: fmt.Sprintf("%s: sweep of %d points on %d workers (%s)", d.Name, total, workers, strings.Join(keys, ", ")),
-		Grids: []output.Grid{grid(fmt.Sprintf("Coolest heads (best %d)", top), sorted(coolest)),
-			grid(fmt.Sprintf("Lightest fins within both limits (best %d)", top), sorted(lightest))},
+		Grids: []output.Grid{grid(fmt.Sprintf("Coolest heads (best %d)", top), sum.Coolest.Rows()),
+			grid(fmt.Sprintf("Lightest fins within both limits (best %d)", top), sum.Lightest.Rows())},
 		Caution: true}
-	if counts["invalid"] > 0 {
+	if fi := sum.FirstInvalid; fi != nil {
 		doc.Notes = append(doc.Notes, fmt.Sprintf("Invalid points break a design rule (the row's note says which) and are not estimated; the first, point %d: %s.",
-			firstInvalid.idx, strings.TrimSuffix(firstInvalid.msg, ".")))
+			fi.Index, strings.TrimSuffix(fi.Note, ".")))
 	}
-	sf := output.Table
-	if f == output.Markdown {
-		sf = output.Markdown
-	}
-	if err := output.Write(summaryTo, doc, sf); err != nil {
-		return fail(ExitIO, err)
-	}
-	if counts["invalid"] == total {
-		return fail(ExitDesign, fmt.Errorf("every point of the sweep breaks a design rule, so none was estimated; point %d: %s", firstInvalid.idx, firstInvalid.msg))
-	}
-	return nil
+	return doc
 }

@@ -85,20 +85,20 @@ func TestSweepCSVAndJSON(t *testing.T) {
 // A temperature step in C or F is a difference, not a temperature.
 func TestAxisTemperatureStep(t *testing.T) {
 	a, err := parseAxis("air.ambient=20C:30C:5C")
-	if err != nil || len(a.vals) != 3 || a.vals[1] != 298.15 {
-		t.Fatalf("%v %v", a.vals, err)
+	if err != nil || len(a.Values) != 3 || a.Values[1] != 298.15 {
+		t.Fatalf("%v %v", a.Values, err)
 	}
 	a, err = parseAxis("air.ambient=50F:104F:9F")
-	if err != nil || len(a.vals) != 7 {
-		t.Fatalf("F: %v %v", a.vals, err)
+	if err != nil || len(a.Values) != 7 {
+		t.Fatalf("F: %v %v", a.Values, err)
 	}
 	a, err = parseAxis("head.pitch=6mm:8mm:1mm")
-	if err != nil || len(a.vals) != 3 {
-		t.Fatalf("mm: %v %v", a.vals, err)
+	if err != nil || len(a.Values) != 3 {
+		t.Fatalf("mm: %v %v", a.Values, err)
 	}
 	a, err = parseAxis("head.count=4,6,8")
-	if err != nil || len(a.vals) != 3 || a.vals[2] != 8 {
-		t.Fatalf("list: %v %v", a.vals, err)
+	if err != nil || len(a.Values) != 3 || a.Values[2] != 8 {
+		t.Fatalf("list: %v %v", a.Values, err)
 	}
 }
 
@@ -118,10 +118,10 @@ func TestAxisValues(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		if len(a.vals) != len(c.want) {
-			t.Fatalf("%s: %v", c.spec, a.vals)
+		if len(a.Values) != len(c.want) {
+			t.Fatalf("%s: %v", c.spec, a.Values)
 		}
-		for i, v := range a.vals {
+		for i, v := range a.Values {
 			if v != c.want[i] {
 				t.Errorf("%s: value %d is %v, want %v", c.spec, i, v, c.want[i])
 			}
