@@ -11,7 +11,7 @@ import (
 )
 
 // The physics packages stay free of files, flags, the TOML library and the
-// command line (DESIGN.md layout rule): no non-test file under fins,
+// command line (the layout rule of DEVELOPERS.md): no non-test file under fins,
 // airflow or materials imports them.
 func TestPhysicsImports(t *testing.T) {
 	forbidden := []string{"os", "flag", "github.com/BurntSushi/toml", "finmarch/cmd", "github.com/spf13/cobra", "github.com/olekukonko/tablewriter"}

@@ -6,7 +6,7 @@ import (
 	"testing"
 )
 
-// The catalogue must hold what the issue asks for: two sand/permanent-mould
+// The catalogue covers the alloys fins are cast or cut from: two sand/permanent-mould
 // aluminium alloys, one die-casting alloy, two wrought alloys, pure
 // aluminium, grey iron and a magnesium alloy.
 func TestCatalogueCoverage(t *testing.T) {
