@@ -23,8 +23,8 @@ const (
 		"spark-plug seat run hotter."
 )
 
-func fmtT(u output.Units, k float64) string  { return output.Num(u.Temp(k), 1) }
-func fmtDT(u output.Units, k float64) string { return output.Num(u.TempDiff(k), 1) }
+func fmtT(u output.Units, k float64) string  { return output.Num(u.Of(output.Temp, k), 1) }
+func fmtDT(u output.Units, k float64) string { return output.Num(u.Of(output.TempDiff, k), 1) }
 
 func (e *env) demoCmd() *cobra.Command {
 	return &cobra.Command{
@@ -116,15 +116,15 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 	c := d.Case
 	doc := output.Doc{
 		Title: fmt.Sprintf("%s: %s %s, ambient %s %s, altitude %s %s (%s %s), tilt %.0f deg", d.Name,
-			output.Num(u.Road(c.Speed), 0), u.RoadU(), fmtT(u, c.Ambient), u.TempU(),
-			output.Num(u.Alt(d.Altitude), 0), u.AltU(), output.Num(u.Press(c.Pressure), 1), u.PressU(), c.Tilt*180/math.Pi),
+			output.Num(u.Of(output.Road, c.Speed), 0), u.Name(output.Road), fmtT(u, c.Ambient), u.Name(output.Temp),
+			output.Num(u.Of(output.Alt, d.Altitude), 0), u.Name(output.Alt), output.Num(u.Of(output.Press, c.Pressure), 1), u.Name(output.Press), c.Tilt*180/math.Pi),
 		Caution: true,
 	}
 	pair := func(f func(r cylinder.SetResult) string) []string { return []string{f(h), f(b)} }
 	row := func(q, unit string, vals []string) []string { return append([]string{q, unit}, vals...) }
 	g := output.Grid{Title: "Heat balance per fin set", Header: []string{"quantity", "unit", "head", "barrel"}, Left: 2}
 	if o.Fixed {
-		g.Rows = append(g.Rows, row("wall temperature (given)", u.TempU(), pair(func(r cylinder.SetResult) string { return fmtT(u, r.WallTemp) })))
+		g.Rows = append(g.Rows, row("wall temperature (given)", u.Name(output.Temp), pair(func(r cylinder.SetResult) string { return fmtT(u, r.WallTemp) })))
 	} else {
 		g.Rows = append(g.Rows,
 			row("heat load", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.HeatLoad, 0) })))
@@ -138,38 +138,40 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 	)
 	if !o.Fixed {
 		g.Rows = append(g.Rows,
-			row("wall temperature at fin roots", u.TempU(), pair(func(r cylinder.SetResult) string { return fmtT(u, r.WallTemp) })),
-			row("limit", u.TempU(), []string{fmtT(u, d.HeadLimit), fmtT(u, d.BarrelLimit)}),
-			row("margin to limit", u.TempDiffU(), []string{fmtDT(u, o.HeadMargin()), fmtDT(u, o.BarrelMargin())}),
+			row("wall temperature at fin roots", u.Name(output.Temp), pair(func(r cylinder.SetResult) string { return fmtT(u, r.WallTemp) })),
+			row("limit", u.Name(output.Temp), []string{fmtT(u, d.HeadLimit), fmtT(u, d.BarrelLimit)}),
+			row("margin to limit", u.Name(output.TempDiff), []string{fmtDT(u, o.HeadMargin()), fmtDT(u, o.BarrelMargin())}),
 			row("status", "", []string{setStatus(o.NoEquilibrium, h, o.HeadMargin()), setStatus(o.NoEquilibrium, b, o.BarrelMargin())}),
 		)
 	}
 	g.Rows = append(g.Rows,
-		row("air at inlet", u.TempU(), pair(func(r cylinder.SetResult) string { return fmtT(u, r.AirIn) })),
-		row("air at outlet", u.TempU(), pair(func(r cylinder.SetResult) string { return fmtT(u, r.AirOut) })),
-		row("air rise along the path", u.TempDiffU(), pair(func(r cylinder.SetResult) string { return fmtDT(u, r.AirOut-r.AirIn) })),
-		row("road speed along the fins", u.RoadU(), pair(func(r cylinder.SetResult) string { return output.Num(u.Road(r.ApproachComponent), 0) })),
-		row("passage velocity", u.VelU(), pair(func(r cylinder.SetResult) string { return output.Num(u.Vel(r.PassageVelocity), 2) })),
+		row("air at inlet", u.Name(output.Temp), pair(func(r cylinder.SetResult) string { return fmtT(u, r.AirIn) })),
+		row("air at outlet", u.Name(output.Temp), pair(func(r cylinder.SetResult) string { return fmtT(u, r.AirOut) })),
+		row("air rise along the path", u.Name(output.TempDiff), pair(func(r cylinder.SetResult) string { return fmtDT(u, r.AirOut-r.AirIn) })),
+		row("road speed along the fins", u.Name(output.Road), pair(func(r cylinder.SetResult) string { return output.Num(u.Of(output.Road, r.ApproachComponent), 0) })),
+		row("passage velocity", u.Name(output.Vel), pair(func(r cylinder.SetResult) string { return output.Num(u.Of(output.Vel, r.PassageVelocity), 2) })),
 		row("Reynolds number (2 x gap)", "-", pair(func(r cylinder.SetResult) string { return output.Num(r.Reynolds, 0) })),
 		row("flow regime", "", pair(func(r cylinder.SetResult) string { return r.Regime })),
-		row("air paths x path length", u.LenU(), pair(func(r cylinder.SetResult) string {
+		row("air paths x path length", u.Name(output.Len), pair(func(r cylinder.SetResult) string {
 			dec := 0
 			if u.US {
 				dec = 1
 			}
-			return fmt.Sprintf("%d x %s", r.Paths, output.Num(u.Len(r.PathLength), dec))
+			return fmt.Sprintf("%d x %s", r.Paths, output.Num(u.Of(output.Len, r.PathLength), dec))
 		})),
-		row("mean h (forced)", u.HU(), pair(func(r cylinder.SetResult) string { return output.Num(u.H(r.MeanH), 1) })),
+		row("mean h (forced)", u.Name(output.H), pair(func(r cylinder.SetResult) string { return output.Num(u.Of(output.H, r.MeanH), 1) })),
 		row("fin efficiency", "-", pair(func(r cylinder.SetResult) string { return output.Num(r.FinEfficiency, 3) })),
 		row("surface efficiency", "-", pair(func(r cylinder.SetResult) string { return output.Num(r.SurfaceEfficiency, 3) })),
-		row("finned surface (fins + base)", u.AreaU(), pair(func(r cylinder.SetResult) string { return output.Num(u.Area(r.TotalArea), 3) })),
-		row("fin mass", u.MassU(), pair(func(r cylinder.SetResult) string { return output.Num(u.Mass(r.FinMass), 2) })),
-		row("heat per mass of fin", u.PerMassU(), pair(func(r cylinder.SetResult) string { return output.Num(u.PerMass(r.HeatRejected/r.FinMass), 0) })),
+		row("finned surface (fins + base)", u.Name(output.Area), pair(func(r cylinder.SetResult) string { return output.Num(u.Of(output.Area, r.TotalArea), 3) })),
+		row("fin mass", u.Name(output.Mass), pair(func(r cylinder.SetResult) string { return output.Num(u.Of(output.Mass, r.FinMass), 2) })),
+		row("heat per mass of fin", u.Name(output.PerMass), pair(func(r cylinder.SetResult) string {
+			return output.Num(u.Of(output.PerMass, r.HeatRejected/r.FinMass), 0)
+		})),
 	)
 	doc.Grids = append(doc.Grids, g)
 	if !o.Fixed && !d.Load.Direct {
 		doc.Notes = append(doc.Notes, fmt.Sprintf("Road load at %s %s: %.2f kW at the wheel, %.2f kW at the crank, %.1f kW of fuel; %.0f%% of the fuel power to the fins of %d cylinder(s), %.0f%% of it through the head.",
-			output.Num(u.Road(c.Speed), 0), u.RoadU(), o.Load.WheelPower/1e3, o.Load.BrakePower/1e3, o.Load.FuelPower/1e3,
+			output.Num(u.Of(output.Road, c.Speed), 0), u.Name(output.Road), o.Load.WheelPower/1e3, o.Load.BrakePower/1e3, o.Load.FuelPower/1e3,
 			100*d.Load.Road.CoolShare, d.Load.Road.Cylinders, 100*d.Load.Road.HeadShare))
 	}
 	doc.Notes = append(doc.Notes, orientationNote(d, o.Result), noteWall, noteMixed,
@@ -206,7 +208,7 @@ func limitAlerts(u output.Units, o outcome) []string {
 	}{{"head", o.Result.Head.WallTemp, o.d.HeadLimit, o.HeadMargin()}, {"barrel", o.Result.Barrel.WallTemp, o.d.BarrelLimit, o.BarrelMargin()}} {
 		if x.margin < 0 {
 			out = append(out, fmt.Sprintf("%s: the %s runs at %s %s, %s %s over its %s %s limit",
-				o.d.Name, x.name, fmtT(u, x.wall), u.TempU(), fmtDT(u, -x.margin), u.TempDiffU(), fmtT(u, x.limit), u.TempU()))
+				o.d.Name, x.name, fmtT(u, x.wall), u.Name(output.Temp), fmtDT(u, -x.margin), u.Name(output.TempDiff), fmtT(u, x.limit), u.Name(output.Temp)))
 		}
 	}
 	return out
@@ -309,32 +311,34 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 	}
 	add("tilt from vertical", "deg", func(o outcome) string { return output.Num(o.d.Case.Tilt*180/math.Pi, 0) })
 	add("fin style head / barrel", "", func(o outcome) string { return o.Result.Head.Style + " / " + o.Result.Barrel.Style })
-	add("road speed", u.RoadU(), func(o outcome) string { return output.Num(u.Road(o.speed), 0) })
-	add("ambient", u.TempU(), func(o outcome) string { return fmtT(u, o.d.Case.Ambient) })
+	add("road speed", u.Name(output.Road), func(o outcome) string { return output.Num(u.Of(output.Road, o.speed), 0) })
+	add("ambient", u.Name(output.Temp), func(o outcome) string { return fmtT(u, o.d.Case.Ambient) })
 	add("heat load head / barrel", "W", func(o outcome) string {
 		return output.Num(o.Result.Head.HeatLoad, 0) + " / " + output.Num(o.Result.Barrel.HeatLoad, 0)
 	})
-	add("head temperature", u.TempU(), func(o outcome) string { return fmtT(u, o.Result.Head.WallTemp) })
-	add("barrel temperature", u.TempU(), func(o outcome) string { return fmtT(u, o.Result.Barrel.WallTemp) })
-	add("head margin to limit", u.TempDiffU(), func(o outcome) string { return fmtDT(u, o.HeadMargin()) })
-	add("barrel margin to limit", u.TempDiffU(), func(o outcome) string { return fmtDT(u, o.BarrelMargin()) })
+	add("head temperature", u.Name(output.Temp), func(o outcome) string { return fmtT(u, o.Result.Head.WallTemp) })
+	add("barrel temperature", u.Name(output.Temp), func(o outcome) string { return fmtT(u, o.Result.Barrel.WallTemp) })
+	add("head margin to limit", u.Name(output.TempDiff), func(o outcome) string { return fmtDT(u, o.HeadMargin()) })
+	add("barrel margin to limit", u.Name(output.TempDiff), func(o outcome) string { return fmtDT(u, o.BarrelMargin()) })
 	add("status", "", func(o outcome) string { return string(o.Status()) })
-	add("passage velocity head / barrel", u.VelU(), func(o outcome) string {
-		return output.Num(u.Vel(o.Result.Head.PassageVelocity), 1) + " / " + output.Num(u.Vel(o.Result.Barrel.PassageVelocity), 1)
+	add("passage velocity head / barrel", u.Name(output.Vel), func(o outcome) string {
+		return output.Num(u.Of(output.Vel, o.Result.Head.PassageVelocity), 1) + " / " + output.Num(u.Of(output.Vel, o.Result.Barrel.PassageVelocity), 1)
 	})
-	add("air rise head / barrel", u.TempDiffU(), func(o outcome) string {
+	add("air rise head / barrel", u.Name(output.TempDiff), func(o outcome) string {
 		return fmtDT(u, o.Result.Head.AirOut-o.Result.Head.AirIn) + " / " + fmtDT(u, o.Result.Barrel.AirOut-o.Result.Barrel.AirIn)
 	})
-	add("air reaching barrel fins", u.TempU(), func(o outcome) string { return fmtT(u, o.Result.Barrel.AirIn) })
-	add("mean h head / barrel", u.HU(), func(o outcome) string {
-		return output.Num(u.H(o.Result.Head.MeanH), 1) + " / " + output.Num(u.H(o.Result.Barrel.MeanH), 1)
+	add("air reaching barrel fins", u.Name(output.Temp), func(o outcome) string { return fmtT(u, o.Result.Barrel.AirIn) })
+	add("mean h head / barrel", u.Name(output.H), func(o outcome) string {
+		return output.Num(u.Of(output.H, o.Result.Head.MeanH), 1) + " / " + output.Num(u.Of(output.H, o.Result.Barrel.MeanH), 1)
 	})
-	add("finned surface", u.AreaU(), func(o outcome) string {
-		return output.Num(u.Area(o.Result.Head.TotalArea+o.Result.Barrel.TotalArea), 3)
+	add("finned surface", u.Name(output.Area), func(o outcome) string {
+		return output.Num(u.Of(output.Area, o.Result.Head.TotalArea+o.Result.Barrel.TotalArea), 3)
 	})
-	add("fin mass", u.MassU(), func(o outcome) string { return output.Num(u.Mass(o.Result.Head.FinMass+o.Result.Barrel.FinMass), 2) })
-	add("heat rejected per mass of fin", u.PerMassU(), func(o outcome) string {
-		return output.Num(u.PerMass((o.Result.Head.HeatRejected+o.Result.Barrel.HeatRejected)/(o.Result.Head.FinMass+o.Result.Barrel.FinMass)), 0)
+	add("fin mass", u.Name(output.Mass), func(o outcome) string {
+		return output.Num(u.Of(output.Mass, o.Result.Head.FinMass+o.Result.Barrel.FinMass), 2)
+	})
+	add("heat rejected per mass of fin", u.Name(output.PerMass), func(o outcome) string {
+		return output.Num(u.Of(output.PerMass, (o.Result.Head.HeatRejected+o.Result.Barrel.HeatRejected)/(o.Result.Head.FinMass+o.Result.Barrel.FinMass)), 0)
 	})
 	doc := output.Doc{Title: heading, Grids: []output.Grid{g}, Caution: true}
 	for i := 1; i < len(os); i++ {
@@ -366,9 +370,9 @@ func explain(u output.Units, a, b outcome, la, lb rune) string {
 	db := b.Result.Barrel.WallTemp - a.Result.Barrel.WallTemp
 	word := func(d float64) string {
 		if d >= 0 {
-			return fmt.Sprintf("%s %s hotter", output.Num(u.TempDiff(d), 0), u.TempDiffU())
+			return fmt.Sprintf("%s %s hotter", output.Num(u.Of(output.TempDiff, d), 0), u.Name(output.TempDiff))
 		}
-		return fmt.Sprintf("%s %s cooler", output.Num(u.TempDiff(-d), 0), u.TempDiffU())
+		return fmt.Sprintf("%s %s cooler", output.Num(u.Of(output.TempDiff, -d), 0), u.Name(output.TempDiff))
 	}
 	s := fmt.Sprintf("%c against %c: the head runs %s and the barrel %s.", lb, la, word(dh), word(db))
 	var worse, better []string // what makes b hotter, what makes it cooler
@@ -381,26 +385,26 @@ func explain(u output.Units, a, b outcome, la, lb rune) string {
 	}
 	ha, hb := a.Result.Head, b.Result.Head
 	if math.Abs(hb.PassageVelocity-ha.PassageVelocity) > 0.05*math.Max(ha.PassageVelocity, 0.1) {
-		w := fmt.Sprintf("head passage air at %s against %s %s", output.Num(u.Vel(hb.PassageVelocity), 1), output.Num(u.Vel(ha.PassageVelocity), 1), u.VelU())
+		w := fmt.Sprintf("head passage air at %s against %s %s", output.Num(u.Of(output.Vel, hb.PassageVelocity), 1), output.Num(u.Of(output.Vel, ha.PassageVelocity), 1), u.Name(output.Vel))
 		if hb.Series && !ha.Series {
 			w += " (only the share of road speed along the axis drives it, through head and barrel passages in series)"
 		}
 		side(hb.PassageVelocity < ha.PassageVelocity, w)
 	}
 	if math.Abs(hb.MeanH-ha.MeanH) > 0.05*math.Max(ha.MeanH, 1) {
-		side(hb.MeanH < ha.MeanH, fmt.Sprintf("mean h on the head %s against %s %s", output.Num(u.H(hb.MeanH), 0), output.Num(u.H(ha.MeanH), 0), u.HU()))
+		side(hb.MeanH < ha.MeanH, fmt.Sprintf("mean h on the head %s against %s %s", output.Num(u.Of(output.H, hb.MeanH), 0), output.Num(u.Of(output.H, ha.MeanH), 0), u.Name(output.H)))
 	}
 	ra, rb := ha.AirOut-ha.AirIn, hb.AirOut-hb.AirIn
 	if math.Abs(rb-ra) > 3 {
-		side(rb > ra, fmt.Sprintf("air warming %s %s along the head fins against %s", output.Num(u.TempDiff(rb), 0), u.TempDiffU(), output.Num(u.TempDiff(ra), 0)))
+		side(rb > ra, fmt.Sprintf("air warming %s %s along the head fins against %s", output.Num(u.Of(output.TempDiff, rb), 0), u.Name(output.TempDiff), output.Num(u.Of(output.TempDiff, ra), 0)))
 	}
 	if math.Abs(b.Result.Barrel.AirIn-a.Result.Barrel.AirIn) > 1 {
 		side(b.Result.Barrel.AirIn > a.Result.Barrel.AirIn, fmt.Sprintf("air reaching the barrel fins at %s %s against %s (on a series path the head has warmed it)",
-			fmtT(u, b.Result.Barrel.AirIn), u.TempU(), fmtT(u, a.Result.Barrel.AirIn)))
+			fmtT(u, b.Result.Barrel.AirIn), u.Name(output.Temp), fmtT(u, a.Result.Barrel.AirIn)))
 	}
 	aa, ab := ha.TotalArea+a.Result.Barrel.TotalArea, hb.TotalArea+b.Result.Barrel.TotalArea
 	if math.Abs(ab-aa) > 0.03*aa {
-		side(ab < aa, fmt.Sprintf("finned surface %s against %s %s", output.Num(u.Area(ab), 3), output.Num(u.Area(aa), 3), u.AreaU()))
+		side(ab < aa, fmt.Sprintf("finned surface %s against %s %s", output.Num(u.Of(output.Area, ab), 3), output.Num(u.Of(output.Area, aa), 3), u.Name(output.Area)))
 	}
 	lda, ldb := ha.HeatLoad+a.Result.Barrel.HeatLoad, hb.HeatLoad+b.Result.Barrel.HeatLoad
 	if math.Abs(ldb-lda) > 0.02*math.Max(lda, 1) {
@@ -466,7 +470,7 @@ func (e *env) tilt(d *design.Design, step float64) error {
 	if err != nil {
 		return fail(ExitDesign, err)
 	}
-	T := u.TempU()
+	T := u.Name(output.Temp)
 	g := output.Grid{Title: "Head and barrel temperature against tilt",
 		Header: []string{"tilt (deg)", "annular head (" + T + ")", "annular barrel (" + T + ")", "longitudinal head (" + T + ")", "longitudinal barrel (" + T + ")", "cooler style"}}
 	var warns [][]string
@@ -505,9 +509,11 @@ func (e *env) tilt(d *design.Design, step float64) error {
 	}
 	hs, bs := an.Case.Head.Set, an.Case.Barrel.Set
 	hl, bl := lo.Case.Head.Set, lo.Case.Barrel.Set
-	lu := func(v float64) string { return output.Num(u.Len(v), u.LenDec()) + " " + u.LenU() }
+	lu := func(v float64) string {
+		return output.Num(u.Of(output.Len, v), u.Dec(output.Len)) + " " + u.Name(output.Len)
+	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: orientation check at %s %s, ambient %s %s", d.Name,
-		output.Num(u.Road(d.Case.Speed), 0), u.RoadU(), fmtT(u, d.Case.Ambient), u.TempU()), Grids: []output.Grid{g}, Caution: true}
+		output.Num(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), fmtT(u, d.Case.Ambient), u.Name(output.Temp)), Grids: []output.Grid{g}, Caution: true}
 	doc.Notes = append(doc.Notes,
 		fmt.Sprintf("Annular variant: head %d fins at %s pitch, barrel %d fins at %s pitch. Longitudinal variant: head %d fins at %s root pitch, barrel %d fins at %s root pitch. Same heights, thicknesses and mean gap.",
 			hs.Count, lu(hs.Pitch), bs.Count, lu(bs.Pitch), hl.Count, lu(hl.Pitch), bl.Count, lu(bl.Pitch)),
@@ -532,17 +538,17 @@ func (e *env) march(d *design.Design) error {
 	if err != nil {
 		return err
 	}
-	T, L := u.TempU(), u.LenU()
+	T, L := u.Name(output.Temp), u.Name(output.Len)
 	g := output.Grid{Title: "March along one air path of each fin set (heat and flux summed over all parallel paths)",
-		Header: []string{"set", "segment", "x (" + L + ")", "air in (" + T + ")", "air out (" + T + ")", "h (" + u.HU() + ")", "fin eff", "flux (" + u.FluxU() + ")", "heat (W)"}, Left: 1}
+		Header: []string{"set", "segment", "x (" + L + ")", "air in (" + T + ")", "air out (" + T + ")", "h (" + u.Name(output.H) + ")", "fin eff", "flux (" + u.Name(output.Flux) + ")", "heat (W)"}, Left: 1}
 	for _, s := range []cylinder.SetResult{o.Result.Head, o.Result.Barrel} {
 		for i, sg := range s.March {
-			g.Rows = append(g.Rows, []string{s.Name, fmt.Sprint(i + 1), output.Num(u.Len(sg.X), u.LenDec()), fmtT(u, sg.AirIn), fmtT(u, sg.AirOut),
-				output.Num(u.H(sg.H), 1), output.Num(sg.FinEff, 3), output.Num(u.Flux(sg.Flux), 0), output.Num(sg.Heat, 1)})
+			g.Rows = append(g.Rows, []string{s.Name, fmt.Sprint(i + 1), output.Num(u.Of(output.Len, sg.X), u.Dec(output.Len)), fmtT(u, sg.AirIn), fmtT(u, sg.AirOut),
+				output.Num(u.Of(output.H, sg.H), 1), output.Num(sg.FinEff, 3), output.Num(u.Of(output.Flux, sg.Flux), 0), output.Num(sg.Heat, 1)})
 		}
 	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: march at %s %s (head wall %s %s, barrel wall %s %s)", d.Name,
-		output.Num(u.Road(d.Case.Speed), 0), u.RoadU(), fmtT(u, o.Result.Head.WallTemp), T, fmtT(u, o.Result.Barrel.WallTemp), T),
+		output.Num(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), fmtT(u, o.Result.Head.WallTemp), T, fmtT(u, o.Result.Barrel.WallTemp), T),
 		Grids: []output.Grid{g}, Caution: true}
 	for _, s := range []cylinder.SetResult{o.Result.Head, o.Result.Barrel} {
 		if len(s.March) == 0 {
@@ -551,8 +557,8 @@ func (e *env) march(d *design.Design) error {
 		}
 		first, last := s.March[0], s.March[len(s.March)-1]
 		doc.Notes = append(doc.Notes, fmt.Sprintf("%s: the air warms from %s to %s %s along %s %s; the local heat flux falls from %s to %s %s (%s%% of its entry value).",
-			title(s.Name), fmtT(u, s.AirIn), fmtT(u, s.AirOut), T, output.Num(u.Len(s.PathLength), 0), L,
-			output.Num(u.Flux(first.Flux), 0), output.Num(u.Flux(last.Flux), 0), u.FluxU(), output.Num(100*last.Flux/first.Flux, 0)))
+			title(s.Name), fmtT(u, s.AirIn), fmtT(u, s.AirOut), T, output.Num(u.Of(output.Len, s.PathLength), 0), L,
+			output.Num(u.Of(output.Flux, first.Flux), 0), output.Num(u.Of(output.Flux, last.Flux), 0), u.Name(output.Flux), output.Num(100*last.Flux/first.Flux, 0)))
 	}
 	if o.NoEquilibrium != nil {
 		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.NoEquilibrium.Error()+"; the march is shown at the search limit.")
@@ -603,9 +609,9 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 	if err != nil {
 		return err
 	}
-	T := u.TempU()
+	T := u.Name(output.Temp)
 	g := output.Grid{Title: "Temperatures against road speed",
-		Header: []string{"speed (" + u.RoadU() + ")", "head load (W)", "barrel load (W)", "head (" + T + ")", "barrel (" + T + ")", "head margin (" + u.TempDiffU() + ")", "status"}}
+		Header: []string{"speed (" + u.Name(output.Road) + ")", "head load (W)", "barrel load (W)", "head (" + T + ")", "barrel (" + T + ")", "head margin (" + u.Name(output.TempDiff) + ")", "status"}}
 	var warns [][]string
 	var rows []map[string]any
 	for i := 0; ; i++ {
@@ -631,7 +637,7 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 		if !o.Fixed && o.Load.Head == 0 && o.Load.Barrel == 0 {
 			st, margin, ht, bt = "no load", "-", "-", "-"
 		}
-		g.Rows = append(g.Rows, []string{output.Num(u.Road(v), 0), output.Num(o.Result.Head.HeatLoad, 0), output.Num(o.Result.Barrel.HeatLoad, 0),
+		g.Rows = append(g.Rows, []string{output.Num(u.Of(output.Road, v), 0), output.Num(o.Result.Head.HeatLoad, 0), output.Num(o.Result.Barrel.HeatLoad, 0),
 			ht, bt, margin, st})
 		rows = append(rows, map[string]any{"speed_m_s": v, "load": o.Load, "head": summary(o.Result.Head), "barrel": summary(o.Result.Barrel),
 			"head_margin_K": o.HeadMargin(), "status": o.Status(), "equilibrium": o.NoEquilibrium == nil})
@@ -671,7 +677,7 @@ func (e *env) alloysCmd() *cobra.Command {
 			if err != nil {
 				return err
 			}
-			g := output.Grid{Header: []string{"name", "kind", "k at 300 K (W/mK)", "density (kg/m3)", "cp (J/kgK)", "emissivity bare / painted", "max service (" + u.TempU() + ")"}, Left: 2}
+			g := output.Grid{Header: []string{"name", "kind", "k at 300 K (W/mK)", "density (kg/m3)", "cp (J/kgK)", "emissivity bare / painted", "max service (" + u.Name(output.Temp) + ")"}, Left: 2}
 			var notes []string
 			for _, a := range materials.All() {
 				g.Rows = append(g.Rows, []string{a.Name, a.Kind, output.Num(a.K300, 1), output.Num(a.Density, 0), output.Num(a.Cp, 0),

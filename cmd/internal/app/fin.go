@@ -117,7 +117,7 @@ func (e *env) fin(in finInput) error {
 		return fail(ExitUsage, fmt.Errorf("--height and --root-thickness must be positive"))
 	}
 	if in.t1 > in.t0 {
-		return fail(ExitUsage, fmt.Errorf("--tip-thickness %s %s is thicker than the root %s %s", output.Num(u.Len(in.t1), 2), u.LenU(), output.Num(u.Len(in.t0), 2), u.LenU()))
+		return fail(ExitUsage, fmt.Errorf("--tip-thickness %s %s is thicker than the root %s %s", output.Num(u.Of(output.Len, in.t1), 2), u.Name(output.Len), output.Num(u.Of(output.Len, in.t0), 2), u.Name(output.Len)))
 	}
 	annular := strings.HasPrefix(in.profile, "annular")
 	if annular && !(in.d > 0) {
@@ -176,8 +176,8 @@ func (e *env) fin(in finInput) error {
 	}
 	add("fin efficiency ("+method+")", output.Num(eta, 4), "-")
 	add("fin efficiency (finite-volume check, 400 cells)", output.Num(sol.Efficiency, 4), "-")
-	add("heated area "+per, output.Num(u.Area(area)*map[bool]float64{true: 1e4, false: 1}[!u.US && annular], 2), map[bool]string{true: "cm2", false: u.AreaU()}[!u.US && annular])
-	add("heat rate "+per+" at "+fmtT(u, in.tw)+" wall, "+fmtT(u, in.ta)+" air ("+u.TempU()+")", output.Num(q, 1), "W")
+	add("heated area "+per, output.Num(u.Of(output.Area, area)*map[bool]float64{true: 1e4, false: 1}[!u.US && annular], 2), map[bool]string{true: "cm2", false: u.Name(output.Area)}[!u.US && annular])
+	add("heat rate "+per+" at "+fmtT(u, in.tw)+" wall, "+fmtT(u, in.ta)+" air ("+u.Name(output.Temp)+")", output.Num(q, 1), "W")
 	doc := output.Doc{Title: "Single fin", Grids: []output.Grid{g}, Caution: true,
 		Notes: []string{"Efficiency is heat over the heat of the whole fin at the root temperature; sources in 'go doc finmarch/fins'."}}
 	for _, w := range log.Warnings() {

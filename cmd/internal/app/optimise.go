@@ -190,19 +190,19 @@ func (e *env) optimise(d *design.Design, names []string, goal string, p fins.Pro
 // came, and what to change.
 func (e *env) noOptimum(pr optimise.Problem, sol optimise.Solution, u output.Units) string {
 	primary, other := optimise.SetNames[pr.Primary()], optimise.SetNames[pr.Other()]
-	L := func(v float64) string { return output.Num(u.Len(v), u.LenDec()+1) }
+	L := func(v float64) string { return output.Num(u.Of(output.Len, v), u.Dec(output.Len)+1) }
 	why := "no design within the bounds and casting limits reaches an equilibrium"
 	if pr.Goal == optimise.GoalLight {
-		why = fmt.Sprintf("no design within the bounds and casting limits keeps the %s at or below %s %s", primary, fmtT(u, pr.Limit), u.TempU())
+		why = fmt.Sprintf("no design within the bounds and casting limits keeps the %s at or below %s %s", primary, fmtT(u, pr.Limit), u.Name(output.Temp))
 	}
 	if sol.GuardOther {
-		why += fmt.Sprintf(" with the %s at or below its %s %s", other, fmtT(u, sol.OtherLimit), u.TempU())
+		why += fmt.Sprintf(" with the %s at or below its %s %s", other, fmtT(u, sol.OtherLimit), u.Name(output.Temp))
 	}
 	if best := sol.Closest; best != nil {
-		why += fmt.Sprintf(" (the coolest it found runs at %s %s", fmtT(u, best.Wall), u.TempU())
+		why += fmt.Sprintf(" (the coolest it found runs at %s %s", fmtT(u, best.Wall), u.Name(output.Temp))
 		for k, i := range pr.Sets {
 			y := best.X[5*k : 5*k+5]
-			why += fmt.Sprintf(", %s %d fins at %s %s pitch, %s %s high", optimise.SetNames[i], int(y[4]), L(y[0]), u.LenU(), L(y[1]), u.LenU())
+			why += fmt.Sprintf(", %s %d fins at %s %s pitch, %s %s high", optimise.SetNames[i], int(y[4]), L(y[0]), u.Name(output.Len), L(y[1]), u.Name(output.Len))
 		}
 		why += ")"
 	}
@@ -218,7 +218,7 @@ func (e *env) noOptimum(pr optimise.Problem, sol optimise.Solution, u output.Uni
 func (e *env) optimumDoc(d *design.Design, pr optimise.Problem, sol optimise.Solution, u output.Units) output.Doc {
 	both, p, goal := pr.Both(), pr.Process, string(pr.Goal)
 	primary, other := optimise.SetNames[pr.Primary()], optimise.SetNames[pr.Other()]
-	L := func(v float64) string { return output.Num(u.Len(v), u.LenDec()+1) }
+	L := func(v float64) string { return output.Num(u.Of(output.Len, v), u.Dec(output.Len)+1) }
 	opt := sol.Optimum
 	bt, bm, bo := opt.Wall, opt.Mass, opt.Other
 	// label prefixes a row with the set's name when both sets vary
@@ -241,25 +241,25 @@ func (e *env) optimumDoc(d *design.Design, pr optimise.Problem, sol optimise.Sol
 				g.Rows = append(g.Rows, []string{label(k, v.Name), "", fmt.Sprint(int(ci)), fmt.Sprint(int(xi)), fmt.Sprintf("%d to %d", int(v.Lo), int(v.Hi))})
 				continue
 			}
-			g.Rows = append(g.Rows, []string{label(k, v.Name), u.LenU(), L(ci), L(xi), L(v.Lo) + " to " + L(v.Hi)})
+			g.Rows = append(g.Rows, []string{label(k, v.Name), u.Name(output.Len), L(ci), L(xi), L(v.Lo) + " to " + L(v.Hi)})
 		}
 	}
 	ad := sol.AsDesigned
 	dT, dM, dO := "n/a", "n/a", "n/a"
 	if ad.Feasible {
-		dT, dM, dO = fmtT(u, ad.Wall), output.Num(u.Mass(ad.Mass), 3), fmtT(u, ad.Other)
+		dT, dM, dO = fmtT(u, ad.Wall), output.Num(u.Of(output.Mass, ad.Mass), 3), fmtT(u, ad.Other)
 	}
 	if both {
-		g.Rows = append(g.Rows, []string{"head wall temperature", u.TempU(), dT, fmtT(u, bt), ""},
-			[]string{"barrel wall temperature", u.TempU(), dO, fmtT(u, bo), ""},
-			[]string{"fin mass, both sets", u.MassU(), dM, output.Num(u.Mass(bm), 3), ""})
+		g.Rows = append(g.Rows, []string{"head wall temperature", u.Name(output.Temp), dT, fmtT(u, bt), ""},
+			[]string{"barrel wall temperature", u.Name(output.Temp), dO, fmtT(u, bo), ""},
+			[]string{"fin mass, both sets", u.Name(output.Mass), dM, output.Num(u.Of(output.Mass, bm), 3), ""})
 	} else {
-		g.Rows = append(g.Rows, []string{primary + " wall temperature", u.TempU(), dT, fmtT(u, bt), ""},
-			[]string{primary + " fin mass", u.MassU(), dM, output.Num(u.Mass(bm), 3), ""},
-			[]string{other + " wall temperature (fins as designed)", u.TempU(), dO, fmtT(u, bo), ""})
+		g.Rows = append(g.Rows, []string{primary + " wall temperature", u.Name(output.Temp), dT, fmtT(u, bt), ""},
+			[]string{primary + " fin mass", u.Name(output.Mass), dM, output.Num(u.Of(output.Mass, bm), 3), ""},
+			[]string{other + " wall temperature (fins as designed)", u.Name(output.Temp), dO, fmtT(u, bo), ""})
 	}
 	if goal == "light" {
-		g.Rows = append(g.Rows, []string{"limit", u.TempU(), "", fmtT(u, pr.Limit), ""})
+		g.Rows = append(g.Rows, []string{"limit", u.Name(output.Temp), "", fmtT(u, pr.Limit), ""})
 	}
 	c, checks := constraintGrid(pr, sol, u, label)
 	fg := frontGrid(pr, sol, u, label)
@@ -267,7 +267,7 @@ func (e *env) optimumDoc(d *design.Design, pr optimise.Problem, sol optimise.Sol
 	if both {
 		keepNote = "Everything but the two fin sets stays as the design has it; check the result with 'finmarch estimate' after editing the design."
 	}
-	doc := output.Doc{Title: fmt.Sprintf("%s: fin optimisation at %s %s, ambient %s %s", d.Name, output.Num(u.Road(d.Case.Speed), 0), u.RoadU(), fmtT(u, d.Case.Ambient), u.TempU()),
+	doc := output.Doc{Title: fmt.Sprintf("%s: fin optimisation at %s %s, ambient %s %s", d.Name, output.Num(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), fmtT(u, d.Case.Ambient), u.Name(output.Temp)),
 		Grids: []output.Grid{g, c, fg}, Caution: true,
 		Notes: []string{
 			fmt.Sprintf("Casting limits (%s): %s.", p.Name, processSource(p)),
@@ -309,7 +309,7 @@ func (e *env) optimumDoc(d *design.Design, pr optimise.Problem, sol optimise.Sol
 // returns the casting checks for the JSON.
 func constraintGrid(pr optimise.Problem, sol optimise.Solution, u output.Units, label func(int, string) string) (output.Grid, []fins.Violation) {
 	p, opt := pr.Process, sol.Optimum
-	L := func(v float64) string { return output.Num(u.Len(v), u.LenDec()+1) }
+	L := func(v float64) string { return output.Num(u.Of(output.Len, v), u.Dec(output.Len)+1) }
 	c := output.Grid{Title: "Constraints at the optimum (slack 0 = active)", Header: []string{"constraint", "limit", "value", "slack", "active"}, Left: 1}
 	var checks []fins.Violation
 	for k, vs := range pr.Vars {
@@ -321,7 +321,7 @@ func constraintGrid(pr optimise.Problem, sol optimise.Solution, u output.Units, 
 			var lim, val, slack string
 			switch v.Constraint {
 			case "minimum thickness":
-				lim, val, slack = L(p.MinThickness)+" "+u.LenU(), L(s.TipThickness)+" "+u.LenU(), L(v.Slack)+" "+u.LenU()
+				lim, val, slack = L(p.MinThickness)+" "+u.Name(output.Len), L(s.TipThickness)+" "+u.Name(output.Len), L(v.Slack)+" "+u.Name(output.Len)
 			case "height to gap":
 				lim, val, slack = output.Num(p.MaxAspect, 2), output.Num(s.Height/(s.Pitch-s.RootThickness), 2), output.Num(v.Slack, 2)
 			case "draft":
@@ -353,35 +353,35 @@ func constraintGrid(pr optimise.Problem, sol optimise.Solution, u output.Units, 
 	yes := map[bool]string{true: "yes", false: "no"}
 	primary, other := optimise.SetNames[pr.Primary()], optimise.SetNames[pr.Other()]
 	if pr.Goal == optimise.GoalLight {
-		c.Rows = append(c.Rows, []string{primary + " temperature limit", fmtT(u, pr.Limit) + " " + u.TempU(), fmtT(u, opt.Wall) + " " + u.TempU(), fmtDT(u, pr.Limit-opt.Wall), yes[pr.Limit-opt.Wall < 1]})
+		c.Rows = append(c.Rows, []string{primary + " temperature limit", fmtT(u, pr.Limit) + " " + u.Name(output.Temp), fmtT(u, opt.Wall) + " " + u.Name(output.Temp), fmtDT(u, pr.Limit-opt.Wall), yes[pr.Limit-opt.Wall < 1]})
 	}
 	if sol.GuardOther {
 		name := other + " temperature limit"
 		if !pr.Both() {
 			name += " (series air)"
 		}
-		c.Rows = append(c.Rows, []string{name, fmtT(u, sol.OtherLimit) + " " + u.TempU(), fmtT(u, opt.Other) + " " + u.TempU(), fmtDT(u, sol.OtherLimit-opt.Other), yes[sol.OtherLimit-opt.Other < 1]})
+		c.Rows = append(c.Rows, []string{name, fmtT(u, sol.OtherLimit) + " " + u.Name(output.Temp), fmtT(u, opt.Other) + " " + u.Name(output.Temp), fmtDT(u, sol.OtherLimit-opt.Other), yes[sol.OtherLimit-opt.Other < 1]})
 	}
 	return c, checks
 }
 
 // frontGrid is the trade-off front, the optimum marked.
 func frontGrid(pr optimise.Problem, sol optimise.Solution, u output.Units, label func(int, string) string) output.Grid {
-	L := func(v float64) string { return output.Num(u.Len(v), u.LenDec()+1) }
-	massHead := "fin mass (" + u.MassU() + ")"
+	L := func(v float64) string { return output.Num(u.Of(output.Len, v), u.Dec(output.Len)+1) }
+	massHead := "fin mass (" + u.Name(output.Mass) + ")"
 	if pr.Both() {
-		massHead = "fin mass, both (" + u.MassU() + ")"
+		massHead = "fin mass, both (" + u.Name(output.Mass) + ")"
 	}
-	hdr := []string{massHead, optimise.SetNames[pr.Primary()] + " (" + u.TempU() + ")"}
+	hdr := []string{massHead, optimise.SetNames[pr.Primary()] + " (" + u.Name(output.Temp) + ")"}
 	for k := range pr.Sets {
 		for _, col := range []string{"pitch", "height", "root", "tip"} {
-			hdr = append(hdr, label(k, col)+" ("+u.LenU()+")")
+			hdr = append(hdr, label(k, col)+" ("+u.Name(output.Len)+")")
 		}
 		hdr = append(hdr, label(k, "count"))
 	}
 	fg := output.Grid{Title: "Trade-off front: wall temperature against fin mass (evaluated designs that no other beats on both)", Header: append(hdr, "")}
 	for _, q := range sol.Front {
-		row := []string{output.Num(u.Mass(q.Mass), 3), fmtT(u, q.Wall)}
+		row := []string{output.Num(u.Of(output.Mass, q.Mass), 3), fmtT(u, q.Wall)}
 		for k := range pr.Sets {
 			y := q.X[5*k : 5*k+5]
 			row = append(row, L(y[0]), L(y[1]), L(y[2]), L(y[3]), fmt.Sprint(int(y[4])))

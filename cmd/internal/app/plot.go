@@ -157,16 +157,16 @@ func (e *env) marchFigure(ds []*design.Design) (*plots.Figure, error) {
 			}
 			t := plots.Series{Label: fmt.Sprintf("%s %s (%s)", letter(i), s.Name, s.Style), Design: i, Dashed: k == 1}
 			q := t
-			t.X, t.Y = []float64{u.Len(off)}, []float64{u.Temp(s.AirIn)}
+			t.X, t.Y = []float64{u.Of(output.Len, off)}, []float64{u.Of(output.Temp, s.AirIn)}
 			for j, sg := range s.March {
-				t.X = append(t.X, u.Len(off+sg.X))
-				t.Y = append(t.Y, u.Temp(sg.AirOut))
+				t.X = append(t.X, u.Of(output.Len, off+sg.X))
+				t.Y = append(t.Y, u.Of(output.Temp, sg.AirOut))
 				start := 0.0
 				if j > 0 {
 					start = s.March[j-1].X
 				}
-				q.X = append(q.X, u.Len(off+(start+sg.X)/2))
-				q.Y = append(q.Y, u.Flux(sg.Flux)/1000)
+				q.X = append(q.X, u.Of(output.Len, off+(start+sg.X)/2))
+				q.Y = append(q.Y, u.Of(output.Flux, sg.Flux)/1000)
 			}
 			temp, flux = append(temp, t), append(flux, q)
 		}
@@ -179,7 +179,7 @@ func (e *env) marchFigure(ds []*design.Design) (*plots.Figure, error) {
 		names[i] = letter(i) + ": " + short(d.Name)
 	}
 	return plots.March("Cooling air along the fin passages\n"+strings.Join(names, "    "),
-		"position along the air path ("+u.LenU()+")", "air temperature ("+u.TempU()+")", "local heat flux (k"+u.FluxU()+")", temp, flux)
+		"position along the air path ("+u.Name(output.Len)+")", "air temperature ("+u.Name(output.Temp)+")", "local heat flux (k"+u.Name(output.Flux)+")", temp, flux)
 }
 
 func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.Figure, error) {
@@ -208,11 +208,11 @@ func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.F
 			if o.NoEquilibrium != nil || (!o.Fixed && o.Load.Head+o.Load.Barrel == 0) {
 				continue // no equilibrium or no load at this speed: leave a gap at the end
 			}
-			h.X, h.Y = append(h.X, u.Road(v)), append(h.Y, u.Temp(o.Result.Head.WallTemp))
-			b.X, b.Y = append(b.X, u.Road(v)), append(b.Y, u.Temp(o.Result.Barrel.WallTemp))
+			h.X, h.Y = append(h.X, u.Of(output.Road, v)), append(h.Y, u.Of(output.Temp, o.Result.Head.WallTemp))
+			b.X, b.Y = append(b.X, u.Of(output.Road, v)), append(b.Y, u.Of(output.Temp, o.Result.Barrel.WallTemp))
 		}
 		lines = append(lines, h, b)
-		limits[fmt.Sprintf("head limit %s %s", output.Num(u.Temp(d.HeadLimit), 0), u.TempU())] = u.Temp(d.HeadLimit)
+		limits[fmt.Sprintf("head limit %s %s", output.Num(u.Of(output.Temp, d.HeadLimit), 0), u.Name(output.Temp))] = u.Of(output.Temp, d.HeadLimit)
 		names = append(names, letter(i)+": "+short(d.Name))
 	}
 	if len(limits) > 3 { // keep the legend readable
@@ -226,7 +226,7 @@ func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.F
 		}
 	}
 	return plots.Speeds("Wall temperature against road speed\n"+strings.Join(names, "    "),
-		"road speed ("+u.RoadU()+")", "wall temperature at the fin roots ("+u.TempU()+")", lines, limits)
+		"road speed ("+u.Name(output.Road)+")", "wall temperature at the fin roots ("+u.Name(output.Temp)+")", lines, limits)
 }
 
 func (e *env) compareFigure(ds []*design.Design) (*plots.Figure, error) {
@@ -242,11 +242,11 @@ func (e *env) compareFigure(ds []*design.Design) (*plots.Figure, error) {
 			return nil, err
 		}
 		names = append(names, letter(i)+": "+short(d.Name))
-		ht = append(ht, u.Temp(o.Result.Head.WallTemp))
-		perKg = append(perKg, u.PerMass((o.Result.Head.HeatRejected+o.Result.Barrel.HeatRejected)/(o.Result.Head.FinMass+o.Result.Barrel.FinMass)))
+		ht = append(ht, u.Of(output.Temp, o.Result.Head.WallTemp))
+		perKg = append(perKg, u.Of(output.PerMass, (o.Result.Head.HeatRejected+o.Result.Barrel.HeatRejected)/(o.Result.Head.FinMass+o.Result.Barrel.FinMass)))
 	}
 	return plots.Compare("Designs at cruise\n"+strings.Join(names, "    "), names, []plots.Panel{
-		{Label: "head temperature (" + u.TempU() + ")", Values: ht},
-		{Label: "heat rejected per mass of fin (" + u.PerMassU() + ")", Values: perKg},
+		{Label: "head temperature (" + u.Name(output.Temp) + ")", Values: ht},
+		{Label: "heat rejected per mass of fin (" + u.Name(output.PerMass) + ")", Values: perKg},
 	})
 }

@@ -106,7 +106,9 @@ func inlineSVG(f *plots.Figure) (template.HTML, error) {
 // inputTable lists what the design file gave, in display units.
 func inputTable(d *design.Design, u output.Units) htmlTable {
 	c := d.Case
-	L := func(v float64) string { return output.Num(u.Len(v), u.LenDec()) + " " + u.LenU() }
+	L := func(v float64) string {
+		return output.Num(u.Of(output.Len, v), u.Dec(output.Len)) + " " + u.Name(output.Len)
+	}
 	t := htmlTable{Title: "Inputs", Header: []string{"quantity", "head", "barrel"}, Left: 1}
 	add := func(q, h, b string) { t.Rows = append(t.Rows, []string{q, h, b}) }
 	hs, bs := c.Head.Set, c.Barrel.Set
@@ -119,19 +121,19 @@ func inputTable(d *design.Design, u output.Units) htmlTable {
 	add("finned length", L(hs.Length), L(bs.Length))
 	add("alloy", c.Head.Alloy.Name, c.Barrel.Alloy.Name)
 	add("emissivity", output.Num(c.Head.Emissivity, 2), output.Num(c.Barrel.Emissivity, 2))
-	add("limit", fmtT(u, d.HeadLimit)+" "+u.TempU(), fmtT(u, d.BarrelLimit)+" "+u.TempU())
+	add("limit", fmtT(u, d.HeadLimit)+" "+u.Name(output.Temp), fmtT(u, d.BarrelLimit)+" "+u.Name(output.Temp))
 	both := func(q, v string) { add(q, v, "") }
 	both("tilt from vertical", output.Num(c.Tilt*180/math.Pi, 0)+" deg")
-	both("road speed", output.Num(u.Road(c.Speed), 0)+" "+u.RoadU())
+	both("road speed", output.Num(u.Of(output.Road, c.Speed), 0)+" "+u.Name(output.Road))
 	both("pressure recovery", output.Num(c.Recovery, 2))
-	both("ambient", fmtT(u, c.Ambient)+" "+u.TempU())
-	both("air pressure", output.Num(u.Press(c.Pressure), 1)+" "+u.PressU())
+	both("ambient", fmtT(u, c.Ambient)+" "+u.Name(output.Temp))
+	both("air pressure", output.Num(u.Of(output.Press, c.Pressure), 1)+" "+u.Name(output.Press))
 	if d.Load.Direct {
 		both("heat load head / barrel", output.Num(d.Load.Given.Head, 0)+" / "+output.Num(d.Load.Given.Barrel, 0)+" W")
 	} else {
 		r := d.Load.Road
 		both("road load", fmt.Sprintf("%s %s, CdA %.3g m2, Crr %.3g, driveline %.2f, brake thermal %.2f, cooling share %.2f, head share %.2f, %d cylinder(s)",
-			output.Num(u.Mass(r.Mass), 0), u.MassU(), r.CdA, r.Crr, r.Driveline, r.Thermal, r.CoolShare, r.HeadShare, r.Cylinders))
+			output.Num(u.Of(output.Mass, r.Mass), 0), u.Name(output.Mass), r.CdA, r.Crr, r.Driveline, r.Thermal, r.CoolShare, r.HeadShare, r.Cylinders))
 	}
 	both("march segments per path", fmt.Sprint(d.Run.Segments))
 	return t

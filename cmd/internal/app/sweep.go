@@ -198,19 +198,19 @@ func displayFor(u output.Units, key string, v float64) (string, string) {
 	case strings.HasSuffix(key, ".count") || key == "segments":
 		return strconv.Itoa(int(v)), ""
 	case strings.HasSuffix(key, "speed"):
-		return output.Num(u.Road(v), 2), u.RoadU()
+		return output.Num(u.Of(output.Road, v), 2), u.Name(output.Road)
 	case strings.HasSuffix(key, "ambient") || strings.HasPrefix(key, "limits.") || strings.HasSuffix(key, "_wall"):
-		return output.Num(u.Temp(v), 2), u.TempU()
+		return output.Num(u.Of(output.Temp, v), 2), u.Name(output.Temp)
 	case key == "cylinder.tilt":
 		return output.Num(v*180/math.Pi, 2), "deg"
 	case key == "air.altitude":
-		return output.Num(u.Alt(v), 1), u.AltU()
+		return output.Num(u.Of(output.Alt, v), 1), u.Name(output.Alt)
 	case strings.HasPrefix(key, "head.") || strings.HasPrefix(key, "barrel.") && !strings.HasSuffix(key, "emissivity") ||
 		strings.HasPrefix(key, "cylinder."):
 		if strings.HasSuffix(key, "emissivity") {
 			return output.Num(v, 3), ""
 		}
-		return output.Num(u.Len(v), u.LenDec()+2), u.LenU()
+		return output.Num(u.Of(output.Len, v), u.Dec(output.Len)+2), u.Name(output.Len)
 	}
 	return strconv.FormatFloat(v, 'g', 6, 64), design.SIUnit(key)
 }
@@ -277,7 +277,7 @@ func (e *env) sweep(d *design.Design, axes sweep.Grid, total, workers, top int, 
 // sweepHeader is the header of the sweep's rows: the index, each varied
 // key in its display unit, the results, status and note.
 func sweepHeader(axes sweep.Grid, u output.Units) []string {
-	T := u.TempU()
+	T := u.Name(output.Temp)
 	header := []string{"index"}
 	for _, a := range axes {
 		_, unit := displayFor(u, a.Key, a.Values[0])
@@ -287,8 +287,8 @@ func sweepHeader(axes sweep.Grid, u output.Units) []string {
 			header = append(header, a.Key)
 		}
 	}
-	return append(header, "head fins", "barrel fins", "head ("+T+")", "barrel ("+T+")", "head margin ("+u.TempDiffU()+")", "barrel margin ("+u.TempDiffU()+")",
-		"fin mass ("+u.MassU()+")", "heat per fin mass ("+u.PerMassU()+")", "status", "note")
+	return append(header, "head fins", "barrel fins", "head ("+T+")", "barrel ("+T+")", "head margin ("+u.Name(output.TempDiff)+")", "barrel margin ("+u.Name(output.TempDiff)+")",
+		"fin mass ("+u.Name(output.Mass)+")", "heat per fin mass ("+u.Name(output.PerMass)+")", "status", "note")
 }
 
 // sweepCells is a row in display units.
@@ -302,7 +302,7 @@ func sweepCells(r sweep.Row, axes sweep.Grid, u output.Units) []string {
 		return append(c, "", "", "", "", "", "", "", "", r.Status, r.Note)
 	}
 	return append(c, strconv.Itoa(r.HeadFins), strconv.Itoa(r.BarrelFins), fmtT(u, r.HeadWall), fmtT(u, r.BarrelWall), fmtDT(u, r.HeadMargin), fmtDT(u, r.BarrelMargin),
-		output.Num(u.Mass(r.FinMass), 3), output.Num(u.PerMass(r.HeatPerFinMass), 0), r.Status, r.Note)
+		output.Num(u.Of(output.Mass, r.FinMass), 3), output.Num(u.Of(output.PerMass, r.HeatPerFinMass), 0), r.Status, r.Note)
 }
 
 // sweepJSON is a row as a JSON-lines object (SI).

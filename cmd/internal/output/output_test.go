@@ -20,17 +20,17 @@ func TestUnits(t *testing.T) {
 			t.Errorf("%s = %.12g, want %.12g", name, got, want)
 		}
 	}
-	near("C", m.Temp(373.15), 100)
-	near("F", us.Temp(373.15), 212)
-	near("dF", us.TempDiff(10), 18)
-	near("km/h", m.Road(25), 90)
-	near("mph", us.Road(26.8224), 60)
-	near("in", us.Len(0.0254), 1)
-	near("mm", m.Len(0.0254), 25.4)
-	near("lb", us.Mass(0.45359237), 1)
-	near("Btu h", us.H(5.678263), 1)
-	near("ft2", us.Area(0.09290304), 1)
-	near("inHg", us.Press(3386.389), 1)
+	near("C", m.Of(Temp, 373.15), 100)
+	near("F", us.Of(Temp, 373.15), 212)
+	near("dF", us.Of(TempDiff, 10), 18)
+	near("km/h", m.Of(Road, 25), 90)
+	near("mph", us.Of(Road, 26.8224), 60)
+	near("in", us.Of(Len, 0.0254), 1)
+	near("mm", m.Of(Len, 0.0254), 25.4)
+	near("lb", us.Of(Mass, 0.45359237), 1)
+	near("Btu h", us.Of(H, 5.678263), 1)
+	near("ft2", us.Of(Area, 0.09290304), 1)
+	near("inHg", us.Of(Press, 3386.389), 1)
 	if _, err := ParseUnits("cubits"); err == nil {
 		t.Error("bad units accepted")
 	}
@@ -78,5 +78,22 @@ func TestWriteFormats(t *testing.T) {
 	}
 	if f, _ := ParseFormat("md"); f != Markdown {
 		t.Error("md alias")
+	}
+}
+
+// Every quantity has a metric and a US unit in the table, named, and a
+// conversion that is finite and zero-preserving where the unit has no
+// offset (temperatures have one: 0 K is -273.15 C, -459.67 F).
+func TestUnitTable(t *testing.T) {
+	for q := Temp; q <= PerMass; q++ {
+		for _, u := range []Units{{}, {US: true}} {
+			v := u.Of(q, 1)
+			if u.Name(q) == "" || math.IsNaN(v) || math.IsInf(v, 0) || v == 0 {
+				t.Errorf("quantity %d US %v: %q, 1 SI -> %g", q, u.US, u.Name(q), v)
+			}
+		}
+	}
+	if got := (Units{US: true}).Of(Temp, 0); math.Abs(got+459.67) > 1e-9 {
+		t.Errorf("0 K is %g F", got)
 	}
 }

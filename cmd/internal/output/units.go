@@ -20,202 +20,66 @@ type errUnits string
 
 func (e errUnits) Error() string { return "units " + string(e) + ": use metric or us" }
 
-// Temp converts K to C or F.
-func (u Units) Temp(k float64) float64 {
-	if u.US {
-		return (k-273.15)*9/5 + 32
-	}
-	return k - 273.15
+// Quantity is a kind of quantity the tool prints.
+type Quantity int
+
+// The quantities, each with its metric and US display unit.
+const (
+	Temp     Quantity = iota // temperature: C or F
+	TempDiff                 // temperature difference: K or F
+	Road                     // road speed: km/h or mph
+	Vel                      // passage velocity: m/s or ft/s
+	Len                      // small length (fins): mm or in
+	H                        // heat-transfer coefficient: W/m2K or Btu/h-ft2-F
+	Flux                     // heat flux: W/m2 or Btu/h-ft2
+	Mass                     // kg or lb
+	Area                     // m2 or ft2
+	Alt                      // altitude: m or ft
+	Press                    // pressure: kPa or inHg
+	PerMass                  // heat per fin mass: W/kg or W/lb
+)
+
+// display is one display unit: value = (SI - off) mul / div + add, written
+// so that each conversion is the one arithmetic it always was; dec is the
+// decimals that suit small lengths (0 elsewhere: callers choose).
+type display struct {
+	unit               string
+	off, mul, div, add float64
+	dec                int
 }
 
-// TempDiff converts a temperature difference in K to K or F degrees.
-func (u Units) TempDiff(d float64) float64 {
-	if u.US {
-		return d * 9 / 5
-	}
-	return d
+// units holds the metric and the US display unit of each quantity (US
+// factors: NIST SP 811, 2008, Appendix B; the inHg factor at 0 C).
+var units = [...][2]display{
+	Temp:     {{"C", 273.15, 1, 1, 0, 0}, {"F", 273.15, 9, 5, 32, 0}},
+	TempDiff: {{"K", 0, 1, 1, 0, 0}, {"F", 0, 9, 5, 0, 0}},
+	Road:     {{"km/h", 0, 3.6, 1, 0, 0}, {"mph", 0, 1, 0.44704, 0, 0}},
+	Vel:      {{"m/s", 0, 1, 1, 0, 0}, {"ft/s", 0, 1, 0.3048, 0, 0}},
+	Len:      {{"mm", 0, 1000, 1, 0, 1}, {"in", 0, 1, 0.0254, 0, 3}},
+	H:        {{"W/m2K", 0, 1, 1, 0, 0}, {"Btu/h-ft2-F", 0, 1, 5.678263, 0, 0}},
+	Flux:     {{"W/m2", 0, 1, 1, 0, 0}, {"Btu/h-ft2", 0, 1, 3.154591, 0, 0}},
+	Mass:     {{"kg", 0, 1, 1, 0, 0}, {"lb", 0, 1, 0.45359237, 0, 0}},
+	Area:     {{"m2", 0, 1, 1, 0, 0}, {"ft2", 0, 1, 0.09290304, 0, 0}},
+	Alt:      {{"m", 0, 1, 1, 0, 0}, {"ft", 0, 1, 0.3048, 0, 0}},
+	Press:    {{"kPa", 0, 1, 1000, 0, 0}, {"inHg", 0, 1, 3386.389, 0, 0}},
+	PerMass:  {{"W/kg", 0, 1, 1, 0, 0}, {"W/lb", 0, 0.45359237, 1, 0, 0}},
 }
 
-// TempU names the temperature unit.
-func (u Units) TempU() string {
+func (u Units) display(q Quantity) display {
 	if u.US {
-		return "F"
+		return units[q][1]
 	}
-	return "C"
+	return units[q][0]
 }
 
-// TempDiffU names the unit of a temperature difference.
-func (u Units) TempDiffU() string {
-	if u.US {
-		return "F"
-	}
-	return "K"
+// Of converts the SI value v of quantity q to its display unit.
+func (u Units) Of(q Quantity, v float64) float64 {
+	d := u.display(q)
+	return (v-d.off)*d.mul/d.div + d.add
 }
 
-// Road converts m/s to km/h or mph.
-func (u Units) Road(v float64) float64 {
-	if u.US {
-		return v / 0.44704
-	}
-	return v * 3.6
-}
+// Name names the display unit of q.
+func (u Units) Name(q Quantity) string { return u.display(q).unit }
 
-// RoadU names the road-speed unit.
-func (u Units) RoadU() string {
-	if u.US {
-		return "mph"
-	}
-	return "km/h"
-}
-
-// Vel converts m/s to m/s or ft/s.
-func (u Units) Vel(v float64) float64 {
-	if u.US {
-		return v / 0.3048
-	}
-	return v
-}
-
-// VelU names the passage-velocity unit.
-func (u Units) VelU() string {
-	if u.US {
-		return "ft/s"
-	}
-	return "m/s"
-}
-
-// Len converts m to mm or in.
-func (u Units) Len(m float64) float64 {
-	if u.US {
-		return m / 0.0254
-	}
-	return m * 1000
-}
-
-// LenU names the small-length unit.
-func (u Units) LenU() string {
-	if u.US {
-		return "in"
-	}
-	return "mm"
-}
-
-// LenDec is the decimals that suit small lengths.
-func (u Units) LenDec() int {
-	if u.US {
-		return 3
-	}
-	return 1
-}
-
-// H converts W/(m2 K) to W/(m2 K) or Btu/(h ft2 F).
-func (u Units) H(h float64) float64 {
-	if u.US {
-		return h / 5.678263
-	}
-	return h
-}
-
-// HU names the heat-transfer-coefficient unit.
-func (u Units) HU() string {
-	if u.US {
-		return "Btu/h-ft2-F"
-	}
-	return "W/m2K"
-}
-
-// Flux converts W/m2 to W/m2 or Btu/(h ft2).
-func (u Units) Flux(q float64) float64 {
-	if u.US {
-		return q / 3.154591
-	}
-	return q
-}
-
-// FluxU names the heat-flux unit.
-func (u Units) FluxU() string {
-	if u.US {
-		return "Btu/h-ft2"
-	}
-	return "W/m2"
-}
-
-// Mass converts kg to kg or lb.
-func (u Units) Mass(m float64) float64 {
-	if u.US {
-		return m / 0.45359237
-	}
-	return m
-}
-
-// MassU names the mass unit.
-func (u Units) MassU() string {
-	if u.US {
-		return "lb"
-	}
-	return "kg"
-}
-
-// Area converts m2 to m2 or ft2.
-func (u Units) Area(a float64) float64 {
-	if u.US {
-		return a / 0.09290304
-	}
-	return a
-}
-
-// AreaU names the area unit.
-func (u Units) AreaU() string {
-	if u.US {
-		return "ft2"
-	}
-	return "m2"
-}
-
-// Alt converts m to m or ft.
-func (u Units) Alt(m float64) float64 {
-	if u.US {
-		return m / 0.3048
-	}
-	return m
-}
-
-// AltU names the altitude unit.
-func (u Units) AltU() string {
-	if u.US {
-		return "ft"
-	}
-	return "m"
-}
-
-// Press converts Pa to kPa or inHg.
-func (u Units) Press(p float64) float64 {
-	if u.US {
-		return p / 3386.389
-	}
-	return p / 1000
-}
-
-// PressU names the pressure unit.
-func (u Units) PressU() string {
-	if u.US {
-		return "inHg"
-	}
-	return "kPa"
-}
-
-// PerMass converts W/kg to W/kg or W/lb.
-func (u Units) PerMass(v float64) float64 {
-	if u.US {
-		return v * 0.45359237
-	}
-	return v
-}
-
-// PerMassU names the heat-per-fin-mass unit.
-func (u Units) PerMassU() string {
-	if u.US {
-		return "W/lb"
-	}
-	return "W/kg"
-}
+// Dec is the decimals that suit q in its display unit.
+func (u Units) Dec(q Quantity) int { return u.display(q).dec }
