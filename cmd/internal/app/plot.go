@@ -243,7 +243,7 @@ func (e *env) compareFigure(ds []*design.Design) (*plots.Figure, error) {
 		}
 		names = append(names, letter(i)+": "+short(d.Name))
 		ht = append(ht, u.Of(output.Temp, o.Result.Head.WallTemp))
-		perKg = append(perKg, u.Of(output.PerMass, (o.Result.Head.HeatRejected+o.Result.Barrel.HeatRejected)/(o.Result.Head.FinMass+o.Result.Barrel.FinMass)))
+		perKg = append(perKg, u.Of(output.PerMass, o.Result.HeatPerFinMass()))
 	}
 	return plots.Compare("Designs at cruise\n"+strings.Join(names, "    "), names, []plots.Panel{
 		{Label: "head temperature (" + u.Name(output.Temp) + ")", Values: ht},

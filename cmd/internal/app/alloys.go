@@ -1,0 +1,32 @@
+package app
+
+import (
+	"fmt"
+
+	"github.com/spf13/cobra"
+
+	"finmarch/cmd/internal/output"
+	"finmarch/materials"
+)
+
+func (e *env) alloysCmd() *cobra.Command {
+	return &cobra.Command{
+		Use:   "alloys",
+		Short: "List the alloy catalogue with its sources",
+		Args:  cobra.NoArgs,
+		RunE: func(*cobra.Command, []string) error {
+			_, u, err := e.settings()
+			if err != nil {
+				return err
+			}
+			g := output.Grid{Header: []string{"name", "kind", "k at 300 K (W/mK)", "density (kg/m3)", "cp (J/kgK)", "emissivity bare / painted", "max service (" + u.Name(output.Temp) + ")"}, Left: 2}
+			var notes []string
+			for _, a := range materials.All() {
+				g.Rows = append(g.Rows, []string{a.Name, a.Kind, output.Num(a.K300, 1), output.Num(a.Density, 0), output.Num(a.Cp, 0),
+					output.Num(a.EmissBare, 2) + " / " + output.Num(a.EmissPaint, 2), fmtT(u, a.MaxService)})
+				notes = append(notes, fmt.Sprintf("%s: %s. Emissivity: %s. Limit: %s.", a.Name, a.Source, a.EmissSource, a.LimitSource))
+			}
+			return e.emit(output.Doc{Title: "Alloy catalogue", Grids: []output.Grid{g}, Notes: notes, JSON: materials.All()})
+		},
+	}
+}

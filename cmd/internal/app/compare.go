@@ -1,0 +1,172 @@
+package app
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"finmarch/cmd/internal/design"
+	"finmarch/cmd/internal/output"
+)
+
+func (e *env) compareCmd() *cobra.Command {
+	return &cobra.Command{
+		Use:               "compare DESIGN.toml DESIGN.toml [...]",
+		Short:             "Compare several designs side by side at their cruise conditions",
+		Args:              cobra.MinimumNArgs(2),
+		ValidArgsFunction: tomlArgs,
+		RunE: func(_ *cobra.Command, args []string) error {
+			var ds []*design.Design
+			for _, a := range args {
+				d, err := e.load(a)
+				if err != nil {
+					return err
+				}
+				ds = append(ds, d)
+			}
+			doc, err := e.compareDoc(ds, "Design comparison at cruise")
+			if err != nil {
+				return err
+			}
+			return e.emit(doc)
+		},
+	}
+}
+
+func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error) {
+	_, u, err := e.settings()
+	if err != nil {
+		return output.Doc{}, err
+	}
+	var os []outcome
+	var warns [][]string
+	for _, d := range ds {
+		o, err := evaluate(d, d.Case.Speed)
+		if err != nil {
+			return output.Doc{}, err
+		}
+		os = append(os, o)
+		warns = append(warns, o.warnings())
+	}
+	g := output.Grid{Header: []string{"quantity", "unit"}, Left: 2}
+	for i := range ds {
+		g.Header = append(g.Header, fmt.Sprintf("%c: %s", 'A'+i, ds[i].Name))
+	}
+	add := func(q, unit string, f func(o outcome) string) {
+		r := []string{q, unit}
+		for _, o := range os {
+			r = append(r, f(o))
+		}
+		g.Rows = append(g.Rows, r)
+	}
+	add("tilt from vertical", "deg", func(o outcome) string { return output.Num(o.d.Case.Tilt*180/math.Pi, 0) })
+	add("fin style head / barrel", "", func(o outcome) string { return o.Result.Head.Style + " / " + o.Result.Barrel.Style })
+	add("road speed", u.Name(output.Road), func(o outcome) string { return output.Num(u.Of(output.Road, o.speed), 0) })
+	add("ambient", u.Name(output.Temp), func(o outcome) string { return fmtT(u, o.d.Case.Ambient) })
+	add("heat load head / barrel", "W", func(o outcome) string {
+		return output.Num(o.Result.Head.HeatLoad, 0) + " / " + output.Num(o.Result.Barrel.HeatLoad, 0)
+	})
+	add("head temperature", u.Name(output.Temp), func(o outcome) string { return fmtT(u, o.Result.Head.WallTemp) })
+	add("barrel temperature", u.Name(output.Temp), func(o outcome) string { return fmtT(u, o.Result.Barrel.WallTemp) })
+	add("head margin to limit", u.Name(output.TempDiff), func(o outcome) string { return fmtDT(u, o.HeadMargin()) })
+	add("barrel margin to limit", u.Name(output.TempDiff), func(o outcome) string { return fmtDT(u, o.BarrelMargin()) })
+	add("status", "", func(o outcome) string { return string(o.Status()) })
+	add("passage velocity head / barrel", u.Name(output.Vel), func(o outcome) string {
+		return output.Num(u.Of(output.Vel, o.Result.Head.PassageVelocity), 1) + " / " + output.Num(u.Of(output.Vel, o.Result.Barrel.PassageVelocity), 1)
+	})
+	add("air rise head / barrel", u.Name(output.TempDiff), func(o outcome) string {
+		return fmtDT(u, o.Result.Head.AirOut-o.Result.Head.AirIn) + " / " + fmtDT(u, o.Result.Barrel.AirOut-o.Result.Barrel.AirIn)
+	})
+	add("air reaching barrel fins", u.Name(output.Temp), func(o outcome) string { return fmtT(u, o.Result.Barrel.AirIn) })
+	add("mean h head / barrel", u.Name(output.H), func(o outcome) string {
+		return output.Num(u.Of(output.H, o.Result.Head.MeanH), 1) + " / " + output.Num(u.Of(output.H, o.Result.Barrel.MeanH), 1)
+	})
+	add("finned surface", u.Name(output.Area), func(o outcome) string {
+		return output.Num(u.Of(output.Area, o.Result.Head.TotalArea+o.Result.Barrel.TotalArea), 3)
+	})
+	add("fin mass", u.Name(output.Mass), func(o outcome) string {
+		return output.Num(u.Of(output.Mass, o.Result.FinMass()), 2)
+	})
+	add("heat rejected per mass of fin", u.Name(output.PerMass), func(o outcome) string {
+		return output.Num(u.Of(output.PerMass, o.Result.HeatPerFinMass()), 0)
+	})
+	doc := output.Doc{Title: heading, Grids: []output.Grid{g}, Caution: true}
+	for i := 1; i < len(os); i++ {
+		doc.Notes = append(doc.Notes, explain(u, os[0], os[i], 'A', rune('A'+i)))
+	}
+	for i, o := range os {
+		if o.NoEquilibrium != nil {
+			doc.Notes = append(doc.Notes, fmt.Sprintf("%c: NO EQUILIBRIUM: %v.", 'A'+i, o.NoEquilibrium))
+		}
+	}
+	doc.Notes = append(doc.Notes, noteWall, noteModel)
+	doc.Warnings = warningsOf(warns...)
+	for _, o := range os {
+		doc.Alerts = append(doc.Alerts, limitAlerts(u, o)...)
+	}
+	var js []map[string]any
+	for _, o := range os {
+		js = append(js, map[string]any{"design": o.d.Name, "source": o.d.Source, "load": o.Load, "result": o.Result,
+			"head_margin_K": o.HeadMargin(), "barrel_margin_K": o.BarrelMargin(), "status": o.Status(),
+			"equilibrium": o.NoEquilibrium == nil, "energy_imbalance": o.Result.MaxImbal})
+	}
+	doc.JSON = map[string]any{"designs": js, "notes": doc.Notes, "warnings": doc.Warnings, "caution": output.Caution}
+	return doc, nil
+}
+
+// explain says how much hotter or cooler design b runs than a, and why.
+func explain(u output.Units, a, b outcome, la, lb rune) string {
+	dh := b.Result.Head.WallTemp - a.Result.Head.WallTemp
+	db := b.Result.Barrel.WallTemp - a.Result.Barrel.WallTemp
+	word := func(d float64) string {
+		if d >= 0 {
+			return fmt.Sprintf("%s %s hotter", output.Num(u.Of(output.TempDiff, d), 0), u.Name(output.TempDiff))
+		}
+		return fmt.Sprintf("%s %s cooler", output.Num(u.Of(output.TempDiff, -d), 0), u.Name(output.TempDiff))
+	}
+	s := fmt.Sprintf("%c against %c: the head runs %s and the barrel %s.", lb, la, word(dh), word(db))
+	var worse, better []string // what makes b hotter, what makes it cooler
+	side := func(bWorse bool, text string) {
+		if bWorse {
+			worse = append(worse, text)
+		} else {
+			better = append(better, text)
+		}
+	}
+	ha, hb := a.Result.Head, b.Result.Head
+	if math.Abs(hb.PassageVelocity-ha.PassageVelocity) > 0.05*math.Max(ha.PassageVelocity, 0.1) {
+		w := fmt.Sprintf("head passage air at %s against %s %s", output.Num(u.Of(output.Vel, hb.PassageVelocity), 1), output.Num(u.Of(output.Vel, ha.PassageVelocity), 1), u.Name(output.Vel))
+		if hb.Series && !ha.Series {
+			w += " (only the share of road speed along the axis drives it, through head and barrel passages in series)"
+		}
+		side(hb.PassageVelocity < ha.PassageVelocity, w)
+	}
+	if math.Abs(hb.MeanH-ha.MeanH) > 0.05*math.Max(ha.MeanH, 1) {
+		side(hb.MeanH < ha.MeanH, fmt.Sprintf("mean h on the head %s against %s %s", output.Num(u.Of(output.H, hb.MeanH), 0), output.Num(u.Of(output.H, ha.MeanH), 0), u.Name(output.H)))
+	}
+	ra, rb := ha.AirOut-ha.AirIn, hb.AirOut-hb.AirIn
+	if math.Abs(rb-ra) > 3 {
+		side(rb > ra, fmt.Sprintf("air warming %s %s along the head fins against %s", output.Num(u.Of(output.TempDiff, rb), 0), u.Name(output.TempDiff), output.Num(u.Of(output.TempDiff, ra), 0)))
+	}
+	if math.Abs(b.Result.Barrel.AirIn-a.Result.Barrel.AirIn) > 1 {
+		side(b.Result.Barrel.AirIn > a.Result.Barrel.AirIn, fmt.Sprintf("air reaching the barrel fins at %s %s against %s (on a series path the head has warmed it)",
+			fmtT(u, b.Result.Barrel.AirIn), u.Name(output.Temp), fmtT(u, a.Result.Barrel.AirIn)))
+	}
+	aa, ab := ha.TotalArea+a.Result.Barrel.TotalArea, hb.TotalArea+b.Result.Barrel.TotalArea
+	if math.Abs(ab-aa) > 0.03*aa {
+		side(ab < aa, fmt.Sprintf("finned surface %s against %s %s", output.Num(u.Of(output.Area, ab), 3), output.Num(u.Of(output.Area, aa), 3), u.Name(output.Area)))
+	}
+	lda, ldb := ha.HeatLoad+a.Result.Barrel.HeatLoad, hb.HeatLoad+b.Result.Barrel.HeatLoad
+	if math.Abs(ldb-lda) > 0.02*math.Max(lda, 1) {
+		side(ldb > lda, fmt.Sprintf("heat load %s against %s W", output.Num(ldb, 0), output.Num(lda, 0)))
+	}
+	if len(worse) > 0 {
+		s += fmt.Sprintf(" Against %c: %s.", lb, strings.Join(worse, "; "))
+	}
+	if len(better) > 0 {
+		s += fmt.Sprintf(" In %c's favour: %s.", lb, strings.Join(better, "; "))
+	}
+	return s
+}

@@ -1,0 +1,189 @@
+package app
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"finmarch/airflow/cylinder"
+	"finmarch/cmd/internal/design"
+	"finmarch/cmd/internal/output"
+)
+
+func (e *env) estimateCmd() *cobra.Command {
+	return e.oneDesign("estimate DESIGN.toml", "Estimate head and barrel temperature (or heat rejected at given walls) at cruise", e.estimate)
+}
+
+func (e *env) estimate(d *design.Design) error {
+	doc, o, err := e.estimateDoc(d)
+	if err != nil {
+		return err
+	}
+	if err := e.emit(doc); err != nil {
+		return err
+	}
+	if o.NoEquilibrium != nil {
+		return modelError(d.Name, o.NoEquilibrium)
+	}
+	return nil
+}
+
+// estimateDoc evaluates the design at cruise and builds the estimate's
+// document: the heat-balance grid, the notes, the warnings and the JSON.
+func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
+	_, u, err := e.settings()
+	if err != nil {
+		return output.Doc{}, outcome{}, err
+	}
+	o, err := evaluate(d, d.Case.Speed)
+	if err != nil {
+		return output.Doc{}, o, err
+	}
+	h, b := o.Result.Head, o.Result.Barrel
+	c := d.Case
+	doc := output.Doc{
+		Title: fmt.Sprintf("%s: %s %s, ambient %s %s, altitude %s %s (%s %s), tilt %.0f deg", d.Name,
+			output.Num(u.Of(output.Road, c.Speed), 0), u.Name(output.Road), fmtT(u, c.Ambient), u.Name(output.Temp),
+			output.Num(u.Of(output.Alt, d.Altitude), 0), u.Name(output.Alt), output.Num(u.Of(output.Press, c.Pressure), 1), u.Name(output.Press), c.Tilt*180/math.Pi),
+		Caution: true,
+	}
+	pair := func(f func(r cylinder.SetResult) string) []string { return []string{f(h), f(b)} }
+	row := func(q, unit string, vals []string) []string { return append([]string{q, unit}, vals...) }
+	g := output.Grid{Title: "Heat balance per fin set", Header: []string{"quantity", "unit", "head", "barrel"}, Left: 2}
+	if o.Fixed {
+		g.Rows = append(g.Rows, row("wall temperature (given)", u.Name(output.Temp), pair(func(r cylinder.SetResult) string { return fmtT(u, r.WallTemp) })))
+	} else {
+		g.Rows = append(g.Rows,
+			row("heat load", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.HeatLoad, 0) })))
+	}
+	g.Rows = append(g.Rows,
+		row("heat rejected", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.HeatRejected, 0) })),
+		row("  by convection", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.ConvectionHeat, 0) })),
+		row("    forced alone", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.ForcedHeat, 0) })),
+		row("    natural alone", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.NaturalHeat, 0) })),
+		row("  by radiation", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.RadiationHeat, 0) })),
+	)
+	if !o.Fixed {
+		g.Rows = append(g.Rows,
+			row("wall temperature at fin roots", u.Name(output.Temp), pair(func(r cylinder.SetResult) string { return fmtT(u, r.WallTemp) })),
+			row("limit", u.Name(output.Temp), []string{fmtT(u, d.HeadLimit), fmtT(u, d.BarrelLimit)}),
+			row("margin to limit", u.Name(output.TempDiff), []string{fmtDT(u, o.HeadMargin()), fmtDT(u, o.BarrelMargin())}),
+			row("status", "", []string{setStatus(o.NoEquilibrium, h, o.HeadMargin()), setStatus(o.NoEquilibrium, b, o.BarrelMargin())}),
+		)
+	}
+	g.Rows = append(g.Rows,
+		row("air at inlet", u.Name(output.Temp), pair(func(r cylinder.SetResult) string { return fmtT(u, r.AirIn) })),
+		row("air at outlet", u.Name(output.Temp), pair(func(r cylinder.SetResult) string { return fmtT(u, r.AirOut) })),
+		row("air rise along the path", u.Name(output.TempDiff), pair(func(r cylinder.SetResult) string { return fmtDT(u, r.AirOut-r.AirIn) })),
+		row("road speed along the fins", u.Name(output.Road), pair(func(r cylinder.SetResult) string { return output.Num(u.Of(output.Road, r.ApproachComponent), 0) })),
+		row("passage velocity", u.Name(output.Vel), pair(func(r cylinder.SetResult) string { return output.Num(u.Of(output.Vel, r.PassageVelocity), 2) })),
+		row("Reynolds number (2 x gap)", "-", pair(func(r cylinder.SetResult) string { return output.Num(r.Reynolds, 0) })),
+		row("flow regime", "", pair(func(r cylinder.SetResult) string { return r.Regime })),
+		row("air paths x path length", u.Name(output.Len), pair(func(r cylinder.SetResult) string {
+			dec := 0
+			if u.US {
+				dec = 1
+			}
+			return fmt.Sprintf("%d x %s", r.Paths, output.Num(u.Of(output.Len, r.PathLength), dec))
+		})),
+		row("mean h (forced)", u.Name(output.H), pair(func(r cylinder.SetResult) string { return output.Num(u.Of(output.H, r.MeanH), 1) })),
+		row("fin efficiency", "-", pair(func(r cylinder.SetResult) string { return output.Num(r.FinEfficiency, 3) })),
+		row("surface efficiency", "-", pair(func(r cylinder.SetResult) string { return output.Num(r.SurfaceEfficiency, 3) })),
+		row("finned surface (fins + base)", u.Name(output.Area), pair(func(r cylinder.SetResult) string { return output.Num(u.Of(output.Area, r.TotalArea), 3) })),
+		row("fin mass", u.Name(output.Mass), pair(func(r cylinder.SetResult) string { return output.Num(u.Of(output.Mass, r.FinMass), 2) })),
+		row("heat per mass of fin", u.Name(output.PerMass), pair(func(r cylinder.SetResult) string {
+			return output.Num(u.Of(output.PerMass, r.HeatRejected/r.FinMass), 0)
+		})),
+	)
+	doc.Grids = append(doc.Grids, g)
+	if !o.Fixed && !d.Load.Direct {
+		doc.Notes = append(doc.Notes, fmt.Sprintf("Road load at %s %s: %.2f kW at the wheel, %.2f kW at the crank, %.1f kW of fuel; %.0f%% of the fuel power to the fins of %d cylinder(s), %.0f%% of it through the head.",
+			output.Num(u.Of(output.Road, c.Speed), 0), u.Name(output.Road), o.Load.WheelPower/1e3, o.Load.BrakePower/1e3, o.Load.FuelPower/1e3,
+			100*d.Load.Road.CoolShare, d.Load.Road.Cylinders, 100*d.Load.Road.HeadShare))
+	}
+	doc.Notes = append(doc.Notes, orientationNote(d, o.Result), noteWall, noteMixed,
+		energyNote(o.Result.MaxImbal),
+		noteModel)
+	if o.NoEquilibrium != nil {
+		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.NoEquilibrium.Error()+".")
+	}
+	doc.Warnings = o.warnings()
+	doc.Alerts = limitAlerts(u, o)
+	doc.JSON = map[string]any{
+		"limit_warnings": doc.Alerts,
+		"design":         d.Name, "source": d.Source, "tilt_deg": c.Tilt * 180 / math.Pi, "speed_m_s": c.Speed,
+		"ambient_K": c.Ambient, "pressure_Pa": c.Pressure, "altitude_m": d.Altitude,
+		"load": o.Load, "result": o.Result, "head_limit_K": d.HeadLimit, "barrel_limit_K": d.BarrelLimit,
+		"head_margin_K": o.HeadMargin(), "barrel_margin_K": o.BarrelMargin(), "status": o.Status(),
+		"fixed_walls": o.Fixed, "equilibrium": o.NoEquilibrium == nil, "energy_imbalance": o.Result.MaxImbal,
+		"warnings": doc.Warnings, "defaults_applied": d.Defaults, "caution": output.Caution,
+	}
+	return doc, o, nil
+}
+
+// limitAlerts says which wall is over its limit, and by how much.
+func limitAlerts(u output.Units, o outcome) []string {
+	if o.Fixed {
+		return nil
+	}
+	var out []string
+	for _, x := range []struct {
+		name   string
+		wall   float64
+		limit  float64
+		margin float64
+	}{{"head", o.Result.Head.WallTemp, o.d.HeadLimit, o.HeadMargin()}, {"barrel", o.Result.Barrel.WallTemp, o.d.BarrelLimit, o.BarrelMargin()}} {
+		if x.margin < 0 {
+			out = append(out, fmt.Sprintf("%s: the %s runs at %s %s, %s %s over its %s %s limit",
+				o.d.Name, x.name, fmtT(u, x.wall), u.Name(output.Temp), fmtDT(u, -x.margin), u.Name(output.TempDiff), fmtT(u, x.limit), u.Name(output.Temp)))
+		}
+	}
+	return out
+}
+
+// noteMixed explains why the forced and natural rows do not add up.
+const noteMixed = "Convection combines forced and natural as Q^3 = QF^3 + QN^3 (Churchill 1977), so the two 'alone' rows do not add up; convection plus radiation is the heat rejected."
+
+// energyNote reports the energy check; below 1e-9 it says so rather than
+// print rounding noise.
+func energyNote(imb float64) string {
+	v := fmt.Sprintf("%.1e", imb)
+	if imb < 1e-9 {
+		v = "better than 1e-9"
+	}
+	return "Energy check: heat taken from the metal equals the air's enthalpy rise to " + v + " (relative)."
+}
+
+func setStatus(err error, r cylinder.SetResult, margin float64) string {
+	switch {
+	case err != nil && r.HeatRejected < r.HeatLoad:
+		return "NO EQUILIBRIUM"
+	case margin < 0:
+		return "OVER LIMIT"
+	case margin < 15:
+		return "marginal"
+	}
+	return "ok"
+}
+
+// orientationNote says in words how the air reaches the fins.
+func orientationNote(d *design.Design, r cylinder.Result) string {
+	tilt := d.Case.Tilt * 180 / math.Pi
+	var parts []string
+	for _, s := range []cylinder.SetResult{r.Head, r.Barrel} {
+		switch {
+		case s.Style == "annular":
+			parts = append(parts, fmt.Sprintf("the %s's annular fins take the road-speed share in their plane (cos %.0f deg = %.2f) on %d short paths round half the circumference, each fed with ambient air",
+				s.Name, tilt, math.Cos(d.Case.Tilt), s.Paths))
+		case s.Series && s.Name == "head":
+			parts = append(parts, fmt.Sprintf("the head's longitudinal fins take the share along the axis (sin %.0f deg = %.2f) and pass their warmed air on to the barrel fins", tilt, math.Sin(d.Case.Tilt)))
+		case s.Series:
+			parts = append(parts, "the barrel's longitudinal fins receive the air the head fins have already warmed")
+		default:
+			parts = append(parts, fmt.Sprintf("the %s's longitudinal fins take the share along the axis (sin %.0f deg = %.2f)", s.Name, tilt, math.Sin(d.Case.Tilt)))
+		}
+	}
+	return "Orientation: " + strings.Join(parts, "; ") + ". Air striking the fin faces broadside is assumed to add nothing (conservative)."
+}

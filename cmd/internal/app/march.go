@@ -1,0 +1,62 @@
+package app
+
+import (
+	"fmt"
+
+	"github.com/spf13/cobra"
+
+	"finmarch/airflow/cylinder"
+	"finmarch/cmd/internal/design"
+	"finmarch/cmd/internal/output"
+)
+
+func (e *env) marchCmd() *cobra.Command {
+	return e.oneDesign("march DESIGN.toml", "Show the segment-by-segment march of the cooling air along the fin passages", e.march)
+}
+
+func (e *env) march(d *design.Design) error {
+	_, u, err := e.settings()
+	if err != nil {
+		return err
+	}
+	o, err := evaluate(d, d.Case.Speed)
+	if err != nil {
+		return err
+	}
+	T, L := u.Name(output.Temp), u.Name(output.Len)
+	g := output.Grid{Title: "March along one air path of each fin set (heat and flux summed over all parallel paths)",
+		Header: []string{"set", "segment", "x (" + L + ")", "air in (" + T + ")", "air out (" + T + ")", "h (" + u.Name(output.H) + ")", "fin eff", "flux (" + u.Name(output.Flux) + ")", "heat (W)"}, Left: 1}
+	for _, s := range []cylinder.SetResult{o.Result.Head, o.Result.Barrel} {
+		for i, sg := range s.March {
+			g.Rows = append(g.Rows, []string{s.Name, fmt.Sprint(i + 1), output.Num(u.Of(output.Len, sg.X), u.Dec(output.Len)), fmtT(u, sg.AirIn), fmtT(u, sg.AirOut),
+				output.Num(u.Of(output.H, sg.H), 1), output.Num(sg.FinEff, 3), output.Num(u.Of(output.Flux, sg.Flux), 0), output.Num(sg.Heat, 1)})
+		}
+	}
+	doc := output.Doc{Title: fmt.Sprintf("%s: march at %s %s (head wall %s %s, barrel wall %s %s)", d.Name,
+		output.Num(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), fmtT(u, o.Result.Head.WallTemp), T, fmtT(u, o.Result.Barrel.WallTemp), T),
+		Grids: []output.Grid{g}, Caution: true}
+	for _, s := range []cylinder.SetResult{o.Result.Head, o.Result.Barrel} {
+		if len(s.March) == 0 {
+			doc.Notes = append(doc.Notes, fmt.Sprintf("The %s fins get no forced flow at this tilt and speed: natural convection and radiation only.", s.Name))
+			continue
+		}
+		first, last := s.March[0], s.March[len(s.March)-1]
+		doc.Notes = append(doc.Notes, fmt.Sprintf("%s: the air warms from %s to %s %s along %s %s; the local heat flux falls from %s to %s %s (%s%% of its entry value).",
+			title(s.Name), fmtT(u, s.AirIn), fmtT(u, s.AirOut), T, output.Num(u.Of(output.Len, s.PathLength), 0), L,
+			output.Num(u.Of(output.Flux, first.Flux), 0), output.Num(u.Of(output.Flux, last.Flux), 0), u.Name(output.Flux), output.Num(100*last.Flux/first.Flux, 0)))
+	}
+	if o.NoEquilibrium != nil {
+		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.NoEquilibrium.Error()+"; the march is shown at the search limit.")
+	}
+	doc.Notes = append(doc.Notes, energyNote(o.Result.MaxImbal))
+	doc.Warnings = o.warnings()
+	doc.JSON = map[string]any{"design": d.Name, "head": o.Result.Head, "barrel": o.Result.Barrel, "energy_imbalance": o.Result.MaxImbal,
+		"equilibrium": o.NoEquilibrium == nil, "warnings": doc.Warnings, "caution": output.Caution}
+	if err := e.emit(doc); err != nil {
+		return err
+	}
+	if o.NoEquilibrium != nil {
+		return modelError(d.Name, o.NoEquilibrium)
+	}
+	return nil
+}

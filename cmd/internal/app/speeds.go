@@ -1,0 +1,103 @@
+package app
+
+import (
+	"fmt"
+	"math"
+
+	"github.com/spf13/cobra"
+
+	"finmarch/airflow/cylinder"
+	"finmarch/cmd/internal/design"
+	"finmarch/cmd/internal/output"
+)
+
+func (e *env) speedsCmd() *cobra.Command {
+	var from, to, step string
+	cmd := &cobra.Command{
+		Use:               "speeds DESIGN.toml",
+		Short:             "Sweep road speed: head and barrel temperature and margin at each speed",
+		Args:              cobra.ExactArgs(1),
+		ValidArgsFunction: tomlArgs,
+		RunE: func(_ *cobra.Command, args []string) error {
+			d, err := e.load(args[0])
+			if err != nil {
+				return err
+			}
+			v, err := parseSpeedRange(from, to, step)
+			if err != nil {
+				return err
+			}
+			if !(v[0] >= 0 && v[1] >= v[0] && v[1] <= 400/3.6 && v[2] > 0) || (v[1]-v[0])/v[2] > 1000 {
+				return fail(ExitUsage, fmt.Errorf("speed range %s to %s by %s: need 0 <= from <= to <= 400 km/h, a positive step and at most 1000 rows", from, to, step))
+			}
+			return e.speeds(d, v[0], v[1], v[2])
+		},
+	}
+	cmd.Flags().StringVar(&from, "from", "0 km/h", "lowest road speed, with unit")
+	cmd.Flags().StringVar(&to, "to", "140 km/h", "highest road speed, with unit")
+	cmd.Flags().StringVar(&step, "step", "10 km/h", "speed step, with unit")
+	return cmd
+}
+
+func (e *env) speeds(d *design.Design, from, to, step float64) error {
+	_, u, err := e.settings()
+	if err != nil {
+		return err
+	}
+	T := u.Name(output.Temp)
+	g := output.Grid{Title: "Temperatures against road speed",
+		Header: []string{"speed (" + u.Name(output.Road) + ")", "head load (W)", "barrel load (W)", "head (" + T + ")", "barrel (" + T + ")", "head margin (" + u.Name(output.TempDiff) + ")", "status"}}
+	var warns [][]string
+	var rows []map[string]any
+	for i := 0; ; i++ {
+		v := from + float64(i)*step
+		if v > to+1e-9 {
+			break
+		}
+		o, err := evaluate(d, v)
+		if err != nil {
+			return err
+		}
+		warns = append(warns, o.warnings())
+		ht, bt := fmtT(u, o.Result.Head.WallTemp), fmtT(u, o.Result.Barrel.WallTemp)
+		if o.NoEquilibrium != nil {
+			if o.Result.Head.HeatRejected < o.Result.Head.HeatLoad {
+				ht = "over " + fmtT(u, cylinder.SaneWallLimit)
+			}
+			if o.Result.Barrel.HeatRejected < o.Result.Barrel.HeatLoad {
+				bt = "over " + fmtT(u, cylinder.SaneWallLimit)
+			}
+		}
+		st, margin := string(o.Status()), fmtDT(u, o.HeadMargin())
+		if !o.Fixed && o.Load.Head == 0 && o.Load.Barrel == 0 {
+			st, margin, ht, bt = "no load", "-", "-", "-"
+		}
+		g.Rows = append(g.Rows, []string{output.Num(u.Of(output.Road, v), 0), output.Num(o.Result.Head.HeatLoad, 0), output.Num(o.Result.Barrel.HeatLoad, 0),
+			ht, bt, margin, st})
+		rows = append(rows, map[string]any{"speed_m_s": v, "load": o.Load, "head": summary(o.Result.Head), "barrel": summary(o.Result.Barrel),
+			"head_margin_K": o.HeadMargin(), "status": o.Status(), "equilibrium": o.NoEquilibrium == nil})
+	}
+	doc := output.Doc{Title: fmt.Sprintf("%s: road-speed sweep, ambient %s %s, tilt %.0f deg", d.Name, fmtT(u, d.Case.Ambient), T, d.Case.Tilt*180/math.Pi),
+		Grids: []output.Grid{g}, Caution: true}
+	if !d.Load.Direct {
+		note := "The heat load follows the road load at each speed."
+		if d.Load.Road.IdleHeat > 0 {
+			note += fmt.Sprintf(" It never falls below load.idle_heat = %.0f W, the engine at idle.", d.Load.Road.IdleHeat)
+		} else if from == 0 {
+			note += " At 0 speed the road load is nil: set load.idle_heat (heat to the fins at idle) for an idle check."
+		}
+		doc.Notes = append(doc.Notes, note)
+	} else {
+		doc.Notes = append(doc.Notes, "The heat load is the design's fixed head_heat and barrel_heat at every speed.")
+	}
+	doc.Notes = append(doc.Notes, noteWall)
+	doc.Warnings = warningsOf(warns...)
+	doc.JSON = map[string]any{"design": d.Name, "rows": rows, "warnings": doc.Warnings, "caution": output.Caution}
+	return e.emit(doc)
+}
+
+// summary drops the march arrays from a set result for compact JSON rows.
+func summary(r cylinder.SetResult) cylinder.SetResult {
+	r.March = nil
+	return r
+}
