@@ -1,0 +1,327 @@
+package design
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"strings"
+
+	"github.com/BurntSushi/toml"
+
+	"finmarch/airflow"
+	"finmarch/airflow/cylinder"
+	"finmarch/fins"
+	"finmarch/materials"
+)
+
+// builder turns a decoded design file into a Design: every range check
+// and rule in the file's order, each error through add with its key.
+type builder struct {
+	f      *File
+	md     toml.MetaData
+	d      *Design
+	add    func(key, format string, a ...any)
+	checks []rangeCheck
+}
+
+// need reads a required quantity and queues its range check.
+func (b *builder) need(key string, q rawQ, set bool, lo, hi float64, unit string, scale, offset float64) float64 {
+	b.checks = append(b.checks, rangeCheck{key: key, v: q.Or(math.NaN()), lo: lo, hi: hi, unit: unit, scale: scale, offset: offset, set: set, bare: q.IsBare()})
+	return q.Or(math.NaN())
+}
+
+// opt reads an optional quantity: its default (recorded with why) when
+// not set, otherwise the value with its range check queued.
+func (b *builder) opt(key string, q rawQ, set bool, dflt, lo, hi float64, unit string, scale, offset float64, why string) float64 {
+	if !set {
+		b.def(key, why)
+		return dflt
+	}
+	b.checks = append(b.checks, rangeCheck{key: key, v: q.Or(dflt), lo: lo, hi: hi, unit: unit, scale: scale, offset: offset, set: true, bare: q.IsBare()})
+	return q.Or(dflt)
+}
+
+// def records a default applied, for the report.
+func (b *builder) def(key, what string) { b.d.Defaults = append(b.d.Defaults, defaultText(key, what)) }
+
+// mm and C are the millimetre in m and 0 C in K, for the ranges below.
+const mm, C = 1e-3, 273.15
+
+func build(f *File, md toml.MetaData, name string, add func(key, format string, a ...any)) *Design {
+	d := &Design{Name: strings.TrimSpace(f.Name), Source: name}
+	if d.Name == "" {
+		d.Name = strings.TrimSuffix(baseName(name), ".toml")
+		d.Defaults = append(d.Defaults, "name: taken from the file name")
+	}
+	b := &builder{f: f, md: md, d: d, add: add, checks: make([]rangeCheck, 0, 48)}
+	b.cylinder()
+	b.air()
+	b.load()
+	b.limits()
+	b.ranges()
+	b.crossRules()
+	return d
+}
+
+// cylinder reads the [cylinder] dimensions and the two fin sets.
+func (b *builder) cylinder() {
+	f, c := b.f, &b.d.Case
+	c.Tilt = b.opt("cylinder.tilt", f.Cylinder.Tilt.raw(), f.Cylinder.Tilt.Set, 0, 0, math.Pi/2+1e-12, "deg", math.Pi/180, 0, "0 deg (upright)")
+	hd := b.need("cylinder.head_diameter", f.Cylinder.HeadDiameter.raw(), f.Cylinder.HeadDiameter.Set, 20*mm, 400*mm, "mm", mm, 0)
+	hl := b.need("cylinder.head_length", f.Cylinder.HeadLength.raw(), f.Cylinder.HeadLength.Set, 5*mm, 500*mm, "mm", mm, 0)
+	bd := b.need("cylinder.barrel_diameter", f.Cylinder.BarrelDiameter.raw(), f.Cylinder.BarrelDiameter.Set, 20*mm, 400*mm, "mm", mm, 0)
+	bl := b.need("cylinder.barrel_length", f.Cylinder.BarrelLength.raw(), f.Cylinder.BarrelLength.Set, 5*mm, 500*mm, "mm", mm, 0)
+
+	c.Head = b.finSet("head", f.Head, hd, hl)
+	c.Barrel = b.finSet("barrel", f.Barrel, bd, bl)
+}
+
+// alloy returns the alloy named n: a custom [alloys.n] table or the
+// catalogue's, with "did you mean" for a misspelt name.
+func (b *builder) alloy(key, n string) (materials.Alloy, bool) {
+	f := b.f
+	if strings.TrimSpace(n) == "" {
+		b.add(key, "missing: name an alloy (%s) or define one under [alloys.NAME]", strings.Join(materials.Names(), ", "))
+		return materials.Alloy{}, false
+	}
+	if ca, ok := f.Alloys[n]; ok {
+		base := "alloys." + n
+		for _, k := range []struct {
+			k   string
+			set bool
+		}{{"conductivity", ca.Conductivity.Set}, {"density", ca.Density.Set}, {"specific_heat", ca.SpecificHeat.Set}} {
+			if !k.set {
+				b.add(base+"."+k.k, "missing for the custom alloy %q", n)
+			}
+		}
+		a, err := materials.Custom(n, ca.Conductivity.Or(0), ca.Density.Or(0), ca.SpecificHeat.Or(0),
+			ca.Emissivity.Or(0.2), ca.EmissivityPainted.Or(0.9), ca.MaxService.Or(250+C), nil)
+		if err != nil {
+			if ca.Conductivity.Set && ca.Density.Set && ca.SpecificHeat.Set {
+				msg := err.Error()
+				k := base
+				for _, field := range []string{"conductivity", "density", "specific_heat", "emissivity_painted", "emissivity", "max_service"} {
+					if strings.Contains(msg, ": "+field+" ") {
+						k = base + "." + field
+						break
+					}
+				}
+				b.add(k, "%s", strings.TrimPrefix(msg, fmt.Sprintf("custom alloy %q: ", n)))
+			}
+			return materials.Alloy{}, false
+		}
+		return a, true
+	}
+	a, err := materials.Lookup(n)
+	if err != nil {
+		msg := strings.TrimPrefix(err.Error(), materials.ErrUnknown.Error()+": ")
+		b.add(key, "%s, or define it under [alloys.%s]", msg, n)
+		return materials.Alloy{}, false
+	}
+	return a, true
+}
+
+// finSet reads one fin-set table on a cylinder of root diameter dia and
+// finned length length (m).
+func (b *builder) finSet(tbl string, t FinSetT, dia, length float64) cylinder.FinSet {
+	md := b.md
+	key := func(field string) string { return setKey(tbl, field) }
+	fs := cylinder.FinSet{Name: tbl}
+	if !md.IsDefined(tbl) {
+		b.add(tbl, "missing table [%s]: the %s fin set (style, count, pitch, height, root_thickness, alloy)", tbl, tbl)
+		return fs
+	}
+	s := &fs.Set
+	switch strings.ToLower(strings.TrimSpace(t.Style)) {
+	case "annular", "ring", "rings":
+		s.Style = fins.StyleAnnular
+	case "longitudinal", "axial":
+		s.Style = fins.StyleLongitudinal
+	case "":
+		b.add(key("style"), `missing: "annular" (rings around the cylinder) or "longitudinal" (plates along the axis)`)
+	default:
+		b.add(key("style"), `%q is not a fin style; use "annular" or "longitudinal"`, t.Style)
+	}
+	if !md.IsDefined(tbl, "count") {
+		b.add(key("count"), "missing: the number of fins (a whole number)")
+	} else if t.Count < 1 || t.Count > 400 {
+		b.add(key("count"), "%d fins; allowed 1 to 400", t.Count)
+	}
+	s.Count = t.Count
+	s.Pitch = b.need(key("pitch"), t.Pitch.raw(), t.Pitch.Set, 1*mm, 60*mm, "mm", mm, 0)
+	s.Height = b.need(key("height"), t.Height.raw(), t.Height.Set, 2*mm, 150*mm, "mm", mm, 0)
+	s.RootThickness = b.need(key("root_thickness"), t.RootThickness.raw(), t.RootThickness.Set, 0.3*mm, 25*mm, "mm", mm, 0)
+	s.TipThickness = b.opt(key("tip_thickness"), t.TipThickness.raw(), t.TipThickness.Set, s.RootThickness, 0, 25*mm, "mm", mm, 0, "equal to root_thickness (no taper)")
+	s.RootDiameter, s.Length = dia, length
+	if a, ok := b.alloy(key("alloy"), t.Alloy); ok {
+		fs.Alloy = a
+	}
+	fin := materials.AsCast
+	switch strings.ToLower(strings.TrimSpace(t.Finish)) {
+	case "", "as-cast", "ascast", "bare":
+		if t.Finish == "" && !t.Emissivity.Set {
+			b.def(key("finish"), "as-cast")
+		}
+	case "painted", "black", "painted-black":
+		fin = materials.Painted
+	default:
+		b.add(key("finish"), `%q is not a finish; use "as-cast" or "painted" (or give emissivity)`, t.Finish)
+	}
+	fs.Emissivity = fs.Alloy.Emissivity(fin)
+	if t.Emissivity.Set {
+		fs.Emissivity = b.opt(key("emissivity"), t.Emissivity.raw(), true, 0, 0.01, 1, "", 1, 0, "")
+	}
+	return fs
+}
+
+// air reads [air] and the march segments.
+func (b *builder) air() {
+	f, md, d, c := b.f, b.md, b.d, &b.d.Case
+	c.Speed = b.need("air.speed", f.Air.Speed.raw(), f.Air.Speed.Set, 0, 400/3.6, "km/h", 1/3.6, 0)
+	c.Recovery = b.opt("air.pressure_recovery", f.Air.PressureRecovery.raw(), f.Air.PressureRecovery.Set, cylinder.DefaultRecovery, 0.05, 1, "", 1, 0,
+		"0.5 (common practice for an uncowled cylinder; calibrate against a measured head temperature)")
+	c.Ambient = b.need("air.ambient", f.Air.Ambient.raw(), f.Air.Ambient.Set, -50+C, 60+C, "C", 1, C)
+	if f.Air.Pressure.Set && f.Air.Altitude.Set {
+		b.add("air.pressure", "give altitude or pressure, not both")
+	}
+	if f.Air.Pressure.Set {
+		c.Pressure = b.opt("air.pressure", f.Air.Pressure.raw(), true, 0, 30e3, 110e3, "kPa", 1e3, 0, "")
+	} else {
+		d.Altitude = b.opt("air.altitude", f.Air.Altitude.raw(), f.Air.Altitude.Set, 0, -500, 6000, "m", 1, 0, "0 m (sea level, ISA pressure)")
+		c.Pressure = airflow.ISA(d.Altitude, nil).P
+	}
+	if f.Segments != 0 || md.IsDefined("segments") {
+		if f.Segments < 1 || f.Segments > 10000 {
+			b.add("segments", "%d; allowed 1 to 10000", f.Segments)
+		}
+		d.Run.Segments = f.Segments
+	} else {
+		d.Run.Segments = cylinder.DefaultSegments
+	}
+}
+
+// load reads [load]: the heats directly, or the road load.
+func (b *builder) load() {
+	f, md, d := b.f, b.md, b.d
+	l := f.Load
+	if !md.IsDefined("load") {
+		b.add("load", "missing table [load]: give head_heat and barrel_heat, or the road load (mass, cda)")
+	} else if l.HeadHeat.Set || l.BarrelHeat.Set {
+		d.Load.Direct = true
+		d.Load.Given.Head = b.need("load.head_heat", l.HeadHeat.raw(), l.HeadHeat.Set, 0, 50e3, "kW", 1e3, 0)
+		d.Load.Given.Barrel = b.need("load.barrel_heat", l.BarrelHeat.raw(), l.BarrelHeat.Set, 0, 50e3, "kW", 1e3, 0)
+		for _, k := range []struct {
+			k   string
+			set bool
+		}{{"mass", l.Mass.Set}, {"cda", l.CdA.Set}, {"thermal_efficiency", l.ThermalEfficiency.Set}, {"cooling_share", l.CoolingShare.Set}} {
+			if k.set {
+				b.add("load."+k.k, "not used when head_heat and barrel_heat are given; remove one way of giving the load")
+			}
+		}
+	} else {
+		r := &d.Load.Road
+		r.Mass = b.need("load.mass", l.Mass.raw(), l.Mass.Set, 30, 5000, "kg", 1, 0)
+		r.CdA = b.need("load.cda", l.CdA.raw(), l.CdA.Set, 0.05, 5, "m2", 1, 0)
+		r.Crr = b.opt("load.rolling_resistance", l.RollingResistance.raw(), l.RollingResistance.Set, cylinder.DefaultCrr, 0.002, 0.1, "", 1, 0, "0.02 (common practice, road tyre on asphalt)")
+		r.Driveline = b.opt("load.driveline_efficiency", l.DrivelineEfficiency.raw(), l.DrivelineEfficiency.Set, cylinder.DefaultDriveline, 0.5, 1, "", 1, 0, "0.90 (common practice, chain or belt drive)")
+		r.Thermal = b.opt("load.thermal_efficiency", l.ThermalEfficiency.raw(), l.ThermalEfficiency.Set, cylinder.DefaultThermal, 0.1, 0.45, "", 1, 0, "0.25 (Heywood 1988, part-load SI; from memory)")
+		r.CoolShare = b.opt("load.cooling_share", l.CoolingShare.raw(), l.CoolingShare.Set, cylinder.DefaultCoolShare, 0.05, 0.6, "", 1, 0, "0.22 (Heywood 1988 Table 12.1; from memory)")
+		r.HeadShare = b.opt("load.head_share", l.HeadShare.raw(), l.HeadShare.Set, cylinder.DefaultHeadShare, 0.05, 1, "", 1, 0, "0.65 (common practice)")
+		r.GradePct = b.opt("load.grade", l.Grade.raw(), l.Grade.Set, 0, -20, 20, "%", 1, 0, "0 % (level road)")
+		if l.IdleHeat.Set {
+			r.IdleHeat = b.opt("load.idle_heat", l.IdleHeat.raw(), true, 0, 0, 20e3, "kW", 1e3, 0, "")
+		}
+		r.ExtraPowerW = b.opt("load.extra_power", l.ExtraPower.raw(), l.ExtraPower.Set, 0, 0, 100e3, "kW", 1e3, 0, "0 W")
+		r.Cylinders = 1
+		if md.IsDefined("load", "cylinders") {
+			if l.Cylinders < 1 || l.Cylinders > 16 {
+				b.add("load.cylinders", "%d; allowed 1 to 16", l.Cylinders)
+			}
+			r.Cylinders = l.Cylinders
+		} else {
+			b.def("load.cylinders", "1")
+		}
+	}
+}
+
+// limits reads [limits] and [override].
+func (b *builder) limits() {
+	f, d, c := b.f, b.d, &b.d.Case
+	var headWhy, barrelWhy string // built only when the default applies
+	if !f.Limits.Head.Set {
+		headWhy = fmt.Sprintf("the head alloy's maximum service temperature, %.0f C (%s)", c.Head.Alloy.MaxService-C, c.Head.Alloy.LimitSource)
+	}
+	if !f.Limits.Barrel.Set {
+		barrelWhy = fmt.Sprintf("the barrel alloy's maximum service temperature, %.0f C", c.Barrel.Alloy.MaxService-C)
+	}
+	d.HeadLimit = b.opt("limits.head", f.Limits.Head.raw(), f.Limits.Head.Set, c.Head.Alloy.MaxService, 60+C, 450+C, "C", 1, C, headWhy)
+	d.BarrelLimit = b.opt("limits.barrel", f.Limits.Barrel.raw(), f.Limits.Barrel.Set, c.Barrel.Alloy.MaxService, 60+C, 450+C, "C", 1, C, barrelWhy)
+	if f.Override.H.Set {
+		c.FixedH = b.opt("override.h", f.Override.H.raw(), true, 0, 1, 2000, "W/m2K", 1, 0, "")
+	}
+	if f.Override.HeadWall.Set || f.Override.BarrelWall.Set {
+		d.WallFixed = true
+		d.HeadWall = b.need("override.head_wall", f.Override.HeadWall.raw(), f.Override.HeadWall.Set, 0+C, 500+C, "C", 1, C)
+		d.BarrelWall = b.need("override.barrel_wall", f.Override.BarrelWall.raw(), f.Override.BarrelWall.Set, 0+C, 500+C, "C", 1, C)
+	}
+}
+
+// ranges reports every queued range check that failed.
+func (b *builder) ranges() {
+	checks := b.checks
+	for _, r := range checks {
+		switch {
+		case !r.set:
+			b.add(r.key, "missing (%s)", rangeText(r))
+		case math.IsNaN(r.v) || r.v < r.lo || r.v > r.hi:
+			msg := fmt.Sprintf("%s %s is outside the allowed range %s", r.show(r.v), r.unit, rangeText(r))
+			if hint := unitHint(r.key); hint != "" && r.bare {
+				msg += "; " + hint
+			}
+			b.add(r.key, "%s", strings.Replace(msg, "  ", " ", -1))
+		}
+	}
+}
+
+// crossRules checks the rules between fields: fins that fit and stand on
+// their cylinder, a limit above the ambient, fixed walls above it.
+func (b *builder) crossRules() {
+	d, c := b.d, &b.d.Case
+	for _, s := range []struct {
+		tbl string
+		fs  cylinder.FinSet
+	}{{"head", c.Head}, {"barrel", c.Barrel}} {
+		set := s.fs.Set
+		if set.Height > 0 && set.RootDiameter > 0 && set.Height > set.RootDiameter {
+			b.add(setKey(s.tbl, "height"), "%.4g mm fins on a %.4g mm root diameter are taller than the cylinder is wide; fins of this kind stay below the root diameter (common practice)", set.Height/mm, set.RootDiameter/mm)
+		}
+		if set.Count >= 1 && set.Pitch > 0 && set.Height > 0 && set.RootThickness > 0 && set.RootDiameter > 0 && set.Length > 0 && set.TipThickness >= 0 {
+			if _, err := set.Geometry(); err != nil {
+				var fe *fins.FieldError
+				if errors.As(err, &fe) {
+					key := s.tbl + "." + fe.Field
+					switch fe.Field {
+					case "root_diameter":
+						key = "cylinder." + s.tbl + "_diameter"
+					case "length":
+						key = "cylinder." + s.tbl + "_length"
+					}
+					b.add(key, "%s", fe.Msg)
+				} else {
+					b.add(s.tbl, "%v", err)
+				}
+			}
+		}
+	}
+	if c.Ambient > 0 && d.HeadLimit > 0 && c.Ambient >= d.HeadLimit {
+		b.add("limits.head", "the head limit %.4g C is not above the ambient %.4g C; no cooling can hold it", d.HeadLimit-C, c.Ambient-C)
+	}
+	if d.WallFixed {
+		if d.HeadWall <= c.Ambient {
+			b.add("override.head_wall", "%.4g C is not above the ambient %.4g C", d.HeadWall-C, c.Ambient-C)
+		}
+		if d.BarrelWall <= c.Ambient {
+			b.add("override.barrel_wall", "%.4g C is not above the ambient %.4g C", d.BarrelWall-C, c.Ambient-C)
+		}
+	}
+}
