@@ -37,7 +37,6 @@ type Result struct {
 // concurrent use; seen, when not nil, receives every evaluated point (on
 // one goroutine at a time).
 func Minimize(f func(x []float64) float64, lo, hi []float64, integer []bool, opt Options, seen func(x []float64, fx float64)) Result {
-	n := len(lo)
 	if opt.Levels < 2 {
 		opt.Levels = 5
 	}
@@ -53,69 +52,109 @@ func Minimize(f func(x []float64) float64, lo, hi []float64, integer []bool, opt
 	if opt.Workers <= 0 {
 		opt.Workers = runtime.GOMAXPROCS(0)
 	}
-	var mu sync.Mutex
-	evals := 0
-	eval := func(x []float64) float64 {
-		v := f(x)
-		if math.IsNaN(v) {
-			v = math.Inf(1)
+	s := &search{f: f, lo: lo, hi: hi, integer: integer, opt: opt, seen: seen, n: len(lo), budget: opt.MaxEval}
+	s.gridLevels()
+	pts := s.gridPoints()
+	best := Result{X: append([]float64(nil), pts[0].x...), F: pts[0].fx}
+	for k := 0; k < opt.Starts && k < len(pts) && !math.IsInf(pts[k].fx, 1); k++ {
+		x, fx := s.compass(append([]float64(nil), pts[k].x...), pts[k].fx)
+		if fx < best.F {
+			best = Result{X: x, F: fx}
 		}
-		mu.Lock()
-		evals++
-		if seen != nil {
-			seen(x, v)
-		}
-		mu.Unlock()
-		return v
 	}
-	snap := func(i int, v float64) float64 {
-		v = math.Min(hi[i], math.Max(lo[i], v))
-		if integer != nil && integer[i] {
-			v = math.Round(v)
-		}
-		return v
+	best.Evals = s.evals
+	return best
+}
+
+// search is one run of Minimize.
+type search struct {
+	f       func(x []float64) float64
+	lo, hi  []float64
+	integer []bool
+	opt     Options
+	seen    func(x []float64, fx float64)
+	n       int
+	levels  [][]float64 // each variable's grid levels
+	mu      sync.Mutex
+	evals   int
+	budget  int // evaluations left for the pattern searches
+}
+
+type point struct {
+	x  []float64
+	fx float64
+}
+
+func (s *search) eval(x []float64) float64 {
+	v := s.f(x)
+	if math.IsNaN(v) {
+		v = math.Inf(1)
 	}
-	// the grid: each variable's levels, integers deduplicated
-	levels := make([][]float64, n)
-	total := 1
-	for i := range lo {
-		m := opt.Levels
-		if lo[i] == hi[i] {
+	s.mu.Lock()
+	s.evals++
+	if s.seen != nil {
+		s.seen(x, v)
+	}
+	s.mu.Unlock()
+	return v
+}
+
+// snap clamps v to variable i's bounds and rounds an integer variable.
+func (s *search) snap(i int, v float64) float64 {
+	v = math.Min(s.hi[i], math.Max(s.lo[i], v))
+	if s.integer != nil && s.integer[i] {
+		v = math.Round(v)
+	}
+	return v
+}
+
+func (s *search) isInt(i int) bool { return s.integer != nil && s.integer[i] }
+
+// gridLevels sets each variable's levels, integers deduplicated.
+func (s *search) gridLevels() {
+	s.levels = make([][]float64, s.n)
+	for i := range s.lo {
+		m := s.opt.Levels
+		if s.lo[i] == s.hi[i] {
 			m = 1
 		}
 		seenV := map[float64]bool{}
 		for k := 0; k < m; k++ {
-			v := lo[i]
+			v := s.lo[i]
 			if m > 1 {
-				v = lo[i] + (hi[i]-lo[i])*float64(k)/float64(m-1)
+				v = s.lo[i] + (s.hi[i]-s.lo[i])*float64(k)/float64(m-1)
 			}
-			v = snap(i, v)
+			v = s.snap(i, v)
 			if !seenV[v] {
 				seenV[v] = true
-				levels[i] = append(levels[i], v)
+				s.levels[i] = append(s.levels[i], v)
 			}
 		}
-		total *= len(levels[i])
 	}
-	type point struct {
-		x  []float64
-		fx float64
+}
+
+// gridPoints evaluates the full grid on the workers and returns its
+// points, best first (ties in grid order).
+func (s *search) gridPoints() []point {
+	total := 1
+	for _, l := range s.levels {
+		total *= len(l)
 	}
 	pts := make([]point, total)
 	var wg sync.WaitGroup
 	next := make(chan int)
-	for w := 0; w < opt.Workers; w++ {
+	for w := 0; w < s.opt.Workers; w++ {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
 			for idx := range next {
-				x := make([]float64, n)
+				x := make([]float64, s.n)
 				j := idx
-				for i := n - 1; i >= 0; i-- {
-					x[i] = levels[i][j%len(levels[i])]
-					j /= len(levels[i])
+				for i := s.n - 1; i >= 0; i-- {
+					x[i] = s.levels[i][j%len(s.levels[i])]
+					j /= len(s.levels[i])
 				}
-				pts[idx] = point{x, eval(x)}
+				pts[idx] = point{x, s.eval(x)}
 			}
 		}()
 	}
@@ -125,99 +164,117 @@ func Minimize(f func(x []float64) float64, lo, hi []float64, integer []bool, opt
 	close(next)
 	wg.Wait()
 	sort.SliceStable(pts, func(a, b int) bool { return pts[a].fx < pts[b].fx })
-	best := Result{X: append([]float64(nil), pts[0].x...), F: pts[0].fx}
-	budget := opt.MaxEval
-	for s := 0; s < opt.Starts && s < len(pts) && !math.IsInf(pts[s].fx, 1); s++ {
-		x := append([]float64(nil), pts[s].x...)
-		fx := pts[s].fx
-		step := make([]float64, n)
-		for i := range step {
-			if len(levels[i]) > 1 {
-				step[i] = (hi[i] - lo[i]) / float64(opt.Levels-1) / 2
-			}
-			if integer != nil && integer[i] {
-				step[i] = math.Max(1, math.Round(step[i]))
-			}
+	return pts
+}
+
+// compass runs the pattern search from x: axis moves, then the diagonals
+// of each pair of variables, halving the steps when neither improves,
+// until every continuous step is below Tol of its range (integers at 1)
+// or the budget is spent.
+func (s *search) compass(x []float64, fx float64) ([]float64, float64) {
+	step := make([]float64, s.n)
+	for i := range step {
+		if len(s.levels[i]) > 1 {
+			step[i] = (s.hi[i] - s.lo[i]) / float64(s.opt.Levels-1) / 2
 		}
-		for budget > 0 {
-			improved := false
-			for i := 0; i < n && budget > 0; i++ {
-				if step[i] == 0 {
-					continue
-				}
-				for _, dir := range []float64{1, -1} {
-					y := append([]float64(nil), x...)
-					y[i] = snap(i, x[i]+dir*step[i])
-					if y[i] == x[i] {
-						continue
-					}
-					fy := eval(y)
-					budget--
-					if fy < fx {
-						x, fx, improved = y, fy, true
-						break
-					}
-				}
-			}
-			if improved {
+		if s.isInt(i) {
+			step[i] = math.Max(1, math.Round(step[i]))
+		}
+	}
+	for s.budget > 0 {
+		var improved bool
+		if x, fx, improved = s.axisMoves(x, fx, step); improved {
+			continue
+		}
+		// axis moves failed: poll the diagonals of each pair of variables,
+		// which lets the search slide along a constraint that runs across
+		// the axes (such as height over gap)
+		if x, fx, improved = s.diagonalMoves(x, fx, step); improved {
+			continue
+		}
+		if s.shrink(step) {
+			break
+		}
+	}
+	return x, fx
+}
+
+// axisMoves tries a step up and down each variable, taking the first that
+// improves.
+func (s *search) axisMoves(x []float64, fx float64, step []float64) ([]float64, float64, bool) {
+	improved := false
+	for i := 0; i < s.n && s.budget > 0; i++ {
+		if step[i] == 0 {
+			continue
+		}
+		for _, dir := range []float64{1, -1} {
+			y := append([]float64(nil), x...)
+			y[i] = s.snap(i, x[i]+dir*step[i])
+			if y[i] == x[i] {
 				continue
 			}
-			// axis moves failed: poll the diagonals of each pair of
-			// variables, which lets the search slide along a constraint
-			// that runs across the axes (such as height over gap)
-			for i := 0; i < n && !improved && budget > 0; i++ {
-				for j := i + 1; j < n && !improved && budget > 0; j++ {
-					if step[i] == 0 || step[j] == 0 {
-						continue
-					}
-					for _, di := range []float64{1, -1} {
-						for _, dj := range []float64{1, -1} {
-							if improved || budget <= 0 {
-								continue
-							}
-							y := append([]float64(nil), x...)
-							y[i] = snap(i, x[i]+di*step[i])
-							y[j] = snap(j, x[j]+dj*step[j])
-							if y[i] == x[i] || y[j] == x[j] {
-								continue
-							}
-							fy := eval(y)
-							budget--
-							if fy < fx {
-								x, fx, improved = y, fy, true
-							}
-						}
-					}
-				}
-			}
-			if improved {
-				continue
-			}
-			done := true
-			for i := range step {
-				if step[i] == 0 {
-					continue
-				}
-				if integer != nil && integer[i] {
-					if step[i] > 1 {
-						step[i] = math.Max(1, math.Round(step[i]/2))
-						done = false
-					}
-					continue
-				}
-				if step[i] > opt.Tol*(hi[i]-lo[i]) {
-					step[i] /= 2
-					done = false
-				}
-			}
-			if done {
+			fy := s.eval(y)
+			s.budget--
+			if fy < fx {
+				x, fx, improved = y, fy, true
 				break
 			}
 		}
-		if fx < best.F {
-			best = Result{X: x, F: fx}
+	}
+	return x, fx, improved
+}
+
+// diagonalMoves tries the four diagonal steps of each pair of variables,
+// stopping at the first that improves.
+func (s *search) diagonalMoves(x []float64, fx float64, step []float64) ([]float64, float64, bool) {
+	improved := false
+	for i := 0; i < s.n && !improved && s.budget > 0; i++ {
+		for j := i + 1; j < s.n && !improved && s.budget > 0; j++ {
+			if step[i] == 0 || step[j] == 0 {
+				continue
+			}
+			for _, di := range []float64{1, -1} {
+				for _, dj := range []float64{1, -1} {
+					if improved || s.budget <= 0 {
+						continue
+					}
+					y := append([]float64(nil), x...)
+					y[i] = s.snap(i, x[i]+di*step[i])
+					y[j] = s.snap(j, x[j]+dj*step[j])
+					if y[i] == x[i] || y[j] == x[j] {
+						continue
+					}
+					fy := s.eval(y)
+					s.budget--
+					if fy < fx {
+						x, fx, improved = y, fy, true
+					}
+				}
+			}
 		}
 	}
-	best.Evals = evals
-	return best
+	return x, fx, improved
+}
+
+// shrink halves the steps (integers down to 1) and reports whether all
+// are done.
+func (s *search) shrink(step []float64) bool {
+	done := true
+	for i := range step {
+		if step[i] == 0 {
+			continue
+		}
+		if s.isInt(i) {
+			if step[i] > 1 {
+				step[i] = math.Max(1, math.Round(step[i]/2))
+				done = false
+			}
+			continue
+		}
+		if step[i] > s.opt.Tol*(s.hi[i]-s.lo[i]) {
+			step[i] /= 2
+			done = false
+		}
+	}
+	return done
 }
