@@ -1,5 +1,3 @@
-// Package app is the finmarch command line: subcommands, flags, exit codes,
-// and the glue from design files through the physics to the output.
 package app
 
 import (
