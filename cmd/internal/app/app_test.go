@@ -55,7 +55,7 @@ func golden(t *testing.T, name, got string) {
 		t.Fatalf("%v (run go test ./cmd/internal/app -update to create it)", err)
 	}
 	if string(want) != got {
-		t.Errorf("%s differs from the golden file; if the change is intended, run go test ./cmd/internal/app -update and review the diff.\n--- got ---\n%s", name, got)
+		t.Errorf("%s differs from the golden file (- golden, + now); if the change is intended, run go test ./cmd/internal/app -update and review the diff.\n%s", name, lineDiff(string(want), got, 40))
 	}
 }
 
@@ -305,7 +305,7 @@ func TestReadmeExamples(t *testing.T) {
 		last = m[5]
 		norm := func(x string) string { return strings.TrimSpace(workersNote.ReplaceAllString(x, "on N workers")) }
 		if !*update && norm(out) != norm(block) {
-			t.Errorf("README example 'finmarch %s' is stale (go test ./cmd/internal/app -update rewrites it); it prints:\n%s", line, out)
+			t.Errorf("README example 'finmarch %s' is stale (go test ./cmd/internal/app -update rewrites it); - README, + now:\n%s", line, lineDiff(norm(block), norm(out), 40))
 		}
 	}
 	fixed.WriteString(s[last:])
