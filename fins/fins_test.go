@@ -6,6 +6,7 @@ import (
 	"math/rand/v2"
 	"os"
 	"strconv"
+	"strings"
 	"testing"
 
 	"finmarch/fins/validity"
@@ -660,5 +661,34 @@ func TestFittingAgreesWithGeometry(t *testing.T) {
 		if _, err := s.Geometry(); err == nil {
 			t.Fatalf("%+v: Geometry accepts one more fin than Fitting", s)
 		}
+	}
+}
+
+// Each profile's closed form and the same fin given to the general
+// solver (Single.Fin) agree to 1e-3 at 400 cells (the solver converges at
+// second order; TestSolverReproducesClosedForms holds it tighter at its
+// own fins), so the calculator's closed form and its check describe one
+// fin; and ParseProfile reads every listed name.
+func TestSingleProfiles(t *testing.T) {
+	for _, p := range Profiles {
+		q, err := ParseProfile(" " + strings.ToUpper(string(p)))
+		if err != nil || q != p {
+			t.Fatalf("ParseProfile(%q): %v %v", p, q, err)
+		}
+		f := Single{Profile: p, Height: 0.03, RootThickness: 0.004, TipThickness: 0.002, RootRadius: 0.05}
+		if p == Rectangular || p == AnnularProfile {
+			f.TipThickness = f.RootThickness
+		}
+		eta := f.Efficiency(60, 150, nil)
+		sol, err := Solve(f.Fin(), 150, Uniform(60), 100, SolveOptions{Cells: 400})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if math.Abs(sol.Efficiency-eta) > 1e-3 {
+			t.Errorf("%s: closed form %.5f, solver %.5f", p, eta, sol.Efficiency)
+		}
+	}
+	if _, err := ParseProfile("hexagonal"); err == nil {
+		t.Error("unknown profile accepted")
 	}
 }

@@ -162,27 +162,20 @@ func (s Set) FinEfficiency(g Geometry, h, k float64, log *validity.Log) float64 
 	if !(h > 0) {
 		return 1
 	}
-	r1 := s.RootDiameter / 2
-	r2 := r1 + s.Height
-	switch s.Style {
-	case StyleLongitudinal:
-		eta := StraightTrapezoidal(h, k, s.RootThickness, s.TipThickness, s.Height, log)
-		// StraightTrapezoidal is relative to (2H + tip) per metre; the
-		// end faces in FinAreaEach carry no conduction model and are
-		// counted as fully effective (they are a few per cent of the area).
-		model := (2*s.Height + s.TipThickness) * s.Length
+	f := s.Single()
+	eta := f.Efficiency(h, k, log)
+	switch f.Profile {
+	case Trapezoidal:
+		// the closed form is relative to (2H + tip) per metre; the end
+		// faces in FinAreaEach carry no conduction model and are counted
+		// as fully effective (they are a few per cent of the area)
+		model := f.Area() * s.Length
 		ends := g.FinAreaEach - model
 		return (eta*model + ends) / g.FinAreaEach
-	default:
-		if s.TipThickness == s.RootThickness {
-			t := s.RootThickness
-			eta := AnnularRectangular(h, k, t, r1, r2, log)
-			r2c := r2 + t/2
-			model := 2 * math.Pi * (r2c*r2c - r1*r1)
-			return eta * model / g.FinAreaEach
-		}
-		return AnnularTapered(h, k, s.RootThickness, s.TipThickness, r1, r2, log)
+	case AnnularProfile:
+		return eta * f.Area() / g.FinAreaEach
 	}
+	return eta
 }
 
 // SurfaceEfficiency is the overall surface efficiency of a finned surface,

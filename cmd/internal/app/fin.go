@@ -14,7 +14,13 @@ import (
 	"finmarch/materials"
 )
 
-var profiles = []string{"rectangular", "triangular", "trapezoidal", "annular", "annular-tapered"}
+var profiles = func() []string {
+	var out []string
+	for _, p := range fins.Profiles {
+		out = append(out, string(p))
+	}
+	return out
+}()
 
 func (e *env) finCmd() *cobra.Command {
 	var profile, height, root, tip, dia, alloy, k, h, wall, air string
@@ -119,42 +125,19 @@ func (e *env) fin(in finInput) error {
 	if in.t1 > in.t0 {
 		return fail(ExitUsage, fmt.Errorf("--tip-thickness %s %s is thicker than the root %s %s", output.Num(u.Of(output.Len, in.t1), 2), u.Name(output.Len), output.Num(u.Of(output.Len, in.t0), 2), u.Name(output.Len)))
 	}
-	annular := strings.HasPrefix(in.profile, "annular")
+	prof, err := fins.ParseProfile(in.profile)
+	if err != nil {
+		return fail(ExitUsage, fmt.Errorf("--%v", err))
+	}
+	annular := prof.Annular()
 	if annular && !(in.d > 0) {
 		return fail(ExitUsage, fmt.Errorf("--root-diameter is required for %s fins", in.profile))
 	}
-	r1 := in.d / 2
-	r2 := r1 + in.L
-	var eta, area float64
-	var fin fins.Fin
-	lin := func(a, b float64) func(float64) float64 { return func(s float64) float64 { return a + (b-a)*s/in.L } }
+	one := fins.Single{Profile: prof, Height: in.L, RootThickness: in.t0, TipThickness: in.t1, RootRadius: in.d / 2}
+	eta, area, fin := one.Efficiency(in.h, in.k, &log), one.Area(), one.Fin()
 	per := "per metre of width"
-	switch in.profile {
-	case "rectangular":
-		eta = fins.StraightRectangular(in.h, in.k, in.t0, in.L, &log)
-		area = 2 * (in.L + in.t0/2)
-		fin = fins.Fin{Shape: fins.Straight, Length: in.L + in.t0/2, Thickness: lin(in.t0, in.t0)}
-	case "triangular":
-		eta = fins.StraightTriangular(in.h, in.k, in.t0, in.L, &log)
-		area = 2 * in.L
-		fin = fins.Fin{Shape: fins.Straight, Length: in.L, Thickness: lin(in.t0, 0)}
-	case "trapezoidal":
-		eta = fins.StraightTrapezoidal(in.h, in.k, in.t0, in.t1, in.L, &log)
-		area = 2*in.L + in.t1
-		fin = fins.Fin{Shape: fins.Straight, Length: in.L, Thickness: lin(in.t0, in.t1), Tip: fins.ConvectiveTip}
-	case "annular":
-		eta = fins.AnnularRectangular(in.h, in.k, in.t0, r1, r2, &log)
-		r2c := r2 + in.t0/2
-		area = 2 * math.Pi * (r2c*r2c - r1*r1)
-		fin = fins.Fin{Shape: fins.Annular, RootRadius: r1, Length: in.L + in.t0/2, Thickness: lin(in.t0, in.t0)}
+	if annular {
 		per = "per fin"
-	case "annular-tapered":
-		eta = fins.AnnularTapered(in.h, in.k, in.t0, in.t1, r1, r2, &log)
-		area = 2*math.Pi*(r2*r2-r1*r1) + 2*math.Pi*r2*in.t1
-		fin = fins.Fin{Shape: fins.Annular, RootRadius: r1, Length: in.L, Thickness: lin(in.t0, in.t1), Tip: fins.ConvectiveTip}
-		per = "per fin"
-	default:
-		return fail(ExitUsage, fmt.Errorf("--profile %q: use %s", in.profile, strings.Join(profiles, ", ")))
 	}
 	sol, err := fins.Solve(fin, in.k, fins.Uniform(in.h), in.tw-in.ta, fins.SolveOptions{Cells: 400})
 	if err != nil {
