@@ -45,46 +45,6 @@ network: no scripts, no external fonts or images.`,
 	}
 }
 
-type htmlTable struct {
-	Title  string
-	Header []string
-	Rows   [][]string
-	Left   int
-}
-
-type htmlDesign struct {
-	Name, Source string
-	Inputs       htmlTable
-	Results      []htmlTable
-	Notes        []string
-	Defaults     []string
-}
-
-type htmlFigure struct {
-	SVG     template.HTML
-	Caption string
-}
-
-type reportData struct {
-	Title    string
-	Caution  string
-	Compare  []htmlTable
-	Explain  []string
-	Figures  []htmlFigure
-	Designs  []htmlDesign
-	Warnings []string
-	Sources  []string
-	Units    string
-}
-
-func tables(gs []output.Grid) []htmlTable {
-	var out []htmlTable
-	for _, g := range gs {
-		out = append(out, htmlTable{Title: g.Title, Header: g.Header, Rows: g.Rows, Left: g.Left})
-	}
-	return out
-}
-
 var svgStart = regexp.MustCompile(`(?s)^.*?<svg `)
 var svgSize = regexp.MustCompile(`^<svg width="[^"]*" height="[^"]*"`)
 
@@ -104,12 +64,12 @@ func inlineSVG(f *plots.Figure) (template.HTML, error) {
 }
 
 // inputTable lists what the design file gave, in display units.
-func inputTable(d *design.Design, u output.Units) htmlTable {
+func inputTable(d *design.Design, u output.Units) output.Grid {
 	c := d.Case
 	L := func(v float64) string {
 		return output.Num(u.Of(output.Len, v), u.Dec(output.Len)) + " " + u.Name(output.Len)
 	}
-	t := htmlTable{Title: "Inputs", Header: []string{"quantity", "head", "barrel"}, Left: 1}
+	t := output.Grid{Title: "Inputs", Header: []string{"quantity", "head", "barrel"}, Left: 1}
 	add := func(q, h, b string) { t.Rows = append(t.Rows, []string{q, h, b}) }
 	hs, bs := c.Head.Set, c.Barrel.Set
 	add("fin style", hs.Style.String(), bs.Style.String())
@@ -150,74 +110,6 @@ var modelSources = []string{
 	"Orientation: annular fins take V cos(tilt) on half-circumference paths fed with ambient air; longitudinal fins take V sin(tilt), head then barrel in series; broadside air is assumed to add nothing.",
 }
 
-const reportHTML = `<!doctype html>
-<html lang="en">
-<head>
-<meta charset="utf-8">
-<meta name="viewport" content="width=device-width, initial-scale=1">
-<title>finmarch report: {{.Title}}</title>
-<style>
-body { font-family: system-ui, sans-serif; margin: 2rem auto; max-width: 70rem; padding: 0 1rem; color: #1b1b1b; line-height: 1.45; }
-h1 { font-size: 1.6rem; margin-bottom: .3rem; }
-h2 { font-size: 1.25rem; border-bottom: 2px solid #1f4e9c; padding-bottom: .2rem; margin-top: 2.2rem; }
-h3 { font-size: 1.05rem; margin-top: 1.4rem; }
-.caution { background: #fff4e5; border-left: 5px solid #c2410c; padding: .7rem 1rem; font-weight: 600; }
-table { border-collapse: collapse; margin: .6rem 0 1rem; font-size: .9rem; }
-th, td { border: 1px solid #c8c8c8; padding: .25rem .55rem; }
-th { background: #eef2f8; text-align: center; }
-td.n { text-align: right; font-variant-numeric: tabular-nums; }
-td.l { text-align: left; }
-figure { margin: 1rem 0 2rem; }
-figcaption { font-size: .9rem; color: #444; }
-.warn li { color: #8a2c00; }
-.note { font-size: .92rem; }
-footer { margin-top: 3rem; font-size: .85rem; color: #555; }
-</style>
-</head>
-<body>
-<header>
-<h1>{{.Title}}</h1>
-<p class="caution" id="caution">{{.Caution}}</p>
-<p class="note">Units: {{.Units}}. Wall temperatures are the metal at the fin roots; the combustion-side surface and the spark-plug seat run hotter.</p>
-</header>
-{{define "table"}}{{if .Title}}<h3>{{.Title}}</h3>{{end}}
-<table>
-<thead><tr>{{range .Header}}<th>{{.}}</th>{{end}}</tr></thead>
-<tbody>{{$left := .Left}}{{range .Rows}}<tr>{{range $i, $c := .}}<td class="{{if lt $i $left}}l{{else}}n{{end}}">{{$c}}</td>{{end}}</tr>
-{{end}}</tbody>
-</table>{{end}}
-{{if .Compare}}<section id="comparison">
-<h2>Comparison</h2>
-{{range .Compare}}{{template "table" .}}{{end}}
-{{range .Explain}}<p class="note">{{.}}</p>{{end}}
-</section>{{end}}
-<section id="figures">
-<h2>Figures</h2>
-{{range .Figures}}<figure>{{.SVG}}<figcaption>{{.Caption}}</figcaption></figure>
-{{end}}</section>
-{{range .Designs}}<section class="design">
-<h2>{{.Name}}</h2>
-<p class="note">Design file: {{.Source}}</p>
-{{template "table" .Inputs}}
-{{range .Results}}{{template "table" .}}{{end}}
-{{range .Notes}}<p class="note">{{.}}</p>{{end}}
-{{if .Defaults}}<h3>Defaults applied</h3><ul class="note">{{range .Defaults}}<li>{{.}}</li>{{end}}</ul>{{end}}
-</section>
-{{end}}<section id="warnings">
-<h2>Warnings</h2>
-{{if .Warnings}}<ul class="warn">{{range .Warnings}}<li>{{.}}</li>{{end}}</ul>{{else}}<p>No correlation was used outside its stated range.</p>{{end}}
-</section>
-<section id="sources">
-<h2>Model and sources</h2>
-<ul class="note">{{range .Sources}}<li>{{.}}</li>{{end}}</ul>
-</section>
-<footer><p>{{.Caution}}</p><p>Written by finmarch.</p></footer>
-</body>
-</html>
-`
-
-var reportTmpl = template.Must(template.New("report").Parse(reportHTML))
-
 func (e *env) report(ds []*design.Design) ([]byte, error) {
 	_, u, err := e.settings()
 	if err != nil {
@@ -227,14 +119,14 @@ func (e *env) report(ds []*design.Design) ([]byte, error) {
 	for i, d := range ds {
 		names[i] = d.Name
 	}
-	data := reportData{Title: strings.Join(names, " / "), Caution: output.Caution, Sources: modelSources, Units: map[bool]string{true: "US", false: "metric"}[u.US]}
+	data := output.Report{Title: strings.Join(names, " / "), Caution: output.Caution, Sources: modelSources, Units: map[bool]string{true: "US", false: "metric"}[u.US]}
 	var warns [][]string
 	if len(ds) > 1 {
 		cd, err := e.compareDoc(ds, "")
 		if err != nil {
 			return nil, err
 		}
-		data.Compare = tables(cd.Grids)
+		data.Compare = cd.Grids
 		for _, n := range cd.Notes {
 			if strings.Contains(n, " against ") || strings.Contains(n, "NO EQUILIBRIUM") {
 				data.Explain = append(data.Explain, n)
@@ -247,7 +139,7 @@ func (e *env) report(ds []*design.Design) ([]byte, error) {
 		if err != nil {
 			return nil, err
 		}
-		hd := htmlDesign{Name: d.Name, Source: d.Source, Inputs: inputTable(d, u), Results: tables(doc.Grids), Notes: doc.Notes, Defaults: d.Defaults}
+		hd := output.ReportDesign{Name: d.Name, Source: d.Source, Inputs: inputTable(d, u), Results: doc.Grids, Notes: doc.Notes, Defaults: d.Defaults}
 		if o.NoEquilibrium != nil {
 			hd.Notes = append(hd.Notes, "NO EQUILIBRIUM: "+o.NoEquilibrium.Error())
 		}
@@ -271,17 +163,17 @@ func (e *env) report(ds []*design.Design) ([]byte, error) {
 	for _, f := range figs {
 		fig, err := f.make()
 		if err != nil {
-			data.Figures = append(data.Figures, htmlFigure{Caption: "Figure not drawn: " + err.Error()})
+			data.Figures = append(data.Figures, output.Figure{Caption: "Figure not drawn: " + err.Error()})
 			continue
 		}
 		svg, err := inlineSVG(fig)
 		if err != nil {
 			return nil, fail(ExitInternal, err)
 		}
-		data.Figures = append(data.Figures, htmlFigure{SVG: svg, Caption: f.caption})
+		data.Figures = append(data.Figures, output.Figure{SVG: svg, Caption: f.caption})
 	}
 	var b bytes.Buffer
-	if err := reportTmpl.Execute(&b, data); err != nil {
+	if err := output.WriteHTML(&b, data); err != nil {
 		return nil, fail(ExitInternal, fmt.Errorf("report: %w", err))
 	}
 	return b.Bytes(), nil

@@ -1,0 +1,108 @@
+package output
+
+import (
+	"html/template"
+	"io"
+)
+
+// Report is an HTML report: one self-contained page of designs, their
+// comparison, figures as inline SVG, warnings, sources and the caution.
+type Report struct {
+	Title    string
+	Caution  string
+	Units    string // "metric" or "US"
+	Compare  []Grid
+	Explain  []string
+	Figures  []Figure
+	Designs  []ReportDesign
+	Warnings []string
+	Sources  []string
+}
+
+// Figure is an inline SVG figure with its caption; SVG must come from a
+// renderer that escapes its text (the caller checks it holds no script).
+type Figure struct {
+	SVG     template.HTML
+	Caption string
+}
+
+// ReportDesign is one design's section: its inputs and result tables.
+type ReportDesign struct {
+	Name, Source string
+	Inputs       Grid
+	Results      []Grid
+	Notes        []string
+	Defaults     []string
+}
+
+// WriteHTML renders the report with html/template, which escapes every
+// text (a design name holding markup shows as text).
+func WriteHTML(w io.Writer, r Report) error { return reportTmpl.Execute(w, r) }
+
+const reportHTML = `<!doctype html>
+<html lang="en">
+<head>
+<meta charset="utf-8">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<title>finmarch report: {{.Title}}</title>
+<style>
+body { font-family: system-ui, sans-serif; margin: 2rem auto; max-width: 70rem; padding: 0 1rem; color: #1b1b1b; line-height: 1.45; }
+h1 { font-size: 1.6rem; margin-bottom: .3rem; }
+h2 { font-size: 1.25rem; border-bottom: 2px solid #1f4e9c; padding-bottom: .2rem; margin-top: 2.2rem; }
+h3 { font-size: 1.05rem; margin-top: 1.4rem; }
+.caution { background: #fff4e5; border-left: 5px solid #c2410c; padding: .7rem 1rem; font-weight: 600; }
+table { border-collapse: collapse; margin: .6rem 0 1rem; font-size: .9rem; }
+th, td { border: 1px solid #c8c8c8; padding: .25rem .55rem; }
+th { background: #eef2f8; text-align: center; }
+td.n { text-align: right; font-variant-numeric: tabular-nums; }
+td.l { text-align: left; }
+figure { margin: 1rem 0 2rem; }
+figcaption { font-size: .9rem; color: #444; }
+.warn li { color: #8a2c00; }
+.note { font-size: .92rem; }
+footer { margin-top: 3rem; font-size: .85rem; color: #555; }
+</style>
+</head>
+<body>
+<header>
+<h1>{{.Title}}</h1>
+<p class="caution" id="caution">{{.Caution}}</p>
+<p class="note">Units: {{.Units}}. Wall temperatures are the metal at the fin roots; the combustion-side surface and the spark-plug seat run hotter.</p>
+</header>
+{{define "table"}}{{if .Title}}<h3>{{.Title}}</h3>{{end}}
+<table>
+<thead><tr>{{range .Header}}<th>{{.}}</th>{{end}}</tr></thead>
+<tbody>{{$left := .Left}}{{range .Rows}}<tr>{{range $i, $c := .}}<td class="{{if lt $i $left}}l{{else}}n{{end}}">{{$c}}</td>{{end}}</tr>
+{{end}}</tbody>
+</table>{{end}}
+{{if .Compare}}<section id="comparison">
+<h2>Comparison</h2>
+{{range .Compare}}{{template "table" .}}{{end}}
+{{range .Explain}}<p class="note">{{.}}</p>{{end}}
+</section>{{end}}
+<section id="figures">
+<h2>Figures</h2>
+{{range .Figures}}<figure>{{.SVG}}<figcaption>{{.Caption}}</figcaption></figure>
+{{end}}</section>
+{{range .Designs}}<section class="design">
+<h2>{{.Name}}</h2>
+<p class="note">Design file: {{.Source}}</p>
+{{template "table" .Inputs}}
+{{range .Results}}{{template "table" .}}{{end}}
+{{range .Notes}}<p class="note">{{.}}</p>{{end}}
+{{if .Defaults}}<h3>Defaults applied</h3><ul class="note">{{range .Defaults}}<li>{{.}}</li>{{end}}</ul>{{end}}
+</section>
+{{end}}<section id="warnings">
+<h2>Warnings</h2>
+{{if .Warnings}}<ul class="warn">{{range .Warnings}}<li>{{.}}</li>{{end}}</ul>{{else}}<p>No correlation was used outside its stated range.</p>{{end}}
+</section>
+<section id="sources">
+<h2>Model and sources</h2>
+<ul class="note">{{range .Sources}}<li>{{.}}</li>{{end}}</ul>
+</section>
+<footer><p>{{.Caution}}</p><p>Written by finmarch.</p></footer>
+</body>
+</html>
+`
+
+var reportTmpl = template.Must(template.New("report").Parse(reportHTML))
