@@ -162,7 +162,7 @@ func setStatus(err error, r cylinder.SetResult, margin float64) string {
 		return "NO EQUILIBRIUM"
 	case margin < 0:
 		return "OVER LIMIT"
-	case margin < 15:
+	case margin < cylinder.MarginalBand:
 		return "marginal"
 	}
 	return "ok"

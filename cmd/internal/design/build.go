@@ -17,16 +17,30 @@ import (
 // builder turns a decoded design file into a Design: every range check
 // and rule in the file's order, each error through add with its key.
 type builder struct {
-	f      *File
-	md     toml.MetaData
-	d      *Design
-	add    func(key, format string, a ...any)
-	checks []rangeCheck
+	f   *File
+	md  toml.MetaData
+	d   *Design
+	add func(key, format string, a ...any)
+	// the queued range checks, in a fixed array so that a builder on the
+	// stack allocates nothing for them (a design has about 40); more
+	// spill to a slice
+	checks [64]rangeCheck
+	n      int
+	spill  []rangeCheck
+}
+
+func (b *builder) queue(r rangeCheck) {
+	if b.n < len(b.checks) {
+		b.checks[b.n] = r
+		b.n++
+		return
+	}
+	b.spill = append(b.spill, r)
 }
 
 // need reads a required quantity and queues its range check.
 func (b *builder) need(key string, q rawQ, set bool, lo, hi float64, unit string, scale, offset float64) float64 {
-	b.checks = append(b.checks, rangeCheck{key: key, v: q.Or(math.NaN()), lo: lo, hi: hi, unit: unit, scale: scale, offset: offset, set: set, bare: q.IsBare()})
+	b.queue(rangeCheck{key: key, v: q.Or(math.NaN()), lo: lo, hi: hi, unit: unit, scale: scale, offset: offset, set: set, bare: q.IsBare()})
 	return q.Or(math.NaN())
 }
 
@@ -37,7 +51,7 @@ func (b *builder) opt(key string, q rawQ, set bool, dflt, lo, hi float64, unit s
 		b.def(key, why)
 		return dflt
 	}
-	b.checks = append(b.checks, rangeCheck{key: key, v: q.Or(dflt), lo: lo, hi: hi, unit: unit, scale: scale, offset: offset, set: true, bare: q.IsBare()})
+	b.queue(rangeCheck{key: key, v: q.Or(dflt), lo: lo, hi: hi, unit: unit, scale: scale, offset: offset, set: true, bare: q.IsBare()})
 	return q.Or(dflt)
 }
 
@@ -53,7 +67,7 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 		d.Name = strings.TrimSuffix(baseName(name), ".toml")
 		d.Defaults = append(d.Defaults, "name: taken from the file name")
 	}
-	b := &builder{f: f, md: md, d: d, add: add, checks: make([]rangeCheck, 0, 48)}
+	b := &builder{f: f, md: md, d: d, add: add}
 	b.cylinder()
 	b.air()
 	b.load()
@@ -268,7 +282,7 @@ func (b *builder) limits() {
 
 // ranges reports every queued range check that failed.
 func (b *builder) ranges() {
-	checks := b.checks
+	checks := append(b.checks[:b.n:b.n], b.spill...)
 	for _, r := range checks {
 		switch {
 		case !r.set:
