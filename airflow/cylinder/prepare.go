@@ -18,7 +18,7 @@ const (
 // setState is one fin set as the estimate sees it: its geometry, its
 // efficiency curve, the air path and the mass flow through it.
 type setState struct {
-	fs   FinSet
+	fs   *FinSet // the case's own
 	g    fins.Geometry
 	cv   *fins.Curve // fin efficiency against h/k, filled as the march needs it
 	pt   Path
@@ -55,7 +55,7 @@ func (c Case) prepare(s Settings, log *validity.Log) (*prepared, error) {
 		p.passage = airflow.DevelopingPlates{}
 	}
 	p.n = p.set.Segments
-	for i, fs := range []FinSet{c.Head, c.Barrel} {
+	for i, fs := range []*FinSet{&p.c.Head, &p.c.Barrel} {
 		st := &p.sets[i]
 		st.fs = fs
 		var err error
