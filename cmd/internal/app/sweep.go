@@ -245,7 +245,7 @@ func (e *env) sweep(d *design.Design, axes sweep.Grid, total, workers, top int, 
 	sum := sweep.NewSummary(top)
 	sweep.Run(axes, workers, builder(d, axes, !keepCount), func(r sweep.Row) {
 		sum.Add(r)
-		st.Row(sweepCells(r, axes, u), func() map[string]any { return sweepJSON(r, axes) })
+		st.Row(func() []string { return sweepCells(r, axes, u) }, func() map[string]any { return sweepJSON(r, axes) })
 		if bar != nil {
 			_ = bar.Add(1)
 		}

@@ -27,15 +27,16 @@ func NewStream(w io.Writer, f Format, header []string) *Stream {
 	return s
 }
 
-// Row writes one row: cells for CSV, obj for JSON lines. After the first
-// error it writes nothing more; Close reports it.
-func (s *Stream) Row(cells []string, obj func() map[string]any) {
+// Row writes one row: cells for CSV, obj for JSON lines (each built only
+// for its format). After the first error it writes nothing more; Close
+// reports it.
+func (s *Stream) Row(cells func() []string, obj func() map[string]any) {
 	if s.err != nil {
 		return
 	}
 	switch s.f {
 	case CSV:
-		s.err = s.cw.Write(cells)
+		s.err = s.cw.Write(cells())
 	case JSON:
 		var b []byte
 		if b, s.err = json.Marshal(obj()); s.err == nil {
