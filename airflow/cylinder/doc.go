@@ -25,8 +25,8 @@
 //     the change of passage area between head and barrel is added
 //     (Borda-Carnot expansion, Idelchik's contraction).
 //  3. The march (march.go). Each path is cut into Settings.Segments
-//     segments graded as L (i/N)^2. In each, film properties (air.go:
-//     Sutherland, the Cengel cp cubic) at the mean of wall and air, the
+//     segments graded as L (i/N)^2. In each, film properties
+//     (airflow.Transport: Sutherland, the Cengel cp cubic) at the mean of wall and air, the
 //     segment-mean h as d(x h_m)/dx of the passage model's mean Nusselt
 //     number (Stephan laminar, Gnielinski turbulent, Gnielinski's linear
 //     blend in transition; airflow.DevelopingPlates), the fin efficiency at
@@ -46,6 +46,10 @@
 //  6. Results (result.go): per set, the wall temperature, the heats by
 //     mode, mean h, efficiencies, passage velocity and, unless
 //     Settings.TotalsOnly, the segment-by-segment march.
+//  7. The verdict (outcome.go): Design bundles a case with its load,
+//     limits and any fixed walls; Design.Evaluate gives an Outcome with
+//     the margins to the limits and a Status (ok, marginal within
+//     MarginalBand, over limit, no equilibrium).
 //
 // The heat load comes from Load (load.go): given directly, or the road
 // load at cruise (Gillespie 1992) through driveline and thermal
