@@ -4,36 +4,16 @@ import (
 	"math"
 	"testing"
 
-	"finmarch/airflow"
-	"finmarch/airflow/cylinder"
+	"finmarch/airflow/internal/demotest"
 	"finmarch/fins"
-	"finmarch/materials"
 )
-
-// demo is the upright demo single (an invented scenario) with its cruise
-// heat given directly.
-func demo(t *testing.T) cylinder.Design {
-	al, err := materials.Lookup("A356-T6")
-	if err != nil {
-		t.Fatal(err)
-	}
-	return cylinder.Design{
-		Case: cylinder.Case{Speed: 25, Ambient: 308.15, Pressure: airflow.ISA(0, nil).P,
-			Head: cylinder.FinSet{Name: "head", Alloy: al, Emissivity: 0.2, Set: fins.Set{Style: fins.StyleAnnular, Count: 8, Pitch: 0.009,
-				Height: 0.040, RootThickness: 0.004, TipThickness: 0.002, RootDiameter: 0.12, Length: 0.072}},
-			Barrel: cylinder.FinSet{Name: "barrel", Alloy: al, Emissivity: 0.9, Set: fins.Set{Style: fins.StyleAnnular, Count: 12, Pitch: 0.009,
-				Height: 0.030, RootThickness: 0.0035, TipThickness: 0.0018, RootDiameter: 0.092, Length: 0.108}}},
-		Load:   cylinder.Load{Direct: true, Given: cylinder.HeatLoad{Head: 2681, Barrel: 1443}},
-		Limits: cylinder.Limits{Head: 493.15, Barrel: 493.15},
-	}
-}
 
 // Solve keeps every casting limit and bound, and its optimum is no worse
 // than the best point of a 9-level grid over the same free variables
 // (pitch, height, root thickness; tip and count held) with the same
 // limits: the coolest head, and the lightest head fins at or below 205 C.
 func TestSolveAgainstGrid(t *testing.T) {
-	d := demo(t)
+	d := demotest.Upright(t)
 	proc, _ := fins.LookupProcess("permanent-mould")
 	vars := DefaultVars(d.Case.Head.Set, proc)
 	vars[0].Lo, vars[0].Hi = 0.008, 0.012
@@ -96,7 +76,7 @@ func TestSolveAgainstGrid(t *testing.T) {
 // A limit no design can hold is reported as not found, with the coolest
 // feasible design evaluated as how close the search came.
 func TestSolveUnreachable(t *testing.T) {
-	d := demo(t)
+	d := demotest.Upright(t)
 	proc, _ := fins.LookupProcess("sand")
 	vars := DefaultVars(d.Case.Head.Set, proc)
 	FitCount(vars, d.Case.Head.Set)

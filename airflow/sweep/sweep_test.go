@@ -6,29 +6,9 @@ import (
 	"sort"
 	"testing"
 
-	"finmarch/airflow"
 	"finmarch/airflow/cylinder"
-	"finmarch/fins"
-	"finmarch/materials"
+	"finmarch/airflow/internal/demotest"
 )
-
-// base is the upright demo single (an invented scenario) with its cruise
-// heat given directly.
-func base(t *testing.T) cylinder.Design {
-	al, err := materials.Lookup("A356-T6")
-	if err != nil {
-		t.Fatal(err)
-	}
-	return cylinder.Design{
-		Case: cylinder.Case{Speed: 25, Ambient: 308.15, Pressure: airflow.ISA(0, nil).P,
-			Head: cylinder.FinSet{Name: "head", Alloy: al, Emissivity: 0.2, Set: fins.Set{Style: fins.StyleAnnular, Count: 8, Pitch: 0.009,
-				Height: 0.040, RootThickness: 0.004, TipThickness: 0.002, RootDiameter: 0.12, Length: 0.072}},
-			Barrel: cylinder.FinSet{Name: "barrel", Alloy: al, Emissivity: 0.9, Set: fins.Set{Style: fins.StyleAnnular, Count: 12, Pitch: 0.009,
-				Height: 0.030, RootThickness: 0.0035, TipThickness: 0.0018, RootDiameter: 0.092, Length: 0.108}}},
-		Load:   cylinder.Load{Direct: true, Given: cylinder.HeatLoad{Head: 2681, Barrel: 1443}},
-		Limits: cylinder.Limits{Head: 493.15, Barrel: 493.15},
-	}
-}
 
 // A library user's builder: head pitch (with as many fins as fit) and road
 // speed changed on the case directly; a pitch at or below the root
@@ -53,7 +33,7 @@ func pitchSpeed(d cylinder.Design) func() Builder {
 // fastest), the same rows on one worker and on two, each row the
 // estimator's own outcome for that design, and invalid points marked.
 func TestRun(t *testing.T) {
-	d := base(t)
+	d := demotest.Upright(t)
 	g := Grid{{Key: "head.pitch", Values: []float64{0.003, 0.007, 0.009, 0.012}}, {Key: "air.speed", Values: []float64{15, 30}}}
 	if g.Size() != 8 {
 		t.Fatalf("size %d", g.Size())
@@ -96,7 +76,7 @@ func TestRun(t *testing.T) {
 // and its best lists hold the least keys in order (checked against a sort
 // of all rows).
 func TestSummary(t *testing.T) {
-	d := base(t)
+	d := demotest.Upright(t)
 	var pitches []float64
 	for p := 0.002; p < 0.016; p += 0.0005 {
 		pitches = append(pitches, p)
