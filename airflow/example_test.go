@@ -25,5 +25,5 @@ func ExampleChannel() {
 	}
 	// Output:
 	// Re  1500: laminar, Nu 10.5, f_app 0.0310
-	// Re 20000: turbulent, Nu 62.4, f_app 0.0234
+	// Re 20000: turbulent, Nu 64.4, f_app 0.0064
 }

@@ -16,9 +16,6 @@ const (
 	ReTurbulent = 1.0e4
 )
 
-// fTurb is the Petukhov factor at the turbulent end of transition.
-var fTurb = PetukhovFriction(ReTurbulent, nil)
-
 // ParallelPlatesNu returns the mean Nusselt number Nu = h Dh / k (Dh = 2 s,
 // s the plate spacing) for simultaneously developing laminar flow between
 // isothermal parallel plates, by Stephan's correlation as quoted in Shah &
@@ -53,40 +50,66 @@ func ParallelPlatesFriction(re, xPlus float64, log *validity.Log) float64 {
 	return (r + (24+0.674/(4*xPlus)-r)/(1+0.000029/(xPlus*xPlus))) / re
 }
 
+// KonakovFriction returns the Darcy friction factor of a smooth tube in
+// fully turbulent flow, xi = (1.8 log10 Re - 1.5)^-2 (Konakov 1946, as the
+// VDI Heat Atlas, 2nd ed. 2010, Sec. G1, Eq. 28 gives it for Gnielinski's
+// equation; from memory). Valid 1e4 <= Re <= 1e6.
+func KonakovFriction(re float64, log *validity.Log) float64 {
+	log.Check("Konakov friction factor", "Reynolds number", re, ReTurbulent, 1e6)
+	v := 1.8*math.Log10(re) - 1.5
+	return 1 / (v * v)
+}
+
+// GnielinskiNu returns the mean Nusselt number of fully turbulent flow in a
+// duct of hydraulic diameter Dh and length L, Gnielinski's equation in the
+// form of the VDI Heat Atlas (2nd ed. 2010, Sec. G1, Eqs. 27-28; from
+// memory):
+//
+//	Nu = (xi/8) Re Pr / (1 + 12.7 sqrt(xi/8) (Pr^(2/3) - 1)) * (1 + (Dh/L)^(2/3)),
+//
+// with xi the Konakov factor (KonakovFriction); the last factor is the
+// entrance correction for a developing flow. Constant properties: see
+// GasHeatingFactor for a heated gas. Valid 1e4 <= Re <= 1e6, 0.1 <= Pr <=
+// 1000, Dh/L <= 1. dhOverL is dimensionless (0 for a fully developed flow).
+// The 1976 form with (Re - 1000) and Petukhov's factor (Gnielinski, Int.
+// Chem. Eng. 16, 1976) is about 8 % lower at Re = 1e4; the Atlas form is
+// the one whose transition blend (Eq. 30) the channel model uses.
+func GnielinskiNu(re, pr, dhOverL float64, log *validity.Log) float64 {
+	log.Check("Gnielinski turbulent duct flow (VDI Heat Atlas G1)", "Reynolds number", re, ReTurbulent, 1e6)
+	log.Check("Gnielinski turbulent duct flow (VDI Heat Atlas G1)", "Prandtl number", pr, 0.1, 1000)
+	log.Check("Gnielinski turbulent duct flow (VDI Heat Atlas G1)", "Dh/L", dhOverL, 0, 1)
+	f8 := KonakovFriction(re, nil) / 8
+	c := math.Cbrt(pr)
+	nu := f8 * re * pr / (1 + 12.7*math.Sqrt(f8)*(c*c-1))
+	d := math.Cbrt(dhOverL)
+	return nu * (1 + d*d)
+}
+
+// GasHeatingFactor returns the factor on a turbulent Nusselt number for a
+// gas heated by the wall, K = (T_b/T_w)^0.45 with T_b the bulk and T_w the
+// wall temperature (K), so that the correlation is evaluated at bulk
+// properties (Gnielinski, VDI Heat Atlas 2010, Sec. G1, Eq. 35, for 0.5 <
+// T_b/T_w < 1; from memory). Laminar gas flows take no correction (Kays &
+// Crawford, Convective Heat and Mass Transfer, 3rd ed. 1993, Sec. 14,
+// temperature-ratio exponent n = 0 for laminar heating; from memory). A
+// cooled gas (T_w < T_b) takes 1.
+func GasHeatingFactor(tb, tw float64, log *validity.Log) float64 {
+	if !(tw > tb) || !(tb > 0) {
+		return 1
+	}
+	r := tb / tw
+	log.Check("gas heating factor (VDI Heat Atlas G1)", "Tb/Tw", r, 0.5, 1)
+	return math.Exp(0.45 * math.Log(r))
+}
+
 // PetukhovFriction returns the Darcy friction factor of a smooth duct in
 // turbulent flow, f = (0.790 ln Re - 1.64)^-2 (Petukhov 1970; Incropera et
-// al. 6th ed. Eq. 8.21). Valid 3000 <= Re <= 5e6.
+// al. 6th ed. Eq. 8.21). Valid 3000 <= Re <= 5e6. A cross-check of
+// KonakovFriction (TestKonakovAgainstPetukhov); the estimator uses Konakov.
 func PetukhovFriction(re float64, log *validity.Log) float64 {
 	log.Check("Petukhov friction factor", "Reynolds number", re, 3000, 5e6)
 	v := 0.790*math.Log(re) - 1.64
 	return 1 / (v * v)
-}
-
-// GnielinskiNu returns the mean Nusselt number of turbulent flow in a duct
-// of hydraulic diameter Dh and length L:
-//
-//	Nu = (f/8)(Re - 1000) Pr / (1 + 12.7 sqrt(f/8) (Pr^(2/3) - 1)) * (1 + (Dh/L)^(2/3)),
-//
-// with f the Petukhov Darcy factor; the last factor is Gnielinski's
-// entrance correction for a developing flow (Gnielinski, Int. Chem. Eng. 16,
-// 1976; Incropera et al. 6th ed. Eq. 8.62; VDI Heat Atlas 2010, G1 Eq. 28).
-// Valid 3000 <= Re <= 5e6, 0.5 <= Pr <= 2000, Dh/L <= 1. dhOverL is
-// dimensionless (pass 0 for a fully developed flow).
-func GnielinskiNu(re, pr, dhOverL float64, log *validity.Log) float64 {
-	log.Check("Gnielinski turbulent duct flow", "Reynolds number", re, 3000, 5e6)
-	log.Check("Gnielinski turbulent duct flow", "Prandtl number", pr, 0.5, 2000)
-	log.Check("Gnielinski turbulent duct flow", "Dh/L", dhOverL, 0, 1)
-	var f float64
-	if re == ReTurbulent {
-		f = fTurb // the transition blend's fixed end
-	} else {
-		f = PetukhovFriction(math.Max(re, 3000), nil)
-	}
-	f8 := f / 8
-	c := math.Cbrt(pr)
-	nu := f8 * (re - 1000) * pr / (1 + 12.7*math.Sqrt(f8)*(c*c-1))
-	d := math.Cbrt(dhOverL)
-	return nu * (1 + d*d)
 }
 
 // ChannelFlow is the heat-transfer and friction state of flow through a fin
@@ -99,10 +122,10 @@ type ChannelFlow struct {
 
 // Channel returns the mean Nusselt number and apparent friction factor of a
 // passage of hydraulic diameter Dh = 2 s and length L at Reynolds number Re
-// (based on Dh) and Prandtl number Pr: ChannelNu and ChannelFriction.
-// lOverDh is L/Dh.
+// (based on Dh) and Prandtl number Pr: ChannelNu (constant properties) and
+// ChannelFriction. lOverDh is L/Dh.
 func Channel(re, pr, lOverDh float64, log *validity.Log) ChannelFlow {
-	nu, regime := ChannelNu(re, pr, lOverDh, log)
+	nu, regime := ChannelNu(re, pr, lOverDh, 1, log)
 	return ChannelFlow{Nu: nu, Fapp: ChannelFriction(re, lOverDh, log), Regime: regime}
 }
 
@@ -113,43 +136,46 @@ func Channel(re, pr, lOverDh float64, log *validity.Log) ChannelFlow {
 // the Nusselt number and the friction factor alike.
 func blend(re float64) float64 { return (re - ReLaminar) / (ReTurbulent - ReLaminar) }
 
-// ChannelNu returns the mean Nusselt number h Dh/k of a passage of length
-// L = lOverDh Dh at Reynolds number Re (on Dh) and Prandtl number Pr, and
-// the regime: Stephan (ParallelPlatesNu) below Re = 2300, Gnielinski
-// (GnielinskiNu with its entrance correction) above 1e4, and the linear
-// blend between (see blend). Each correlation's ranges are checked in its
-// own regime.
-func ChannelNu(re, pr, lOverDh float64, log *validity.Log) (float64, string) {
+// ChannelNu returns the mean Nusselt number h Dh/k over the first L =
+// lOverDh Dh of a passage at Reynolds number Re (on Dh) and Prandtl number
+// Pr, at bulk properties, and the regime: Stephan (ParallelPlatesNu) below
+// Re = 2300, Gnielinski (GnielinskiNu with its entrance correction) times
+// the gas heating factor k (GasHeatingFactor; 1 for constant properties)
+// above 1e4, and the linear blend between (see blend). Each correlation's
+// ranges are checked in its own regime.
+func ChannelNu(re, pr, lOverDh, k float64, log *validity.Log) (float64, string) {
 	if re <= ReLaminar {
 		return ParallelPlatesNu(lOverDh/(re*pr), pr, log), "laminar"
 	}
 	dh := 1 / lOverDh
 	if re >= ReTurbulent {
-		return GnielinskiNu(re, pr, dh, log), "turbulent"
+		return k * GnielinskiNu(re, pr, dh, log), "turbulent"
 	}
 	nl := ParallelPlatesNu(lOverDh/(ReLaminar*pr), pr, nil)
-	nt := GnielinskiNu(ReTurbulent, pr, dh, log)
+	nt := k * GnielinskiNu(ReTurbulent, pr, dh, log)
 	g := blend(re)
 	return (1-g)*nl + g*nt, "transition"
 }
 
 // ChannelFriction returns the apparent Fanning friction factor over a
 // passage of length L = lOverDh Dh at Reynolds number Re: Shah's
-// developing laminar flow (ParallelPlatesFriction) below Re = 2300,
-// Petukhov's Fanning factor f_Darcy/4 plus the laminar entrance excess
-// K(inf)/(4 L/Dh) = 0.674/(4 L/Dh) of Shah & London (1978) above 1e4, and
-// the linear blend between (see blend).
+// developing laminar flow (ParallelPlatesFriction, with its entrance
+// pressure defect) below Re = 2300, the Konakov Fanning factor xi/4 above
+// 1e4, and the linear blend between (see blend). A turbulent profile
+// develops within about ten hydraulic diameters and its entrance excess is
+// small beside the sharp entry's own loss, which the hydraulics count apart
+// (Idelchik 1994), so none is added (the laminar excess K(inf) = 0.674 of
+// Shah & London belongs to laminar flow only).
 func ChannelFriction(re, lOverDh float64, log *validity.Log) float64 {
 	if re <= ReLaminar {
 		return ParallelPlatesFriction(re, lOverDh/re, log)
 	}
-	turb := func(r float64) float64 { return PetukhovFriction(r, nil)/4 + 0.674/(4*lOverDh) }
 	if re >= ReTurbulent {
-		return turb(re)
+		return KonakovFriction(re, nil) / 4
 	}
 	fl := ParallelPlatesFriction(ReLaminar, lOverDh/ReLaminar, nil)
 	g := blend(re)
-	return (1-g)*fl + g*turb(ReTurbulent)
+	return (1-g)*fl + g*KonakovFriction(ReTurbulent, nil)/4
 }
 
 // PassageModel is a forced-convection correlation for the air in one fin
@@ -158,24 +184,26 @@ func ChannelFriction(re, lOverDh float64, log *validity.Log) float64 {
 type PassageModel interface {
 	// Nu returns the mean Nusselt number h Dh/k over the first x =
 	// xOverDh Dh of a passage at Reynolds number re (on Dh) and Prandtl
-	// number pr, and a name of the regime; it checks its validity ranges
-	// in log (nil for none).
-	Nu(re, pr, xOverDh float64, log *validity.Log) (float64, string)
+	// number pr at bulk properties, with the bulk air at tb and the wall at
+	// tw (K) for a property-ratio correction, and a name of the regime; it
+	// checks its validity ranges in log (nil for none).
+	Nu(re, pr, xOverDh, tb, tw float64, log *validity.Log) (float64, string)
 	// Friction returns the apparent Fanning friction factor over a
 	// passage of length lOverDh Dh at Reynolds number re and Prandtl
-	// number pr.
+	// number pr (isothermal: the hydraulics run before the wall
+	// temperature is known).
 	Friction(re, pr, lOverDh float64) float64
 }
 
 // DevelopingPlates is the passage model of simultaneously developing flow
-// between parallel plates: ChannelNu and ChannelFriction (Stephan and Shah
-// laminar, Gnielinski and Petukhov turbulent, Gnielinski's linear blend
-// between).
+// between parallel plates: ChannelNu with the gas heating factor, and
+// ChannelFriction (Stephan and Shah laminar, Gnielinski and Konakov
+// turbulent, Gnielinski's linear blend between).
 type DevelopingPlates struct{}
 
-// Nu is ChannelNu.
-func (DevelopingPlates) Nu(re, pr, xOverDh float64, log *validity.Log) (float64, string) {
-	return ChannelNu(re, pr, xOverDh, log)
+// Nu is ChannelNu with GasHeatingFactor(tb, tw).
+func (DevelopingPlates) Nu(re, pr, xOverDh, tb, tw float64, log *validity.Log) (float64, string) {
+	return ChannelNu(re, pr, xOverDh, GasHeatingFactor(tb, tw, nil), log)
 }
 
 // Friction is ChannelFriction, without range checks.

@@ -121,6 +121,7 @@ func (p *prepared) solveWall(st *setState, tin, q float64) (SetResult, marchOut,
 	}
 	m.seg = r.March
 	r.HeatLoad = q
+	r.LoadImbalance = math.Abs(r.HeatRejected-q) / q
 	return r, m, nil
 }
 
@@ -237,6 +238,7 @@ func (w *wallSearch) failed(err error) (SetResult, marchOut, error) {
 		r, m := p.setHeat(w.st, SaneWallLimit, w.tin, true)
 		own(&r)
 		r.HeatLoad = w.q
+		r.LoadImbalance = math.Abs(r.HeatRejected-w.q) / w.q
 		return r, m, fmt.Errorf("%w for the %s fins: at %.0f C wall temperature they reject only %.0f W of the %.0f W load; add fin area, improve the air supply to the fins (pressure recovery, ducting), or lower the heat load",
 			ErrNoEquilibrium, fs.Name, SaneWallLimit-273.15, r.HeatRejected, w.q)
 	}

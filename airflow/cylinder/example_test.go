@@ -45,7 +45,7 @@ func Example() {
 	fmt.Printf("head: mean h %.1f W/m2K, air %.1f -> %.1f C, %s\n", r.Head.MeanH, r.Head.AirIn-273.15, r.Head.AirOut-273.15, r.Head.Regime)
 	// Output:
 	// heat load: head 2681 W, barrel 1443 W
-	// head wall 214.7 C, barrel wall 128.7 C
-	// head: mean h 62.4 W/m2K, air 35.0 -> 100.7 C, transition
+	// head wall 212.7 C, barrel wall 120.7 C
+	// head: mean h 61.2 W/m2K, air 35.0 -> 93.9 C, transition
 
 }

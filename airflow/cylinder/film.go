@@ -6,10 +6,10 @@ import (
 	"finmarch/airflow"
 )
 
-// The march evaluates the developing-flow correlation once per segment at
-// film properties that change little from one segment to the next (the
-// film temperature moves by a few kelvin). filmPowers carries the powers of
-// Pr and Re that ChannelNu needs and updates them by the binomial series
+// The march evaluates the developing-flow correlation at the two ends of
+// every segment at the segment's bulk properties, which change little from
+// one segment to the next (the bulk temperature moves by a few kelvin).
+// filmPowers carries the powers of Pr and Re that ChannelNu needs and updates them by the binomial series
 // (1 + d)^a = sum_j C(a, j) d^j over the segment's relative change d,
 // instead of taking logarithms and exponentials afresh. The series is
 // summed through d^6; with |d| <= binomMax = 0.01 the first term left out,
@@ -51,9 +51,9 @@ var (
 	bMu064   = newBinom(-0.64)
 	reLam114 = math.Pow(airflow.ReLaminar, 1.14)
 	reLam064 = math.Pow(airflow.ReLaminar, 0.64)
-	// the Petukhov factor at the turbulent end of transition
-	fTurb      = airflow.PetukhovFriction(airflow.ReTurbulent, nil)
-	sqrtF8Turb = math.Sqrt(fTurb / 8)
+	// the Konakov factor at the turbulent end of transition
+	xiTurb     = airflow.KonakovFriction(airflow.ReTurbulent, nil)
+	sqrtXi8Tur = math.Sqrt(xiTurb / 8)
 )
 
 // filmPowers are the powers of the film Prandtl and Reynolds numbers of the
@@ -93,29 +93,48 @@ func (f *filmPowers) step(pr, mu, re float64) {
 	f.n++
 }
 
-// nuPowers is airflow.ChannelNu for the march's inner loop at a segment end with
-// e1 = (x/Dh)^-1.14 and e2 = (x/Dh)^-0.64 and d23 = (Dh/x)^(2/3)
-// precomputed, and the film powers of f: Stephan's correlation written as
+// nuState is airflow.ChannelNu at one segment's Reynolds and Prandtl
+// numbers and gas heating factor, with everything that does not depend on
+// the position along the path evaluated once, so that the segment's two
+// ends cost a few multiplications each (TestNuPowers holds it to 1e-12 of
+// ChannelNu). Stephan's correlation is written
 //
 //	Nu = 7.55 + 0.024 e1 (Re Pr)^1.14 / (1 + 0.0358 e2 Re^0.64 Pr^0.81),
 //
 // which is ParallelPlatesNu with x*^-1.14 = (x/Dh)^-1.14 (Re Pr)^1.14 and
-// Pr^0.17 x*^-0.64 = (x/Dh)^-0.64 Re^0.64 Pr^0.81; Gnielinski's and the
-// transition blend as in ChannelNu (TestNuPowers holds it to 1e-12 of
-// ChannelNu). It checks no ranges, which the march does once per path.
-func nuPowers(re float64, f *filmPowers, e1, e2, d23 float64) float64 {
-	gn := func(re, f8, sf8 float64) float64 {
-		return f8 * (re - 1000) * f.pr / (1 + 12.7*sf8*(f.pr23-1)) * (1 + d23)
+// Pr^0.17 x*^-0.64 = (x/Dh)^-0.64 Re^0.64 Pr^0.81, and Gnielinski's as a
+// core times (1 + (Dh/x)^(2/3)). It checks no ranges, which the march does
+// once per path.
+type nuState struct {
+	lamA, lamB float64 // Stephan's 0.024 (Re Pr)^1.14 and 0.0358 Re^0.64 Pr^0.81 (at 2300 in transition)
+	turb       float64 // Gnielinski's core times the heating factor (at 1e4 in transition)
+	g          float64 // the blend's weight of the turbulent end: 0 laminar, 1 turbulent
+}
+
+func newNuState(re, k float64, f *filmPowers) nuState {
+	core := func(re, f8, sf8 float64) float64 {
+		return k * f8 * re * f.pr / (1 + 12.7*sf8*(f.pr23-1))
 	}
 	switch {
 	case re <= airflow.ReLaminar:
-		return 7.55 + 0.024*e1*f.re114*f.pr114/(1+0.0358*e2*f.re064*f.pr081)
+		return nuState{lamA: 0.024 * f.re114 * f.pr114, lamB: 0.0358 * f.re064 * f.pr081}
 	case re >= airflow.ReTurbulent:
-		fr := airflow.PetukhovFriction(re, nil)
-		return gn(re, fr/8, math.Sqrt(fr/8))
+		xi := airflow.KonakovFriction(re, nil)
+		return nuState{turb: core(re, xi/8, math.Sqrt(xi/8)), g: 1}
 	}
-	nl := 7.55 + 0.024*e1*reLam114*f.pr114/(1+0.0358*e2*reLam064*f.pr081)
-	nt := gn(airflow.ReTurbulent, fTurb/8, sqrtF8Turb)
-	g := (re - airflow.ReLaminar) / (airflow.ReTurbulent - airflow.ReLaminar)
-	return (1-g)*nl + g*nt
+	return nuState{lamA: 0.024 * reLam114 * f.pr114, lamB: 0.0358 * reLam064 * f.pr081,
+		turb: core(airflow.ReTurbulent, xiTurb/8, sqrtXi8Tur),
+		g:    (re - airflow.ReLaminar) / (airflow.ReTurbulent - airflow.ReLaminar)}
+}
+
+// at returns the mean Nusselt number over the first x of the path, with
+// e1 = (x/Dh)^-1.14, e2 = (x/Dh)^-0.64 and d23 = (Dh/x)^(2/3) of x.
+func (s *nuState) at(sp *segPre) float64 {
+	switch s.g {
+	case 0:
+		return 7.55 + s.lamA*sp.e1/(1+s.lamB*sp.e2)
+	case 1:
+		return s.turb * (1 + sp.d23)
+	}
+	return (1-s.g)*(7.55+s.lamA*sp.e1/(1+s.lamB*sp.e2)) + s.g*s.turb*(1+sp.d23)
 }

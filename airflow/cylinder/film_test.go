@@ -7,31 +7,36 @@ import (
 	"finmarch/airflow"
 )
 
-// The march's Nusselt number from film powers is ChannelNu's, to rounding,
+// The march's Nusselt number from film powers (nuState) is ChannelNu's, to
+// rounding, in every regime, with and without the gas heating factor,
 // whether the powers are anchored exactly or carried by the binomial series
 // over small changes of Pr and viscosity.
 func TestNuPowers(t *testing.T) {
 	for re := 30.0; re < 2e5; re *= 1.13 {
 		for _, ld := range []float64{0.05, 0.7, 3, 25, 80} {
 			for _, pr := range []float64{0.68, 0.71} {
-				want, _ := airflow.ChannelNu(re, pr, ld, nil)
-				e1, e2, d23 := math.Pow(ld, -1.14), math.Pow(ld, -0.64), math.Pow(1/ld, 2.0/3)
-				var f filmPowers
-				f.anchor(pr, 1.8e-5, re)
-				if got := nuPowers(re, &f, e1, e2, d23); rel(got, want) > 1e-12 {
-					t.Fatalf("Re %g L/Dh %g Pr %g: anchored %.15g, ChannelNu %.15g", re, ld, pr, got, want)
-				}
-				// arrive at (Re, Pr) by 12 series steps from 6% away
-				f = filmPowers{n: -1}
-				for j := 12; j >= 0; j-- {
-					s := 1 + 0.005*float64(j)
-					f.step(pr*s, 1.8e-5*s, re/s)
-				}
-				if f.n != 12 {
-					t.Fatalf("expected 12 series steps, got %d", f.n)
-				}
-				if got := nuPowers(re, &f, e1, e2, d23); rel(got, want) > 1e-12 {
-					t.Fatalf("Re %g L/Dh %g Pr %g: stepped %.15g, ChannelNu %.15g", re, ld, pr, got, want)
+				for _, k := range []float64{1, 0.8} {
+					want, _ := airflow.ChannelNu(re, pr, ld, k, nil)
+					sp := segPre{e1: math.Pow(ld, -1.14), e2: math.Pow(ld, -0.64), d23: math.Pow(1/ld, 2.0/3)}
+					var f filmPowers
+					f.anchor(pr, 1.8e-5, re)
+					st := newNuState(re, k, &f)
+					if got := st.at(&sp); rel(got, want) > 1e-12 {
+						t.Fatalf("Re %g L/Dh %g Pr %g k %g: anchored %.15g, ChannelNu %.15g", re, ld, pr, k, got, want)
+					}
+					// arrive at (Re, Pr) by 12 series steps from 6% away
+					f = filmPowers{n: -1}
+					for j := 12; j >= 0; j-- {
+						s := 1 + 0.005*float64(j)
+						f.step(pr*s, 1.8e-5*s, re/s)
+					}
+					if f.n != 12 {
+						t.Fatalf("expected 12 series steps, got %d", f.n)
+					}
+					st = newNuState(re, k, &f)
+					if got := st.at(&sp); rel(got, want) > 1e-12 {
+						t.Fatalf("Re %g L/Dh %g Pr %g k %g: stepped %.15g, ChannelNu %.15g", re, ld, pr, k, got, want)
+					}
 				}
 			}
 		}

@@ -54,8 +54,12 @@ func (p *prepared) setHeat(st *setState, tw, tin float64, keep bool) (SetResult,
 	ts := p.c.Ambient + r.SurfaceEfficiency*(tw-p.c.Ambient)
 	r.RadiationHeat = fs.Emissivity * airflow.Sigma * g.EnvelopeArea * (ts*ts*ts*ts - math.Pow(p.c.Ambient, 4))
 	r.HeatRejected = qc + r.RadiationHeat
-	// relative to the heat, or to a milliwatt when the heat is nil (a wall
-	// at the temperature of its inlet air) and only rounding is left
-	r.EnergyImbalance = math.Abs(m.qMetal-m.q) / math.Max(math.Abs(m.q), 1e-3)
+	// the air's enthalpy rise from its inlet and outlet temperatures
+	// alone, against the forced heat summed over the segments: it holds
+	// the march's bookkeeping (paths, mass flow, cp) to account; relative
+	// to the heat, or to a milliwatt when the heat is nil (a wall at the
+	// temperature of its inlet air) and only rounding is left
+	r.EnthalpyRise = st.mdot * float64(pt.Paths) * (enthalpy(m.tOut) - enthalpy(tin))
+	r.AirImbalance = math.Abs(r.EnthalpyRise-m.q) / math.Max(math.Abs(m.q), 1e-3)
 	return r, m
 }

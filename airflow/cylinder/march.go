@@ -7,6 +7,10 @@ import (
 	"finmarch/airflow"
 )
 
+// enthalpy returns H(T) = T (h0 + T (h1 + T (h2 - T h3))), the enthalpy of
+// dry air relative to 0 K by the Cengel cp cubic, J/kg (T in K).
+func enthalpy(t float64) float64 { return t * (h0 + t*(h1+t*(h2-t*h3))) }
+
 // meanCp returns the mean of the Cengel cp cubic over [t1, t2] (K), J/(kg
 // K): (H(t2) - H(t1))/(t2 - t1) in closed form, exact for t1 = t2 and free
 // of the cancellation of the difference quotient. With cp = (a + bT + cT^2
@@ -31,11 +35,11 @@ const (
 )
 
 type marchOut struct {
-	q, qMetal, tOut float64
-	hA, etaA, area  float64 // area-weighted sums
-	re              float64
-	regime          string
-	seg             []Segment
+	q, tOut        float64
+	hA, etaA, area float64 // area-weighted sums
+	re             float64
+	regime         string
+	seg            []Segment
 }
 
 // segPre holds what the march needs at a segment end that depends only on
@@ -106,30 +110,51 @@ func (p *prepared) segments(pt Path, n int) []segPre {
 	return s
 }
 
-// meanNu is the passage correlation's mean Nusselt number over the first
-// x = xOverDh Dh of the path at segment end sp, and the regime at the path's
-// end. Ranges are checked at the path's end only, where x/Dh is the whole
-// passage's L/Dh; upstream segments are the correlation's own entrance
-// region. The built-in correlation goes by its fast path upstream.
-func (p *prepared) meanNu(fp *filmPowers, sp *segPre, last bool, re, pr, mu, xOverDh float64) (float64, string) {
-	switch {
-	case last:
-		return p.passage.Nu(re, pr, xOverDh, p.log)
-	case p.fast:
+// segmentH returns segment i's mean forced coefficient, W/(m2 K), from
+// its own state: the passage model's mean Nusselt number at the segment's
+// bulk Reynolds and Prandtl numbers at both of its ends, as the segment
+// mean of the local coefficient,
+//
+//	h = k/Dh (x_i Nu(x_i) - x_(i-1) Nu(x_(i-1))) / (x_i - x_(i-1)),
+//
+// (x Nu_m(x) is the integral of the local Nusselt number from the
+// entrance), and at the path's last segment the regime, with the model's
+// ranges checked there (where x/Dh is the whole passage's L/Dh; upstream
+// segments are the correlation's own entrance region). The built-in
+// correlation goes by its fast path (nuState).
+func (p *prepared) segmentH(fp *filmPowers, pre []segPre, i, n int, re, pr, mu, kAir, tb, tw, dh float64) (float64, string) {
+	x1, x0 := pre[i].x, pre[i-1].x
+	var nu1, nu0 float64
+	if p.fast {
 		fp.step(pr, mu, re)
-		return nuPowers(re, fp, sp.e1, sp.e2, sp.d23), ""
+		k := 1.0
+		if re > airflow.ReLaminar {
+			k = airflow.GasHeatingFactor(tb, tw, nil)
+		}
+		st := newNuState(re, k, fp)
+		nu1 = st.at(&pre[i])
+		if i > 1 {
+			nu0 = st.at(&pre[i-1])
+		}
+	} else {
+		nu1, _ = p.passage.Nu(re, pr, x1/dh, tb, tw, nil)
+		if i > 1 {
+			nu0, _ = p.passage.Nu(re, pr, x0/dh, tb, tw, nil)
+		}
 	}
-	nu, _ := p.passage.Nu(re, pr, xOverDh, nil)
-	return nu, ""
+	regime := ""
+	if i == n {
+		_, regime = p.passage.Nu(re, pr, x1/dh, tb, tw, p.log)
+	}
+	return kAir / dh * (x1*nu1 - x0*nu0) / (x1 - x0), regime
 }
 
 // pickUp returns the air temperature leaving a segment whose air enters at
 // t (K) with mass flow mdot (kg/s) past conductance ua (W/K) on a wall at
 // tw (K), the exact exponential T_out = T_w - (T_w - t) exp(-NTU), NTU =
-// ua/(mdot cp), with cp the mean over the segment's rise; and that cp and
-// the heat taken from the metal, ua times the exact mean driving difference
-// (1 - exp(-NTU))/NTU. rise is the previous segment's rise, the first guess.
-func pickUp(ua, mdot, tw, t, rise float64) (tOut, cp, qMetal float64) {
+// ua/(mdot cp), with cp the mean over the segment's rise; and that cp.
+// rise is the previous segment's rise, the first guess.
+func pickUp(ua, mdot, tw, t, rise float64) (tOut, cp float64) {
 	// cp is found by fixed-point passes from the previous segment's rise;
 	// each pass rescales exp(-NTU) by exp(NTU_old - NTU_new), a small
 	// argument summed by its series, so one exponential serves the segment
@@ -152,23 +177,14 @@ func pickUp(ua, mdot, tw, t, rise float64) (tOut, cp, qMetal float64) {
 		cp, ntu = next, nn
 		tOut = tw - (tw-t)*e
 	}
-	// metal side, with 1 - e direct where it keeps its digits
-	switch {
-	case ntu > 1e-3:
-		qMetal = ua * (tw - t) * (1 - e) / ntu
-	case ntu > 1e-12:
-		qMetal = ua * (tw - t) * (-math.Expm1(-ntu)) / ntu
-	default:
-		qMetal = ua * (tw - t)
-	}
-	return tOut, cp, qMetal
+	return tOut, cp
 }
 
 // march steps one air path of a set at wall temperature tw (K) from inlet
 // temperature tin (K) with mass flow mdot (kg/s) per path. In each of n
-// segments it takes film properties at the mean of wall and local air
-// temperature, the segment-mean forced coefficient from the developing-flow
-// correlation as d(x h_m(x))/dx between the segment ends, the fin
+// segments it takes bulk properties at the segment's mean air temperature,
+// the segment-mean forced coefficient from the passage model at that state
+// (segmentH, with the gas heating factor of the wall-to-bulk ratio), the fin
 // efficiency at that h, and the exact exponential pick-up of heat,
 // T_out = T_w - (T_w - T_in) exp(-NTU), NTU = eta_o h A / (mdot cp), with
 // cp the mean over the segment's temperature rise.
@@ -194,17 +210,17 @@ func (p *prepared) march(st *setState, tw, tin float64, keep bool) marchOut {
 	pre := p.segments(pt, n)
 	reC := mdot / pt.FlowArea * pt.Dh // Re = reC / mu
 	t := tin
-	prevXNu := 0.0
 	xPrev := 0.0
 	rise := 0.0 // the previous segment's air temperature rise
 	fp := filmPowers{n: -1, exact: p.exactFilm}
 	for i := 1; i <= n; i++ {
-		// film properties at the mean of wall and local air temperature
-		// (Properties, without the pressure check done once in prepare)
-		tf := 0.5 * (tw + t)
-		p.log.Check(airflow.PropertiesName, airflow.PropertiesTemperature, tf, 250, 1000)
-		mu, kAir, cpF := airflow.Transport(tf)
-		pr := mu * cpF / kAir
+		// bulk properties at the segment's mean air temperature, predicted
+		// from the previous segment's rise (Properties, without the
+		// pressure check done once in prepare)
+		tb := t + 0.5*rise
+		p.log.Check(airflow.PropertiesName, airflow.PropertiesTemperature, tb, 250, 1000)
+		mu, kAir, cpB := airflow.Transport(tb)
+		pr := mu * cpB / kAir
 		re := reC / mu
 		x := pre[i].x
 		dx := x - xPrev
@@ -214,24 +230,15 @@ func (p *prepared) march(st *setState, tw, tin float64, keep bool) marchOut {
 		if p.c.FixedH > 0 {
 			h = p.c.FixedH
 		} else {
-			// segment mean of the local coefficient, d(x h_m)/dx, from the
-			// mean-Nu correlation at both segment ends; the upstream end
-			// carries the previous segment's film properties, so the sum of
-			// the segments telescopes to the correlation's mean over the path
-			var nu float64
-			nu, out.regime = p.meanNu(&fp, &pre[i], i == n, re, pr, mu, x/pt.Dh)
-			xNuK := x * nu * kAir
-			h = (xNuK - prevXNu) / dx / pt.Dh
-			prevXNu = xNuK
+			h, out.regime = p.segmentH(&fp, pre, i, n, re, pr, mu, kAir, tb, tw, pt.Dh)
 		}
 		etaF := cv.Efficiency(h, k, p.log)
 		etaO := g.SurfaceEfficiency(etaF)
 		ua := etaO * h * aSeg
-		tOut, cp, qMetal := pickUp(ua, mdot, tw, t, rise)
+		tOut, cp := pickUp(ua, mdot, tw, t, rise)
 		rise = tOut - t
 		qAir := mdot * cp * rise // = mdot (H(tOut) - H(t))
 		out.q += qAir * paths
-		out.qMetal += qMetal * paths
 		out.hA += h * aSeg * paths
 		out.etaA += etaF * aSeg * paths
 		out.area += aSeg * paths

@@ -47,8 +47,8 @@ func TestFastPath(t *testing.T) {
 // the same friction.
 type doubled struct{ airflow.DevelopingPlates }
 
-func (d doubled) Nu(re, pr, x float64, log *validity.Log) (float64, string) {
-	nu, r := d.DevelopingPlates.Nu(re, pr, x, log)
+func (d doubled) Nu(re, pr, x, tb, tw float64, log *validity.Log) (float64, string) {
+	nu, r := d.DevelopingPlates.Nu(re, pr, x, tb, tw, log)
 	return 2 * nu, r
 }
 

@@ -58,7 +58,7 @@ func TestRandomDesigns(t *testing.T) {
 		n = 200
 	}
 	r := rand.New(rand.NewPCG(7, 11))
-	noEq := 0
+	noEq, loadOff := 0, 0
 	for i := 0; i < n; i++ {
 		c, set, load := randomCase(r)
 		if _, err := c.Head.Set.Geometry(); err != nil {
@@ -73,7 +73,7 @@ func TestRandomDesigns(t *testing.T) {
 		}
 		for _, s := range []SetResult{res.Head, res.Barrel} {
 			vals := []float64{s.WallTemp, s.HeatRejected, s.ForcedHeat, s.NaturalHeat, s.RadiationHeat, s.MeanH, s.NaturalH,
-				s.FinEfficiency, s.SurfaceEfficiency, s.AirIn, s.AirOut, s.Reynolds, s.FinMass, s.EnergyImbalance}
+				s.FinEfficiency, s.SurfaceEfficiency, s.AirIn, s.AirOut, s.Reynolds, s.FinMass, s.AirImbalance, s.LoadImbalance}
 			for _, sg := range s.March {
 				vals = append(vals, sg.AirIn, sg.AirOut, sg.H, sg.FinEff, sg.Flux, sg.Heat)
 			}
@@ -94,13 +94,24 @@ func TestRandomDesigns(t *testing.T) {
 			if !(s.AirOut >= lo-1e-9 && s.AirOut <= hi+1e-9) {
 				t.Fatalf("case %d %s: outlet %.3f K outside [%.3f, %.3f]", i, s.Name, s.AirOut, lo, hi)
 			}
-			if s.EnergyImbalance > 1e-6 {
-				t.Fatalf("case %d %s: energy imbalance %.3g", i, s.Name, s.EnergyImbalance)
+			if s.AirImbalance > 1e-6 {
+				t.Fatalf("case %d %s: air imbalance %.3g", i, s.Name, s.AirImbalance)
+			}
+			if err == nil && s.HeatLoad > 0 && s.LoadImbalance > 1e-3 {
+				loadOff++
+				t.Logf("case %d %s: heat rejected %.1f W for a %.1f W load (%.2g)", i, s.Name, s.HeatRejected, s.HeatLoad, s.LoadImbalance)
 			}
 			if !(s.FinEfficiency > 0 && s.FinEfficiency <= 1+1e-12) {
 				t.Fatalf("case %d %s: fin efficiency %g\n%+v\n%+v", i, s.Name, s.FinEfficiency, s, c)
 			}
 		}
 	}
-	t.Logf("%d designs, %d without equilibrium below %.0f K", n, noEq, SaneWallLimit)
+	t.Logf("%d designs, %d without equilibrium below %.0f K, %d sets off their load by more than 1e-3", n, noEq, SaneWallLimit, loadOff)
+	// a series barrel with a tiny load behind a hot head can sit where the
+	// forced and natural terms cancel and the wall search meets its step
+	// tolerance before the heat meets the load (DEVELOPERS.md); the check
+	// reports it, and it must stay rare
+	if loadOff > n/500 {
+		t.Errorf("%d of %d designs off their load by more than 1e-3", loadOff, n)
+	}
 }

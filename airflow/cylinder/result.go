@@ -47,7 +47,9 @@ type SetResult struct {
 	FinArea           float64   `json:"fin_area_m2"`
 	TotalArea         float64   `json:"total_area_m2"`
 	FinMass           float64   `json:"fin_mass_kg"`
-	EnergyImbalance   float64   `json:"energy_imbalance"`
+	EnthalpyRise      float64   `json:"air_enthalpy_rise_W"` // mass flow times H(outlet) - H(inlet), apart from the segment sums
+	AirImbalance      float64   `json:"air_imbalance"`       // |enthalpy rise - forced heat| / forced heat
+	LoadImbalance     float64   `json:"load_imbalance"`      // |heat rejected - load| / load; 0 at fixed walls or no load
 	March             []Segment `json:"march"`
 }
 
@@ -60,7 +62,7 @@ type Result struct {
 	Pressure  float64            `json:"pressure_Pa"`
 	Speed     float64            `json:"speed_m_s"`
 	TiltDeg   float64            `json:"tilt_deg"`
-	MaxImbal  float64            `json:"energy_imbalance_max"`
+	MaxImbal  float64            `json:"energy_imbalance_max"` // the largest air or load imbalance of the two sets
 	Converged bool               `json:"converged"`
 }
 
@@ -87,7 +89,7 @@ func (p *prepared) result(hr, br SetResult, log *validity.Log, conv bool) Result
 	hr.PassageVelocity, br.PassageVelocity = p.sets[head].vel, p.sets[barrel].vel
 	r := Result{Head: hr, Barrel: br, Ambient: p.c.Ambient, Pressure: p.c.Pressure, Speed: p.c.Speed,
 		TiltDeg: p.c.Tilt * 180 / math.Pi, Converged: conv}
-	r.MaxImbal = math.Max(hr.EnergyImbalance, br.EnergyImbalance)
+	r.MaxImbal = max(hr.AirImbalance, br.AirImbalance, hr.LoadImbalance, br.LoadImbalance)
 	r.Warnings = log.Warnings()
 	return r
 }

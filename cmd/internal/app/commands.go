@@ -11,8 +11,8 @@ import (
 
 const (
 	noteModel = "Model: fin efficiency by exact 1-D fin solutions (Incropera 6th ed. Table 3.5; tapered annular fins by a finite-volume solve), " +
-		"passage heat transfer by Stephan (Shah & London 1978) blended to Gnielinski (VDI Heat Atlas 2010), natural convection by " +
-		"Bar-Cohen & Rohsenow (1984) combined as Nu^3 = NuF^3 + NuN^3, radiation from the fin envelope; see README 'Model and sources'."
+		"passage heat transfer at bulk properties by Stephan (Shah & London 1978) blended to Gnielinski with the gas heating factor (VDI Heat Atlas 2010), " +
+		"natural convection by Bar-Cohen & Rohsenow (1984) combined with the forced heat as Q^3 = QF^3 + QN^3, radiation from the fin envelope; see README 'Model and sources'."
 	noteWall = "Wall temperature is the metal at the fin roots, averaged over the fin set; the combustion-side surface and the " +
 		"spark-plug seat run hotter."
 )

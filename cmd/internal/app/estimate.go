@@ -104,7 +104,7 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 			100*d.Load.Road.CoolShare, d.Load.Road.Cylinders, 100*d.Load.Road.HeadShare))
 	}
 	doc.Notes = append(doc.Notes, orientationNote(d, o.Result), noteWall, noteMixed,
-		energyNote(o.Result.MaxImbal),
+		energyNote(o.Result, o.Fixed),
 		noteModel)
 	if o.NoEquilibrium != nil {
 		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.NoEquilibrium.Error()+".")
@@ -144,16 +144,25 @@ func limitAlerts(u output.Units, o outcome) []string {
 }
 
 // noteMixed explains why the forced and natural rows do not add up.
-const noteMixed = "Convection combines forced and natural as Q^3 = QF^3 + QN^3 (Churchill 1977), so the two 'alone' rows do not add up; convection plus radiation is the heat rejected."
+const noteMixed = "Convection combines the forced and natural heats as Q^3 = QF^3 + QN^3 (Churchill 1977's rule for assisting flows), so the two 'alone' rows do not add up; convection plus radiation is the heat rejected."
 
-// energyNote reports the energy check; below 1e-9 it says so rather than
-// print rounding noise.
-func energyNote(imb float64) string {
-	v := fmt.Sprintf("%.1e", imb)
-	if imb < 1e-9 {
-		v = "better than 1e-9"
+// energyNote reports the two energy checks: the heat rejected against the
+// load (the wall balance's own tolerance), and the air's enthalpy rise from
+// its inlet and outlet temperatures against the forced heat summed over the
+// segments; below 1e-9 it says so rather than print rounding noise.
+func energyNote(r cylinder.Result, fixed bool) string {
+	show := func(v float64) string {
+		if v < 1e-9 {
+			return "better than 1e-9"
+		}
+		return fmt.Sprintf("%.1e", v)
 	}
-	return "Energy check: heat taken from the metal equals the air's enthalpy rise to " + v + " (relative)."
+	air := show(math.Max(r.Head.AirImbalance, r.Barrel.AirImbalance))
+	if fixed {
+		return "Energy check: the air's enthalpy rise (from inlet and outlet) equals the forced heat to " + air + " (relative)."
+	}
+	load := show(math.Max(r.Head.LoadImbalance, r.Barrel.LoadImbalance))
+	return "Energy checks: heat rejected equals the load to " + load + ", and the air's enthalpy rise (from inlet and outlet) equals the forced heat to " + air + " (relative)."
 }
 
 func setStatus(err error, r cylinder.SetResult, margin float64) string {

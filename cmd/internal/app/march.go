@@ -48,7 +48,7 @@ func (e *env) march(d *design.Design) error {
 	if o.NoEquilibrium != nil {
 		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.NoEquilibrium.Error()+"; the march is shown at the search limit.")
 	}
-	doc.Notes = append(doc.Notes, energyNote(o.Result.MaxImbal))
+	doc.Notes = append(doc.Notes, energyNote(o.Result, o.Fixed))
 	doc.Warnings = o.warnings()
 	doc.JSON = map[string]any{"design": d.Name, "head": o.Result.Head, "barrel": o.Result.Barrel, "energy_imbalance": o.Result.MaxImbal,
 		"equilibrium": o.NoEquilibrium == nil, "warnings": doc.Warnings, "caution": output.Caution}
