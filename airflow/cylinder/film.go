@@ -49,6 +49,7 @@ var (
 	bPr23    = newBinom(2.0 / 3)
 	bMu114   = newBinom(-1.14) // Re = reC/mu, so Re^a = (reC/mu)^a
 	bMu064   = newBinom(-0.64)
+	bTb045   = newBinom(0.45) // the gas heating factor (T_b/T_w)^0.45
 	reLam114 = math.Pow(airflow.ReLaminar, 1.14)
 	reLam064 = math.Pow(airflow.ReLaminar, 0.64)
 	// the Konakov factor at the turbulent end of transition
@@ -64,6 +65,25 @@ type filmPowers struct {
 	pr114, pr081, pr23 float64 // Pr^1.14, Pr^0.81, Pr^(2/3)
 	re114, re064       float64 // Re^1.14, Re^0.64
 	exact              bool    // anchor at every segment (tests)
+	kh, khTb           float64 // the gas heating factor and the bulk temperature it holds for (0: none yet)
+}
+
+// heating returns the gas heating factor (T_b/T_w)^0.45 at bulk
+// temperature tb on a wall at tw (fixed through a march), carried like the
+// powers by the binomial series from the previous segment's, and
+// re-anchored by airflow.GasHeatingFactor with them.
+func (f *filmPowers) heating(tb, tw float64) float64 {
+	if !(tw > tb) {
+		f.khTb = 0
+		return 1
+	}
+	if d := tb/f.khTb - 1; f.khTb > 0 && f.n > 0 && math.Abs(d) <= binomMax {
+		f.kh *= bTb045.at(d)
+	} else {
+		f.kh = airflow.GasHeatingFactor(tb, tw, nil)
+	}
+	f.khTb = tb
+	return f.kh
 }
 
 func (f *filmPowers) anchor(pr, mu, re float64) {

@@ -129,7 +129,7 @@ func (p *prepared) segmentH(fp *filmPowers, pre []segPre, i, n int, re, pr, mu, 
 		fp.step(pr, mu, re)
 		k := 1.0
 		if re > airflow.ReLaminar {
-			k = airflow.GasHeatingFactor(tb, tw, nil)
+			k = fp.heating(tb, tw)
 		}
 		st := newNuState(re, k, fp)
 		nu1 = st.at(&pre[i])
