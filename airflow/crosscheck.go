@@ -28,32 +28,6 @@ func TeertstraNu(reStar, pr float64, log *validity.Log) float64 {
 	return math.Pow(math.Pow(fd, -3)+math.Pow(dev, -3), -1.0/3)
 }
 
-// FlatPlateNu returns the average Nusselt number h L / k of a flat plate in
-// parallel flow at Re_L and Pr: laminar 0.664 Re^(1/2) Pr^(1/3) below
-// Re = 5e5, mixed (0.037 Re^(4/5) - 871) Pr^(1/3) above (Incropera et al.
-// 6th ed. Eqs. 7.30 and 7.38). Valid Pr >= 0.6, Re_L <= 1e8.
-func FlatPlateNu(re, pr float64, log *validity.Log) float64 {
-	log.Check("flat plate (Incropera 7.30/7.38)", "Prandtl number", pr, 0.6, 60)
-	log.Check("flat plate (Incropera 7.30/7.38)", "Reynolds number", re, 0, 1e8)
-	if re <= 5e5 {
-		return 0.664 * math.Sqrt(re) * math.Cbrt(pr)
-	}
-	return (0.037*math.Pow(re, 0.8) - 871) * math.Cbrt(pr)
-}
-
-// CylinderCrossflowNu returns the average Nusselt number h D / k of a
-// cylinder in cross flow by Churchill & Bernstein (J. Heat Transfer 99,
-// 1977; Incropera et al. 6th ed. Eq. 7.54):
-//
-//	Nu = 0.3 + 0.62 Re^(1/2) Pr^(1/3) / [1 + (0.4/Pr)^(2/3)]^(1/4) * [1 + (Re/282000)^(5/8)]^(4/5).
-//
-// Valid Re Pr >= 0.2, Re <= 1e7.
-func CylinderCrossflowNu(re, pr float64, log *validity.Log) float64 {
-	log.Check("Churchill-Bernstein cylinder in cross flow", "Re Pr", re*pr, 0.2, 1e7)
-	a := 0.62 * math.Sqrt(re) * math.Cbrt(pr) / math.Pow(1+math.Pow(0.4/pr, 2.0/3), 0.25)
-	return 0.3 + a*math.Pow(1+math.Pow(re/282000, 5.0/8), 0.8)
-}
-
 // HorizontalCylinderNaturalNu returns the average Nusselt number h D / k of
 // a long isothermal horizontal cylinder in free convection by Churchill &
 // Chu (Int. J. Heat Mass Transfer 18, 1975; Incropera et al. 6th ed.

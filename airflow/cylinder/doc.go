@@ -14,8 +14,9 @@
 //     fins take the component along the axis, V sin(tilt), over the finned
 //     length. When both sets are longitudinal the air passes the head
 //     passages and then the barrel passages in series (Case.Series). The
-//     broadside component (on the fin faces) adds nothing: a conservative
-//     simplification.
+//     rest of the road air crosses or runs along the fin envelope
+//     (heat.go, envelope): a lower bound on what air striking the fins
+//     broadside does.
 //  2. Hydraulics (hydraulics.go). A share Recovery of the dynamic pressure
 //     0.5 rho V^2 drives each set's passages, scaled by the square of the
 //     component's share of V. Brent's method finds the passage velocity
@@ -33,8 +34,9 @@
 //     that h (fins.Curve, exact 1-D fin solutions), and the exact
 //     exponential pick-up T_out = T_w - (T_w - T_in) exp(-NTU) with cp the
 //     mean over the rise.
-//  4. The heat of a set (heat.go). The march's forced heat and natural
-//     convection (airflow.BarCohenRohsenow: the passages as vertical
+//  4. The heat of a set (heat.go). The march's forced heat, combined with
+//     the envelope's as Q_F^3 = Q_P^3 + Q_E^3 (Churchill & Usagi 1972),
+//     and natural convection (airflow.BarCohenRohsenow: the passages as vertical
 //     channels) combine as Q^3 = Q_F^3 + Q_N^3 (Churchill 1977's rule,
 //     applied to the heats), plus grey radiation from the fin envelope.
 //  5. The balance (balance.go). For each set, head first (on a series

@@ -29,8 +29,53 @@ func (p *prepared) natural(st *setState, tw float64) (float64, float64, float64)
 	return h * g.SurfaceEfficiency(eta) * g.TotalArea * dT, h, eta
 }
 
+// envelope returns the heat (W) and coefficient of the road air that does
+// not run along a set's passages, over the envelope of its fins: for
+// annular fins the component along the axis, V sin(tilt), runs along the
+// envelope as along a flat plate of the finned length (FlatPlateNu); for
+// longitudinal fins the component across the axis, V cos(tilt), crosses
+// the envelope as a cylinder of the tip diameter in crossflow
+// (CylinderCrossflowNu, Churchill & Bernstein 1977). The approach speed
+// is the component times sqrt(Recovery), the share of dynamic pressure the
+// passages get too; properties are at the film temperature of wall and
+// ambient, as these correlations were fitted. The coefficient acts on the
+// envelope area A_e; spread over the finned surface A_t it is h A_e/A_t,
+// which takes the fin efficiency as natural convection does:
+// Q = eta_o h (A_e/A_t) A_t (T_w - T_a).
+func (p *prepared) envelope(st *setState, tw float64) (float64, float64) {
+	dT := tw - p.c.Ambient
+	if dT <= 0 || p.c.Speed <= 0 {
+		return 0, 0
+	}
+	fs, g := st.fs, st.g
+	air := airflow.Properties(0.5*(tw+p.c.Ambient), p.c.Pressure, p.log)
+	r := math.Sqrt(p.c.Recovery)
+	var h float64
+	if fs.Set.Style == fins.StyleLongitudinal {
+		v := r * p.c.Speed * math.Cos(p.c.Tilt)
+		if v <= 1e-3 {
+			return 0, 0
+		}
+		D := g.TipDiameter
+		h = airflow.CylinderCrossflowNu(air.Rho*v*D/air.Mu, air.Pr, p.log) * air.K / D
+	} else {
+		v := r * p.c.Speed * math.Sin(p.c.Tilt)
+		if v <= 1e-3 {
+			return 0, 0
+		}
+		L := fs.Set.Length
+		h = airflow.FlatPlateNu(air.Rho*v*L/air.Mu, air.Pr, p.log) * air.K / L
+	}
+	hEq := h * g.EnvelopeArea / g.TotalArea
+	eta := st.cv.Efficiency(hEq, fs.Alloy.Conductivity(tw), p.log)
+	return hEq * g.SurfaceEfficiency(eta) * g.TotalArea * dT, h
+}
+
 // setHeat evaluates one fin set at wall temperature tw with air entering
-// at tin: the forced march and natural convection combined as
+// at tin: the forced heat of the passage march and of the air over the fin
+// envelope combined as Q_F^3 = Q_P^3 + Q_E^3 (the asymptotic combination
+// of Churchill & Usagi, AIChE J. 18, 1972, with the exponent of the mixed
+// rule: our choice), that and natural convection combined as
 // Q^3 = Q_F^3 + Q_N^3 (Churchill 1977's rule for assisting mixed
 // convection, applied to the heats of the set), and radiation from the
 // envelope at the mean fin surface temperature T_a + eta_o (T_w - T_a) to
@@ -39,9 +84,12 @@ func (p *prepared) setHeat(st *setState, tw, tin float64, keep bool) (SetResult,
 	fs, g, pt := st.fs, st.g, st.pt
 	m := p.march(st, tw, tin, keep)
 	qn, hn, etaN := p.natural(st, tw)
-	qc := math.Cbrt(m.q*m.q*m.q + qn*qn*qn)
+	qe, he := p.envelope(st, tw)
+	qf := math.Cbrt(m.q*m.q*m.q + qe*qe*qe)
+	qc := math.Cbrt(qf*qf*qf + qn*qn*qn)
 	r := SetResult{Name: fs.Name, Style: fs.Set.Style.String(), WallTemp: tw, AirIn: tin, AirOut: m.tOut,
-		ForcedHeat: m.q, NaturalHeat: qn, ConvectionHeat: qc, NaturalH: hn, Paths: pt.Paths, PathLength: pt.Length,
+		ForcedHeat: qf, PassageHeat: m.q, EnvelopeHeat: qe, EnvelopeH: he,
+		NaturalHeat: qn, ConvectionHeat: qc, NaturalH: hn, Paths: pt.Paths, PathLength: pt.Length,
 		Series: pt.Series, FinArea: g.FinArea, TotalArea: g.TotalArea, FinMass: g.FinVolume * fs.Alloy.Density,
 		ApproachComponent: pt.Component, Reynolds: m.re, Regime: m.regime, March: m.seg}
 	if m.area > 0 {

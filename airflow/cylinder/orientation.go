@@ -21,9 +21,8 @@ type Path struct {
 // component in the fin plane (V cos tilt) and the air runs half the
 // circumference at mid-fin radius on each side, two parallel paths per
 // passage, each fed with ambient air; longitudinal fins take the component
-// along the axis (V sin tilt) over the finned length. The broadside
-// component (hitting the fin faces) is assumed to add nothing: a
-// conservative simplification, stated in the README.
+// along the axis (V sin tilt) over the finned length. The other
+// component crosses or runs along the fin envelope (prepared.envelope).
 func path(s fins.Set, g fins.Geometry, v, tilt float64) Path {
 	p := Path{FlowArea: g.PassageArea, Dh: g.PlateDiameter}
 	if s.Style == fins.StyleAnnular {

@@ -26,7 +26,10 @@ type SetResult struct {
 	Style             string    `json:"style"`
 	HeatLoad          float64   `json:"heat_load_W"`
 	HeatRejected      float64   `json:"heat_rejected_W"`
-	ForcedHeat        float64   `json:"forced_heat_W"`
+	ForcedHeat        float64   `json:"forced_heat_W"`   // passages and envelope combined
+	PassageHeat       float64   `json:"passage_heat_W"`  // the march along the fin passages
+	EnvelopeHeat      float64   `json:"envelope_heat_W"` // the air over the fin envelope
+	EnvelopeH         float64   `json:"envelope_h_W_m2K"`
 	NaturalHeat       float64   `json:"natural_heat_W"`
 	ConvectionHeat    float64   `json:"convection_heat_W"`
 	RadiationHeat     float64   `json:"radiation_heat_W"`
@@ -48,7 +51,7 @@ type SetResult struct {
 	TotalArea         float64   `json:"total_area_m2"`
 	FinMass           float64   `json:"fin_mass_kg"`
 	EnthalpyRise      float64   `json:"air_enthalpy_rise_W"` // mass flow times H(outlet) - H(inlet), apart from the segment sums
-	AirImbalance      float64   `json:"air_imbalance"`       // |enthalpy rise - forced heat| / forced heat
+	AirImbalance      float64   `json:"air_imbalance"`       // |enthalpy rise - passage heat| / passage heat
 	LoadImbalance     float64   `json:"load_imbalance"`      // |heat rejected - load| / load; 0 at fixed walls or no load
 	March             []Segment `json:"march"`
 }

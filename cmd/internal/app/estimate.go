@@ -62,6 +62,8 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		row("heat rejected", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.HeatRejected, 0) })),
 		row("  by convection", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.ConvectionHeat, 0) })),
 		row("    forced alone", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.ForcedHeat, 0) })),
+		row("      through the passages", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.PassageHeat, 0) })),
+		row("      over the fin envelope", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.EnvelopeHeat, 0) })),
 		row("    natural alone", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.NaturalHeat, 0) })),
 		row("  by radiation", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.RadiationHeat, 0) })),
 	)
@@ -144,7 +146,7 @@ func limitAlerts(u output.Units, o outcome) []string {
 }
 
 // noteMixed explains why the forced and natural rows do not add up.
-const noteMixed = "Convection combines the forced and natural heats as Q^3 = QF^3 + QN^3 (Churchill 1977's rule for assisting flows), so the two 'alone' rows do not add up; convection plus radiation is the heat rejected."
+const noteMixed = "Convection combines the forced and natural heats as Q^3 = QF^3 + QN^3 (Churchill 1977's rule for assisting flows), and the forced heat its passage and envelope parts the same way, so the 'alone' rows do not add up; convection plus radiation is the heat rejected."
 
 // energyNote reports the two energy checks: the heat rejected against the
 // load (the wall balance's own tolerance), and the air's enthalpy rise from
@@ -194,5 +196,5 @@ func orientationNote(d *design.Design, r cylinder.Result) string {
 			parts = append(parts, fmt.Sprintf("the %s's longitudinal fins take the share along the axis (sin %.0f deg = %.2f)", s.Name, tilt, math.Sin(d.Case.Tilt)))
 		}
 	}
-	return "Orientation: " + strings.Join(parts, "; ") + ". Air striking the fin faces broadside is assumed to add nothing (conservative)."
+	return "Orientation: " + strings.Join(parts, "; ") + ". The rest of the road air is credited over the fin envelope only (a lower bound)."
 }

@@ -107,7 +107,7 @@ var modelSources = []string{
 	"Passage heat transfer at bulk properties, each march segment from its own state: Stephan's correlation for simultaneously developing laminar flow between plates (Shah & London 1978); Gnielinski with entrance factor and the gas heating factor (VDI Heat Atlas 2010, G1), linear blend for 2300 < Re < 1e4.",
 	"Natural convection: Bar-Cohen & Rohsenow (1984) vertical channels, combined with the forced heat as Q^3 = QF^3 + QN^3 (Churchill 1977); radiation from the fin envelope (Incropera Eq. 1.7).",
 	"Heat load: road load (0.5 rho CdA V^2 + Crr m g) V through driveline and brake thermal efficiency, a cooling share of the fuel power (Heywood, Internal Combustion Engine Fundamentals, 1988, Table 12.1; from memory), split head : barrel (common practice).",
-	"Orientation: annular fins take V cos(tilt) on half-circumference paths fed with ambient air; longitudinal fins take V sin(tilt), head then barrel in series; broadside air is assumed to add nothing.",
+	"Orientation: annular fins take V cos(tilt) on half-circumference paths fed with ambient air; longitudinal fins take V sin(tilt), head then barrel in series; the rest of the road air crosses or runs along the fin envelope (Churchill & Bernstein 1977; flat plate, Incropera Eqs. 7.30/7.38), a lower bound.",
 }
 
 func (e *env) report(ds []*design.Design) ([]byte, error) {

@@ -111,7 +111,7 @@ func (e *env) tilt(d *design.Design, step float64) error {
 		fmt.Sprintf("Annular variant: head %d fins at %s pitch, barrel %d fins at %s pitch. Longitudinal variant: head %d fins at %s root pitch, barrel %d fins at %s root pitch. Same heights, thicknesses and mean gap.",
 			hs.Count, lu(hs.Pitch), bs.Count, lu(bs.Pitch), hl.Count, lu(hl.Pitch), bl.Count, lu(bl.Pitch)),
 		"Annular fins take the road-speed share in their plane (cos tilt); longitudinal fins the share along the axis (sin tilt), head first then barrel in series. "+
-			"Broadside air is assumed to add nothing, so each style ends on natural convection and radiation alone at its unfavourable extreme.",
+			"The rest of the road air is credited over the fin envelope only (a lower bound), so at its unfavourable extreme each style is cooled little more than in still air.",
 		noteWall)
 	doc.Warnings = warningsOf(warns...)
 	doc.JSON = map[string]any{"design": d.Name, "rows": rows, "warnings": doc.Warnings, "caution": output.Caution}
