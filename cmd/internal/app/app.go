@@ -5,8 +5,6 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"os"
-	"path/filepath"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -52,6 +50,7 @@ type options struct {
 type env struct {
 	stdout, stderr io.Writer
 	opt            *options
+	inputs         []string // design files read, which no output may replace
 }
 
 // Run executes finmarch with args and returns the exit code.
@@ -125,12 +124,14 @@ func tomlArgs(_ *cobra.Command, _ []string, _ string) ([]string, cobra.ShellComp
 	return []string{"toml"}, cobra.ShellCompDirectiveFilterFileExt
 }
 
-// load reads and checks a design file.
+// load reads and checks a design file, and remembers it as an input that
+// no output may replace.
 func (e *env) load(path string) (*design.Design, error) {
-	src, err := os.ReadFile(path)
+	src, err := readDesign(path)
 	if err != nil {
-		return nil, fail(ExitIO, fmt.Errorf("cannot read the design: %w", err))
+		return nil, err
 	}
+	e.inputs = append(e.inputs, path)
 	return e.parse(src, path)
 }
 
@@ -207,85 +208,7 @@ func (e *env) emit(doc output.Doc) error {
 			fmt.Fprintln(e.stderr, output.Caution)
 		}
 	}
-	if e.opt.out == "" {
-		_, err := e.stdout.Write(buf.Bytes())
-		return err
-	}
-	return writeFile(e.opt.out, buf.Bytes(), e.opt.force)
-}
-
-// atomicFile is a temporary file beside its target that becomes the target
-// only on Commit, so that a failed run leaves no half-written file, and
-// that replaces an existing target only when force is set.
-type atomicFile struct {
-	*os.File
-	path  string
-	force bool
-	done  bool
-}
-
-func createAtomic(path string, force bool) (*atomicFile, error) {
-	if !force {
-		if _, err := os.Stat(path); err == nil {
-			return nil, fail(ExitIO, fmt.Errorf("%s already exists; add --force to replace it", path))
-		}
-	}
-	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".tmp-*")
-	if err != nil {
-		return nil, fail(ExitIO, fmt.Errorf("cannot write %s: %w", path, err))
-	}
-	_ = tmp.Chmod(0o644) // CreateTemp makes 0600; results are ordinary files
-	return &atomicFile{File: tmp, path: path, force: force}, nil
-}
-
-// Abort removes the temporary file unless Commit has run.
-func (a *atomicFile) Abort() {
-	if !a.done {
-		a.Close()
-		os.Remove(a.Name())
-		a.done = true
-	}
-}
-
-// Commit closes the temporary file and puts it in place: by a link when
-// the target must not be replaced (a link fails if the target appeared
-// meanwhile, unlike a rename), by a rename otherwise.
-func (a *atomicFile) Commit() error {
-	name := a.Name()
-	a.done = true
-	if err := a.Close(); err != nil {
-		os.Remove(name)
-		return fail(ExitIO, fmt.Errorf("cannot write %s: %w", a.path, err))
-	}
-	if a.force {
-		if err := os.Rename(name, a.path); err != nil {
-			os.Remove(name)
-			return fail(ExitIO, fmt.Errorf("cannot write %s: %w", a.path, err))
-		}
-		return nil
-	}
-	err := os.Link(name, a.path)
-	os.Remove(name)
-	if os.IsExist(err) {
-		return fail(ExitIO, fmt.Errorf("%s already exists; add --force to replace it", a.path))
-	}
-	if err != nil {
-		return fail(ExitIO, fmt.Errorf("cannot write %s: %w", a.path, err))
-	}
-	return nil
-}
-
-// writeFile writes data to path through an atomicFile.
-func writeFile(path string, data []byte, force bool) error {
-	f, err := createAtomic(path, force)
-	if err != nil {
-		return err
-	}
-	defer f.Abort()
-	if _, err := f.Write(data); err != nil {
-		return fail(ExitIO, fmt.Errorf("cannot write %s: %w", path, err))
-	}
-	return f.Commit()
+	return e.write(e.opt.out, buf.Bytes())
 }
 
 func warningsOf(ws ...[]string) []string {

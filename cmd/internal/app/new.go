@@ -19,7 +19,7 @@ func (e *env) newCmd() *cobra.Command {
 			if laidOver {
 				src = demo.LaidOver
 			}
-			if err := writeFile(args[0], src, e.opt.force); err != nil {
+			if err := e.write(args[0], src); err != nil {
 				return err
 			}
 			fmt.Fprintf(e.stdout, "wrote %s; edit it, then run: finmarch estimate %s\n", args[0], args[0])

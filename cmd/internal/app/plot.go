@@ -115,7 +115,7 @@ func (e *env) writeFigure(fig *plots.Figure) error {
 	if err := fig.Write(&buf, ext); err != nil {
 		return fail(ExitInternal, err)
 	}
-	if err := writeFile(e.opt.out, buf.Bytes(), e.opt.force); err != nil {
+	if err := e.write(e.opt.out, buf.Bytes()); err != nil {
 		return err
 	}
 	fmt.Fprintf(e.stdout, "wrote %s\n", e.opt.out)

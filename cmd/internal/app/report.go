@@ -36,7 +36,7 @@ network: no scripts, no external fonts or images.`,
 			if err != nil {
 				return err
 			}
-			if err := writeFile(e.opt.out, b, e.opt.force); err != nil {
+			if err := e.write(e.opt.out, b); err != nil {
 				return err
 			}
 			fmt.Fprintf(e.stdout, "wrote %s\n", e.opt.out)

@@ -2,7 +2,6 @@ package app
 
 import (
 	"fmt"
-	"io"
 	"math"
 	"os"
 	"runtime"
@@ -221,18 +220,16 @@ func (e *env) sweep(d *design.Design, axes sweep.Grid, total, workers, top int, 
 		return err
 	}
 	streaming := f == output.CSV || f == output.JSON
-	var dst io.Writer = e.stdout
-	var file *atomicFile
 	summaryTo := e.stdout
 	if streaming {
 		summaryTo = e.stderr
 	}
-	if e.opt.out != "" {
-		if file, err = createAtomic(e.opt.out, e.opt.force); err != nil {
-			return err
-		}
-		defer file.Abort()
-		dst = file
+	dst, err := e.openOutput(e.opt.out, e.opt.force)
+	if err != nil {
+		return err
+	}
+	defer dst.Abort()
+	if e.opt.out != "" && e.opt.out != "-" {
 		summaryTo = e.stdout
 	}
 	header := sweepHeader(axes, u)
@@ -256,10 +253,8 @@ func (e *env) sweep(d *design.Design, axes sweep.Grid, total, workers, top int, 
 	if err := st.Close(); err != nil {
 		return fail(ExitIO, fmt.Errorf("writing the sweep: %w", err))
 	}
-	if file != nil {
-		if err := file.Commit(); err != nil {
-			return err
-		}
+	if err := dst.Commit(); err != nil {
+		return err
 	}
 	sf := output.Table
 	if f == output.Markdown {

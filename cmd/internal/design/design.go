@@ -187,10 +187,15 @@ var lineKeyRe = regexp.MustCompile(`^toml: line (\d+)(?: \(last key "([^"]*)"\))
 // kilobytes; this stops a mistaken path to a huge file early).
 const MaxFileSize = 1 << 20
 
+// TooLarge is the error for a design file of size bytes, over MaxFileSize.
+func TooLarge(name string, size int64) error {
+	return Errors{{File: name, Msg: fmt.Sprintf("file is %d bytes; a design file is at most %d bytes", size, MaxFileSize)}}
+}
+
 // Parse reads a design file. name is used in messages.
 func Parse(src []byte, name string) (*Design, error) {
 	if len(src) > MaxFileSize {
-		return nil, Errors{{File: name, Msg: fmt.Sprintf("file is %d bytes; a design file is at most %d bytes", len(src), MaxFileSize)}}
+		return nil, TooLarge(name, int64(len(src)))
 	}
 	if strings.TrimSpace(string(src)) == "" {
 		return nil, Errors{{File: name, Msg: "file is empty; write a starter design with `finmarch new design.toml`"}}
