@@ -245,6 +245,17 @@ func Custom(name string, k, density, cp, emissBare, emissPaint, maxService float
 			return Alloy{}, fmt.Errorf("custom alloy %q: %s = %g is outside %g to %g %s", name, c.key, c.v, c.lo, c.hi, c.unit)
 		}
 	}
+	// a sane ceiling for the family the density says it belongs to (common
+	// practice: light alloys lose most of their strength above about
+	// 350 C and melt near 600 C; irons, steels and bronzes stay useful to
+	// about 700 C)
+	family, ceiling := "light alloys (below 3500 kg/m3)", 623.15
+	if density >= 3500 {
+		family, ceiling = "irons, steels and bronzes", 973.15
+	}
+	if maxService > ceiling {
+		return Alloy{}, fmt.Errorf("custom alloy %q: max_service = %g K (%.0f C) is above the %.0f C that %s keep in service (common practice)", name, maxService, maxService-273.15, ceiling-273.15, family)
+	}
 	tb := append([]Point(nil), table...)
 	sort.SliceStable(tb, func(i, j int) bool { return tb[i].T < tb[j].T })
 	for i, p := range tb {

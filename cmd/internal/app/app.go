@@ -35,6 +35,16 @@ func (e *exitError) Unwrap() error { return e.err }
 
 func fail(code int, err error) error { return &exitError{code: code, err: err} }
 
+// internal reports err as a bug (exit 6) unless it already carries an exit
+// code: a user's flag applied to the built-in demo is the user's error.
+func internal(err error) error {
+	var ee *exitError
+	if errors.As(err, &ee) {
+		return err
+	}
+	return fail(ExitInternal, err)
+}
+
 type options struct {
 	format   string
 	units    string
@@ -101,7 +111,7 @@ upright with annular fins against laid over with longitudinal fins.`,
 	pf := root.PersistentFlags()
 	pf.StringVarP(&e.opt.format, "format", "f", "table", "output format: table, markdown, csv or json")
 	pf.StringVarP(&e.opt.units, "units", "u", "metric", "display units: metric or us")
-	pf.IntVar(&e.opt.segments, "segments", 0, "march segments per air path (overrides the design; default 40)")
+	pf.IntVar(&e.opt.segments, "segments", -1, "march segments per air path, 1 to 10000 (overrides the design; default 40)")
 	pf.StringVar(&e.opt.speed, "speed", "", "road speed, overriding the design's air.speed, e.g. \"110 km/h\"")
 	pf.StringVar(&e.opt.ambient, "ambient", "", "ambient air temperature, overriding air.ambient, e.g. \"40 C\"")
 	pf.StringVar(&e.opt.altitude, "altitude", "", "altitude, overriding air.altitude, e.g. \"1500 m\"")
@@ -140,7 +150,7 @@ func (e *env) parse(src []byte, name string) (*design.Design, error) {
 	if err != nil {
 		return nil, fail(ExitDesign, err)
 	}
-	if e.opt.segments != 0 {
+	if e.opt.segments != -1 {
 		if e.opt.segments < 1 || e.opt.segments > 10000 {
 			return nil, fail(ExitUsage, fmt.Errorf("--segments %d: allowed 1 to 10000", e.opt.segments))
 		}
@@ -155,6 +165,9 @@ func (e *env) parse(src []byte, name string) (*design.Design, error) {
 			continue
 		}
 		v, err := design.ParseFor(o.key, o.s)
+		if err == nil {
+			_, err = d.With(map[string]float64{o.key: v}) // the design's own rule for the key, naming this flag
+		}
 		if err != nil {
 			return nil, fail(ExitUsage, fmt.Errorf("%s %q: %v", o.flag, o.s, err))
 		}

@@ -23,7 +23,7 @@ func (e *env) runDemo() error {
 	for _, f := range demo.Files {
 		d, err := e.parse(f.Src, f.Name)
 		if err != nil {
-			return fail(ExitInternal, fmt.Errorf("built-in demo: %w", err))
+			return internal(fmt.Errorf("built-in demo: %w", err))
 		}
 		ds = append(ds, d)
 	}

@@ -77,9 +77,17 @@ the trade-off front of temperature against fin mass from every design it evaluat
 				lim = d.BarrelLimit
 			}
 			if limit != "" {
-				if lim, err = design.ParseValue[design.Temperature](limit); err != nil {
-					return fail(ExitUsage, fmt.Errorf("--limit: %w", err))
+				// checked by the design file's own rules for the limit key
+				// (its range and the alloy's service temperature)
+				key := "limits." + map[bool]string{true: "barrel", false: "head"}[set == "barrel"]
+				v, err := design.ParseFor(key, limit)
+				if err == nil {
+					_, err = d.With(map[string]float64{key: v})
 				}
+				if err != nil {
+					return fail(ExitUsage, fmt.Errorf("--limit %q: %v", limit, err))
+				}
+				lim = v
 			}
 			if len(names) == 2 && !cmd.Flags().Changed("levels") {
 				levels = 3 // 3^10 grid points for ten variables

@@ -25,7 +25,7 @@ func (e *env) designsOrDemo(args []string) ([]*design.Design, error) {
 		for _, f := range demo.Files {
 			d, err := e.parse(f.Src, f.Name)
 			if err != nil {
-				return nil, fail(ExitInternal, err)
+				return nil, internal(err)
 			}
 			ds = append(ds, d)
 		}

@@ -113,13 +113,23 @@ diameter vary and the count does not, each set gets as many fins as fit (use
 				if err != nil {
 					return fail(ExitUsage, err)
 				}
+				for _, b := range axes {
+					if b.Key == a.Key {
+						return fail(ExitUsage, fmt.Errorf("--vary %s is given twice; give each key once (several values: %s=A,B,C)", a.Key, a.Key))
+					}
+				}
 				axes = append(axes, a)
 				total *= len(a.Values)
 				if total > 100_000_000 {
 					return fail(ExitUsage, fmt.Errorf("the grid has more than 100 million points"))
 				}
 			}
-			if workers <= 0 {
+			// more workers than cores gain nothing and cost memory
+			maxWorkers := 4 * runtime.NumCPU()
+			if workers < 0 || workers > maxWorkers {
+				return fail(ExitUsage, fmt.Errorf("--workers %d: allowed 0 (one per core) to %d (four per core)", workers, maxWorkers))
+			}
+			if workers == 0 {
 				workers = runtime.GOMAXPROCS(0)
 			}
 			if top < 1 || top > 1000 {

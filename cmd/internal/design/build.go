@@ -327,6 +327,18 @@ func (b *builder) crossRules() {
 			}
 		}
 	}
+	// a limit above the catalogue alloy's own service temperature would
+	// let the tool call an overheated head ok (a custom alloy's ceiling is
+	// checked with the alloy)
+	for _, l := range []struct {
+		key   string
+		v     float64
+		alloy materials.Alloy
+	}{{"limits.head", d.HeadLimit, c.Head.Alloy}, {"limits.barrel", d.BarrelLimit, c.Barrel.Alloy}} {
+		if a := l.alloy; a.Name != "" && !a.Custom && a.MaxService > 0 && l.v > a.MaxService+1e-9 {
+			b.add(l.key, "%.4g C is above the maximum service temperature of %s, %.4g C (%s); a lower limit, or another alloy", l.v-C, a.Name, a.MaxService-C, a.LimitSource)
+		}
+	}
 	if c.Ambient > 0 && d.HeadLimit > 0 && c.Ambient >= d.HeadLimit {
 		b.add("limits.head", "the head limit %.4g C is not above the ambient %.4g C; no cooling can hold it", d.HeadLimit-C, c.Ambient-C)
 	}
