@@ -63,8 +63,11 @@ fin width; annular profiles per fin.
 			if h == "" {
 				return fail(ExitUsage, fmt.Errorf(`--h is required (for example --h "60 W/m2K")`))
 			}
-			if in.h, err = design.ParseValue[design.HCoef](h); err != nil || !(in.h > 0 && in.h < 1e5) {
-				return fail(ExitUsage, fmt.Errorf("--h %s: a positive heat-transfer coefficient below 1e5 W/m2K (%v)", h, err))
+			if in.h, err = design.ParseValue[design.HCoef](h); err != nil {
+				return fail(ExitUsage, fmt.Errorf("--h %s: %v", h, err))
+			}
+			if !(in.h >= 0.1 && in.h <= 1e4) {
+				return fail(ExitUsage, fmt.Errorf("--h %s: allowed 0.1 to 10000 W/m2K", h))
 			}
 			a, err := materials.Lookup(alloy)
 			if err != nil {
@@ -82,8 +85,12 @@ fin width; annular profiles per fin.
 			}
 			in.k = a.Conductivity(in.tw)
 			if k != "" {
-				if in.k, err = design.ParseValue[design.Conductivity](k); err != nil || !(in.k > 0 && in.k < 5000) {
-					return fail(ExitUsage, fmt.Errorf("--k %s: a positive conductivity (%v)", k, err))
+				if in.k, err = design.ParseValue[design.Conductivity](k); err != nil {
+					return fail(ExitUsage, fmt.Errorf("--k %s: %v", k, err))
+				}
+				// the range of the custom alloys' conductivity
+				if !(in.k >= 1 && in.k <= 500) {
+					return fail(ExitUsage, fmt.Errorf("--k %s: allowed 1 to 500 W/mK", k))
 				}
 			}
 			return e.fin(in)

@@ -62,6 +62,31 @@ type Doc struct {
 
 // Write renders d to w in format f.
 func Write(w io.Writer, d Doc, f Format) error {
+	ew := &errWriter{w: w}
+	err := write(ew, d, f)
+	if err == nil {
+		err = ew.err
+	}
+	return err
+}
+
+// errWriter keeps the first write error, which the table renderer and
+// fmt.Fprintf would drop (a full disk must not pass for a written result).
+type errWriter struct {
+	w   io.Writer
+	err error
+}
+
+func (e *errWriter) Write(p []byte) (int, error) {
+	if e.err != nil {
+		return 0, e.err
+	}
+	n, err := e.w.Write(p)
+	e.err = err
+	return n, err
+}
+
+func write(w io.Writer, d Doc, f Format) error {
 	switch f {
 	case JSON:
 		enc := json.NewEncoder(w)
