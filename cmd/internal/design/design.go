@@ -200,8 +200,8 @@ func Parse(src []byte, name string) (*Design, error) {
 	if strings.TrimSpace(string(src)) == "" {
 		return nil, Errors{{File: name, Msg: "file is empty; write a starter design with `finmarch new design.toml`"}}
 	}
-	if !isText(src) {
-		return nil, Errors{{File: name, Msg: "file is not text (binary data or an unknown encoding); a design file is UTF-8 TOML"}}
+	if line, msg := textProblem(src); line > 0 {
+		return nil, Errors{{File: name, Line: line, Msg: msg}}
 	}
 	var f File
 	md, err := toml.Decode(string(src), &f)
@@ -224,6 +224,7 @@ func Parse(src []byte, name string) (*Design, error) {
 	if len(errs) > 0 {
 		return nil, errs
 	}
+	checkStrings(&f, add)
 	d := build(&f, md, name, add)
 	if len(errs) > 0 {
 		sort.SliceStable(errs, func(i, j int) bool { return errs[i].Line < errs[j].Line })
@@ -233,18 +234,29 @@ func Parse(src []byte, name string) (*Design, error) {
 	return d, nil
 }
 
-func isText(b []byte) bool {
-	if strings.ContainsRune(string(b), 0) {
-		return false
-	}
-	s := string(b)
-	bad := 0
-	for _, r := range s {
-		if r == '\uFFFD' || (r < 32 && r != '\n' && r != '\r' && r != '\t') {
-			bad++
+
+// checkStrings refuses control characters in the design's strings (a
+// terminal escape in a shared design's name could hide "OVER LIMIT").
+func checkStrings(f *File, add func(key, format string, a ...any)) {
+	check := func(key, s string) {
+		if r := controlChar(s); r >= 0 {
+			add(key, "holds the control character U+%04X; names and words in a design are plain text", r)
 		}
 	}
-	return bad == 0
+	check("name", f.Name)
+	for _, t := range []struct {
+		tbl string
+		s   FinSetT
+	}{{"head", f.Head}, {"barrel", f.Barrel}} {
+		check(t.tbl+".style", t.s.Style)
+		check(t.tbl+".alloy", t.s.Alloy)
+		check(t.tbl+".finish", t.s.Finish)
+	}
+	for n := range f.Alloys {
+		if r := controlChar(n); r >= 0 {
+			add("alloys", "an alloy name holds the control character U+%04X; names are plain text", r)
+		}
+	}
 }
 
 func decodeError(err error, name string) *Error {
