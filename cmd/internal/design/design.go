@@ -234,7 +234,6 @@ func Parse(src []byte, name string) (*Design, error) {
 	return d, nil
 }
 
-
 // checkStrings refuses control characters in the design's strings (a
 // terminal escape in a shared design's name could hide "OVER LIMIT").
 func checkStrings(f *File, add func(key, format string, a ...any)) {
@@ -320,10 +319,22 @@ func suggestKey(k toml.Key) string {
 			best, bd = cand, d
 		}
 	}
-	// a key placed in the wrong table
+	// a key placed in the wrong table: the first table that has it, in
+	// sorted order with the top level last (its entries are tables, not
+	// values), so that the suggestion is the same on every run
 	if bd > 2 {
-		for tbl, keys := range sc {
-			for _, cand := range keys {
+		tables := make([]string, 0, len(sc))
+		for tbl := range sc {
+			tables = append(tables, tbl)
+		}
+		sort.Slice(tables, func(i, j int) bool {
+			if (tables[i] == "") != (tables[j] == "") {
+				return tables[j] == ""
+			}
+			return tables[i] < tables[j]
+		})
+		for _, tbl := range tables {
+			for _, cand := range sc[tbl] {
 				if cand == leaf && tbl != parent && !strings.Contains(tbl, "*") {
 					return strings.TrimPrefix(tbl+"."+cand, ".")
 				}
@@ -359,8 +370,22 @@ func (l locator) line(key string) int {
 func locate(src string) locator {
 	l := locator{}
 	table := ""
+	inString := "" // the delimiter of an open multi-line string
 	for i, raw := range strings.Split(src, "\n") {
 		s := strings.TrimSpace(raw)
+		if inString != "" {
+			// a line inside a multi-line string is not a key or a header,
+			// whatever it holds
+			if strings.Count(s, inString)%2 == 1 {
+				inString = ""
+			}
+			continue
+		}
+		for _, q := range []string{`"""`, "'''"} {
+			if strings.Count(s, q)%2 == 1 {
+				inString = q
+			}
+		}
 		if s == "" || s[0] == '#' {
 			continue
 		}

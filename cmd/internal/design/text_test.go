@@ -74,3 +74,34 @@ func TestHostileShapes(t *testing.T) {
 		}
 	}
 }
+
+// A multi-line name holding "[head]" does not move the line reported for
+// a later key, and the suggestion for a key in the wrong table is the same
+// on every run (it was drawn from a map's order).
+func TestLocateAndSuggestDeterministic(t *testing.T) {
+	src := "name = \"\"\"x\n[head]\nstyle = 3\n\"\"\"\n" + minimal[strings.Index(minimal, "[cylinder]"):]
+	src = strings.Replace(src, `style = "annular"`, `style = "hexagonal"`, 1)
+	_, err := Parse([]byte(src), "x.toml")
+	es, _ := err.(Errors)
+	want := 1 + strings.Count(src[:strings.Index(src, `style = "hexagonal"`)], "\n")
+	found := false
+	for _, e := range es {
+		found = found || e.Key == "head.style" && e.Line == want
+	}
+	if !found {
+		t.Errorf("want head.style at line %d, got %v", want, err)
+	}
+	bad := strings.Replace(minimal, "[load]", "[load]\nhead = \"220 C\"", 1)
+	var first string
+	for i := 0; i < 50; i++ {
+		_, err := Parse([]byte(bad), "x.toml")
+		if i == 0 {
+			first = err.Error()
+		} else if err.Error() != first {
+			t.Fatalf("run %d suggests differently:\n%v\n%v", i, first, err)
+		}
+	}
+	if !strings.Contains(first, "limits.head") {
+		t.Errorf("no limits.head suggestion: %v", first)
+	}
+}
