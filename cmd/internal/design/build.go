@@ -27,6 +27,9 @@ type builder struct {
 	checks [64]rangeCheck
 	n      int
 	spill  []rangeCheck
+	// tables with a value outside its range: their cross-field rules would
+	// only repeat the range error in a stranger form (+Inf mm of length)
+	outOfRange map[string]bool
 }
 
 func (b *builder) queue(r rangeCheck) {
@@ -293,6 +296,11 @@ func (b *builder) ranges() {
 				msg += "; " + hint
 			}
 			b.add(r.key, "%s", strings.Replace(msg, "  ", " ", -1))
+			if b.outOfRange == nil {
+				b.outOfRange = map[string]bool{}
+			}
+			tbl, _, _ := strings.Cut(r.key, ".")
+			b.outOfRange[tbl] = true
 		}
 	}
 }
@@ -309,7 +317,7 @@ func (b *builder) crossRules() {
 		if set.Height > 0 && set.RootDiameter > 0 && set.Height > set.RootDiameter {
 			b.add(setKey(s.tbl, "height"), "%.4g mm fins on a %.4g mm root diameter are taller than the cylinder is wide; fins of this kind stay below the root diameter (common practice)", set.Height/mm, set.RootDiameter/mm)
 		}
-		if set.Count >= 1 && set.Pitch > 0 && set.Height > 0 && set.RootThickness > 0 && set.RootDiameter > 0 && set.Length > 0 && set.TipThickness >= 0 {
+		if !b.outOfRange[s.tbl] && !b.outOfRange["cylinder"] && set.Count >= 1 && set.Pitch > 0 && set.Height > 0 && set.RootThickness > 0 && set.RootDiameter > 0 && set.Length > 0 && set.TipThickness >= 0 {
 			if _, err := set.Geometry(); err != nil {
 				var fe *fins.FieldError
 				if errors.As(err, &fe) {
