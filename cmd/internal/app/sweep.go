@@ -240,7 +240,12 @@ func (e *env) sweep(d *design.Design, axes sweep.Grid, total, workers, top int, 
 	}
 	defer dst.Abort()
 	if e.opt.out != "" && e.opt.out != "-" {
+		// rows to the file and the summary to the screen; a table or
+		// Markdown sweep has no rows, so its summary is the file
 		summaryTo = e.stdout
+		if !streaming {
+			summaryTo = dst
+		}
 	}
 	header := sweepHeader(axes, u)
 	st := output.NewStream(dst, f, header)
@@ -263,8 +268,10 @@ func (e *env) sweep(d *design.Design, axes sweep.Grid, total, workers, top int, 
 	if err := st.Close(); err != nil {
 		return fail(ExitIO, fmt.Errorf("writing the sweep: %w", err))
 	}
-	if err := dst.Commit(); err != nil {
-		return err
+	if streaming { // the rows are safe before the summary goes to the screen
+		if err := dst.Commit(); err != nil {
+			return err
+		}
 	}
 	sf := output.Table
 	if f == output.Markdown {
@@ -272,6 +279,11 @@ func (e *env) sweep(d *design.Design, axes sweep.Grid, total, workers, top int, 
 	}
 	if err := output.Write(summaryTo, sweepSummary(d, axes, sum, total, workers, top, header, u), sf); err != nil {
 		return fail(ExitIO, err)
+	}
+	if !streaming {
+		if err := dst.Commit(); err != nil {
+			return err
+		}
 	}
 	if fi := sum.FirstInvalid; sum.Counts[sweep.StatusInvalid] == total && fi != nil {
 		return fail(ExitDesign, fmt.Errorf("every point of the sweep breaks a design rule, so none was estimated; point %d: %s", fi.Index, fi.Note))

@@ -1,0 +1,205 @@
+package app
+
+import (
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+	"syscall"
+	"testing"
+	"time"
+)
+
+// The command line and the file layer against hostile input: each case
+// runs the real command and checks the exit code (never 6, the bug code,
+// for a user's mistake), a fragment of the message naming the flag, key
+// or path, and what it must not change. Device nodes, FIFOs and links are
+// made in a temporary folder.
+func TestHostileCommandLine(t *testing.T) {
+	up, _ := designs(t)
+	dir := filepath.Dir(up)
+	fifo := filepath.Join(dir, "pipe")
+	if err := syscall.Mkfifo(fifo, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	sub := filepath.Join(dir, "sub")
+	if err := os.Mkdir(sub, 0o755); err != nil {
+		t.Fatal(err)
+	}
+	link := filepath.Join(dir, "link.toml")
+	if err := os.Symlink(up, link); err != nil {
+		t.Fatal(err)
+	}
+	dangling := filepath.Join(dir, "dangling")
+	if err := os.Symlink(filepath.Join(dir, "nowhere"), dangling); err != nil {
+		t.Fatal(err)
+	}
+	before, _ := os.ReadFile(up)
+	cases := []struct {
+		name string
+		args []string
+		code int
+		frag string
+	}{
+		{"segments negative", []string{"--segments", "-5"}, ExitUsage, "--segments -5: allowed 1 to 10000"},
+		{"segments zero", []string{"--segments", "0"}, ExitUsage, "--segments 0"},
+		{"negative speed on the demo", []string{"demo", "--speed", "-10 km/h"}, ExitUsage, `--speed "-10 km/h"`},
+		{"altitude on the report's demo", []string{"report", "--altitude", "20 km", "-o", filepath.Join(dir, "r.html")}, ExitUsage, `--altitude "20 km"`},
+		{"limit typo", []string{"optimise", up, "--goal", "light", "--limit", "2200 C"}, ExitUsage, "limits.head: 2200 C is outside the allowed range"},
+		{"limit below zero", []string{"optimise", up, "--goal", "light", "--limit", "-300 C"}, ExitUsage, `--limit "-300 C"`},
+		{"duplicate vary", []string{"sweep", up, "--vary", "head.pitch=6mm:8mm:2mm", "--vary", "head.pitch=10mm,12mm"}, ExitUsage, "--vary head.pitch is given twice"},
+		{"huge worker count", []string{"sweep", up, "--vary", "head.pitch=6mm:8mm:2mm", "--workers", "1000000000"}, ExitUsage, "--workers 1000000000"},
+		{"negative worker count", []string{"sweep", up, "--vary", "head.pitch=6mm:8mm:2mm", "--workers", "-3"}, ExitUsage, "--workers -3"},
+		{"tiny conductivity", []string{"fin", "--height", "30mm", "--root-thickness", "4mm", "--h", "60 W/m2K", "--k", "1e-200 W/mK", "-f", "json"}, ExitUsage, "--k 1e-200 W/mK: allowed 1 to 500"},
+		{"output onto the design", []string{"estimate", up, "-o", up, "--force"}, ExitIO, "is the design file"},
+		{"output onto a link to the design", []string{"estimate", up, "-o", link, "--force"}, ExitIO, "is the design file"},
+		{"output onto a directory", []string{"estimate", up, "-o", sub, "--force"}, ExitIO, "is a directory"},
+		{"output onto a dangling link", []string{"estimate", up, "-o", dangling}, ExitIO, "a link to nothing"},
+		{"output into a FIFO with no reader", []string{"estimate", up, "-o", fifo}, ExitIO, "cannot write " + fifo},
+		{"design is a FIFO", []string{"estimate", fifo}, ExitIO, "a FIFO, not a regular file"},
+		{"design is a directory", []string{"estimate", sub}, ExitIO, "a directory, not a regular file"},
+		{"design is a character device", []string{"estimate", "/dev/zero"}, ExitIO, "a character device, not a regular file"},
+		{"missing design", []string{"estimate", filepath.Join(dir, "none.toml")}, ExitIO, "cannot read the design"},
+	}
+	if _, err := os.Stat("/dev/full"); err == nil {
+		cases = append(cases,
+			struct {
+				name string
+				args []string
+				code int
+				frag string
+			}{"full device", []string{"estimate", up, "-o", "/dev/full"}, ExitIO, "no space left"},
+			struct {
+				name string
+				args []string
+				code int
+				frag string
+			}{"full device, sweep table", []string{"sweep", up, "--vary", "head.pitch=6mm:8mm:2mm", "-o", "/dev/full"}, ExitIO, "no space left"})
+	}
+	for _, c := range cases {
+		done := make(chan struct{})
+		var errs string
+		var code int
+		go func() {
+			_, errs, code = run(t, c.args...)
+			close(done)
+		}()
+		select {
+		case <-done:
+		case <-time.After(20 * time.Second):
+			t.Fatalf("%s: hangs", c.name)
+		}
+		if code != c.code || !strings.Contains(errs, c.frag) {
+			t.Errorf("%s: exit %d (want %d), message %q lacks %q", c.name, code, c.code, errs, c.frag)
+		}
+	}
+	if after, _ := os.ReadFile(up); string(after) != string(before) {
+		t.Error("the design file was changed")
+	}
+	if fi, err := os.Lstat(fifo); err != nil || fi.Mode()&os.ModeNamedPipe == 0 {
+		t.Error("the FIFO was replaced")
+	}
+	if fi, err := os.Lstat(link); err != nil || fi.Mode()&os.ModeSymlink == 0 {
+		t.Error("the link was replaced")
+	}
+}
+
+// Streams and modes: /dev/null and - take the output as a stream and stay
+// what they are; a replaced file keeps its mode; a new one gets 0666 less
+// the umask (022 in tests: 0644).
+func TestOutputStreamsAndModes(t *testing.T) {
+	up, _ := designs(t)
+	dir := filepath.Dir(up)
+	for _, o := range []string{"/dev/null", "-"} {
+		if out, errs, code := run(t, "estimate", up, "-o", o, "--force", "-q"); code != 0 {
+			t.Fatalf("-o %s: exit %d %s", o, code, errs)
+		} else if o == "-" && !strings.Contains(out, "Heat balance") {
+			t.Errorf("-o - wrote nothing to standard output")
+		}
+	}
+	if fi, err := os.Stat("/dev/null"); err != nil || fi.Mode()&os.ModeCharDevice == 0 {
+		t.Fatal("/dev/null is no longer a device")
+	}
+	old := syscall.Umask(0o022)
+	defer syscall.Umask(old)
+	out := filepath.Join(dir, "out.txt")
+	if _, errs, code := run(t, "estimate", up, "-o", out, "-q"); code != 0 {
+		t.Fatal(errs)
+	}
+	if fi, _ := os.Stat(out); fi.Mode().Perm() != 0o644 {
+		t.Errorf("new file mode %o, want 644", fi.Mode().Perm())
+	}
+	if err := os.Chmod(out, 0o600); err != nil {
+		t.Fatal(err)
+	}
+	if _, errs, code := run(t, "estimate", up, "-o", out, "--force", "-q"); code != 0 {
+		t.Fatal(errs)
+	}
+	if fi, _ := os.Stat(out); fi.Mode().Perm() != 0o600 {
+		t.Errorf("replaced file mode %o, want 600 kept", fi.Mode().Perm())
+	}
+	if names, _ := filepath.Glob(filepath.Join(dir, ".finmarch-*")); len(names) != 0 {
+		t.Errorf("temporary files left: %v", names)
+	}
+}
+
+// Signals: SIGTERM during a long sweep to a file leaves the earlier file as
+// it was and no temporary file; after SIGKILL (which nothing can catch) the
+// next run removes the dead run's temporary file once it is a minute old.
+func TestSignalsLeaveNoPartialFile(t *testing.T) {
+	if testing.Short() {
+		t.Skip("builds the command")
+	}
+	up, _ := designs(t)
+	dir := filepath.Dir(up)
+	bin := filepath.Join(t.TempDir(), "finmarch")
+	if out, err := exec.Command("go", "build", "-o", bin, "finmarch/cmd/finmarch").CombinedOutput(); err != nil {
+		t.Fatalf("build: %v\n%s", err, out)
+	}
+	target := filepath.Join(dir, "big.csv")
+	if err := os.WriteFile(target, []byte("earlier\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	long := []string{"sweep", up, "--vary", "head.pitch=5mm:14.99mm:0.01mm", "--vary", "air.speed=30km/h:129km/h:1km/h",
+		"-f", "csv", "-o", target, "--force", "-q"}
+	temps := func() []string {
+		n, _ := filepath.Glob(filepath.Join(dir, ".finmarch-*.tmp"))
+		return n
+	}
+	for _, sig := range []syscall.Signal{syscall.SIGTERM, syscall.SIGINT, syscall.SIGKILL} {
+		cmd := exec.Command(bin, long...)
+		if err := cmd.Start(); err != nil {
+			t.Fatal(err)
+		}
+		deadline := time.Now().Add(10 * time.Second)
+		for len(temps()) == 0 && time.Now().Before(deadline) {
+			time.Sleep(20 * time.Millisecond)
+		}
+		if len(temps()) == 0 {
+			t.Fatalf("%v: the sweep made no temporary file", sig)
+		}
+		_ = cmd.Process.Signal(sig)
+		_ = cmd.Wait()
+		if b, _ := os.ReadFile(target); string(b) != "earlier\n" {
+			t.Errorf("%v: the earlier file changed", sig)
+		}
+		left := temps()
+		if sig != syscall.SIGKILL {
+			if len(left) != 0 {
+				t.Errorf("%v left %v", sig, left)
+			}
+			continue
+		}
+		if len(left) != 1 {
+			t.Fatalf("after SIGKILL: %v", left)
+		}
+		old := time.Now().Add(-2 * time.Minute)
+		_ = os.Chtimes(left[0], old, old)
+		if out, err := exec.Command(bin, "estimate", up, "-o", filepath.Join(dir, "later.txt"), "-q").CombinedOutput(); err != nil {
+			t.Fatalf("later run: %v %s", err, out)
+		}
+		if l := temps(); len(l) != 0 {
+			t.Errorf("a later run left the dead run's file: %v", l)
+		}
+	}
+}
