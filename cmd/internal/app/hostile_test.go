@@ -138,6 +138,11 @@ func TestOutputStreamsAndModes(t *testing.T) {
 	if fi, _ := os.Stat(out); fi.Mode().Perm() != 0o600 {
 		t.Errorf("replaced file mode %o, want 600 kept", fi.Mode().Perm())
 	}
+	// a name of 245 characters: the temporary name beside it stays short
+	long := filepath.Join(dir, strings.Repeat("n", 241)+".txt")
+	if _, errs, code := run(t, "estimate", up, "-o", long, "-q"); code != 0 {
+		t.Errorf("a 245-character name: exit %d %s", code, errs)
+	}
 	if names, _ := filepath.Glob(filepath.Join(dir, ".finmarch-*")); len(names) != 0 {
 		t.Errorf("temporary files left: %v", names)
 	}

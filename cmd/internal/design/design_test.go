@@ -7,6 +7,7 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
 
 	"finmarch/cmd/internal/demo"
 	"finmarch/fins"
@@ -259,7 +260,14 @@ func FuzzParse(f *testing.F) {
 	f.Add([]byte(edit(minimal, `pitch = "9 mm"`, `pitch = "nan mm"`)))
 	f.Add([]byte("[head]\ncount = 1e400\n"))
 	f.Fuzz(func(t *testing.T, b []byte) {
+		// a budget per input: any file up to the size limit parses or is
+		// refused in well under a second (TestHostileShapes measures the
+		// worst shapes at milliseconds; 2 s leaves room for a loaded machine)
+		start := time.Now()
 		d, err := Parse(b, "fuzz.toml")
+		if took := time.Since(start); took > 2*time.Second {
+			t.Fatalf("%d bytes took %v", len(b), took)
+		}
 		if err != nil {
 			return
 		}
