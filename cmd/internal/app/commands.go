@@ -45,6 +45,10 @@ func parseSpeedRange(from, to, step string) ([3]float64, error) {
 		if err != nil {
 			return v, fail(ExitUsage, fmt.Errorf("%s: %w", s.name, err))
 		}
+		// the range of the design file's air.speed
+		if i < 2 && !(x >= 0 && x <= 400/3.6) {
+			return v, fail(ExitUsage, fmt.Errorf("%s %s: allowed 0 to 400 km/h (the range of air.speed)", s.name, s.val))
+		}
 		v[i] = x
 	}
 	return v, nil

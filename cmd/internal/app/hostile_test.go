@@ -50,6 +50,7 @@ func TestHostileCommandLine(t *testing.T) {
 		{"duplicate vary", []string{"sweep", up, "--vary", "head.pitch=6mm:8mm:2mm", "--vary", "head.pitch=10mm,12mm"}, ExitUsage, "--vary head.pitch is given twice"},
 		{"huge worker count", []string{"sweep", up, "--vary", "head.pitch=6mm:8mm:2mm", "--workers", "1000000000"}, ExitUsage, "--workers 1000000000"},
 		{"negative worker count", []string{"sweep", up, "--vary", "head.pitch=6mm:8mm:2mm", "--workers", "-3"}, ExitUsage, "--workers -3"},
+		{"speed range past the design's", []string{"speeds", up, "--from", "0 km/h", "--to", "900 km/h", "--step", "100 km/h"}, ExitUsage, "--to 900 km/h: allowed 0 to 400 km/h"},
 		{"tiny conductivity", []string{"fin", "--height", "30mm", "--root-thickness", "4mm", "--h", "60 W/m2K", "--k", "1e-200 W/mK", "-f", "json"}, ExitUsage, "--k 1e-200 W/mK: allowed 1 to 500"},
 		{"output onto the design", []string{"estimate", up, "-o", up, "--force"}, ExitIO, "is the design file"},
 		{"output onto a link to the design", []string{"estimate", up, "-o", link, "--force"}, ExitIO, "is the design file"},
