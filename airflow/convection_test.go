@@ -64,17 +64,25 @@ func TestShahFrictionLimits(t *testing.T) {
 	}
 }
 
+// colebrook solves the Colebrook equation for a smooth pipe,
+// 1/sqrt(f) = -2 log10(2.51/(Re sqrt(f))) (Colebrook 1939), for the Darcy
+// factor by fixed-point iteration.
+func colebrook(re float64) float64 {
+	f := 0.02
+	for i := 0; i < 100; i++ {
+		x := -2 * math.Log10(2.51/(re*math.Sqrt(f)))
+		f = 1 / (x * x)
+	}
+	return f
+}
+
 // Petukhov (kept as a cross-check of Konakov) against the Colebrook equation for smooth pipes, 1/sqrt(f) =
 // -2 log10(2.51/(Re sqrt(f))) (Colebrook 1939), solved here by fixed-point
 // iteration: the two agree within 2% above Re = 1e4 and within 4% at the
 // low end near 3000-4000 (computed here); tolerance 4%.
 func TestPetukhovAgainstColebrook(t *testing.T) {
 	for _, re := range []float64{4e3, 1e4, 1e5, 1e6, 5e6} {
-		f := 0.02
-		for i := 0; i < 100; i++ {
-			x := -2 * math.Log10(2.51/(re*math.Sqrt(f)))
-			f = 1 / (x * x)
-		}
+		f := colebrook(re)
 		if r := rel(PetukhovFriction(re, nil), f); r > 0.04 {
 			t.Errorf("Re = %g: Petukhov %.5f, Colebrook %.5f", re, PetukhovFriction(re, nil), f)
 		}
@@ -235,11 +243,7 @@ func BenchmarkChannel(b *testing.B) {
 // quotes +-10% for the Moody chart as a whole); tolerance 3%.
 func TestKonakovAgainstColebrookAndPetukhov(t *testing.T) {
 	for _, re := range []float64{1e4, 3e4, 1e5, 3e5, 1e6} {
-		f := 0.02
-		for i := 0; i < 100; i++ {
-			x := -2 * math.Log10(2.51/(re*math.Sqrt(f)))
-			f = 1 / (x * x)
-		}
+		f := colebrook(re)
 		k := KonakovFriction(re, nil)
 		if rel(k, f) > 0.03 || rel(k, PetukhovFriction(re, nil)) > 0.03 {
 			t.Errorf("Re = %g: Konakov %.5f, Colebrook %.5f, Petukhov %.5f", re, k, f, PetukhovFriction(re, nil))
