@@ -31,6 +31,11 @@ func (c Case) Balance(load HeatLoad, s Settings) (Result, error) {
 		tin = hm.tOut
 	}
 	br, _, errB := p.solveWall(&p.sets[barrel], tin, load.Barrel)
+	if p.series && errors.Is(errH, ErrNoEquilibrium) {
+		// the barrel's air comes from a head at the search's cap, a state
+		// the head never reaches: the barrel's wall is not determined
+		br.Equilibrium = false
+	}
 	res := p.result(hr, br, &log, errH == nil && errB == nil)
 	return res, errors.Join(errH, errB)
 }
@@ -50,12 +55,14 @@ func (c Case) AtWall(headT, barrelT float64, s Settings) (Result, error) {
 	}
 	hr, hm := p.setHeat(&p.sets[head], headT, c.Ambient, true)
 	own(&hr)
+	hr.Equilibrium = true // a given wall is a state, not a search
 	tin := c.Ambient
 	if p.series {
 		tin = hm.tOut
 	}
 	br, _ := p.setHeat(&p.sets[barrel], barrelT, tin, true)
 	own(&br)
+	br.Equilibrium = true
 	return p.result(hr, br, &log, true), nil
 }
 
@@ -99,6 +106,7 @@ func (p *prepared) solveWall(st *setState, tin, q float64) (SetResult, marchOut,
 		r, m := p.setHeat(st, tin+1e-9, tin, true)
 		own(&r)
 		p.log = keep
+		r.Equilibrium = true
 		return r, m, nil
 	}
 	w := &wallSearch{p: p, st: st, tin: tin, q: q, keep: p.log, memoX: math.NaN(), full: p.n}
@@ -122,6 +130,7 @@ func (p *prepared) solveWall(st *setState, tin, q float64) (SetResult, marchOut,
 	m.seg = r.March
 	r.HeatLoad = q
 	r.LoadImbalance = math.Abs(r.HeatRejected-q) / q
+	r.Equilibrium = true
 	return r, m, nil
 }
 
@@ -239,6 +248,7 @@ func (w *wallSearch) failed(err error) (SetResult, marchOut, error) {
 		own(&r)
 		r.HeatLoad = w.q
 		r.LoadImbalance = math.Abs(r.HeatRejected-w.q) / w.q
+		r.Shortfall = w.q - r.HeatRejected
 		return r, m, fmt.Errorf("%w for the %s fins: at %.0f C wall temperature they reject only %.0f W of the %.0f W load; add fin area, improve the air supply to the fins (pressure recovery, ducting), or lower the heat load",
 			ErrNoEquilibrium, fs.Name, SaneWallLimit-273.15, r.HeatRejected, w.q)
 	}

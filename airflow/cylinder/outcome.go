@@ -76,10 +76,13 @@ func (d Design) Evaluate(s Settings) (Outcome, error) {
 	return o, o.check()
 }
 
-// HeadMargin is the head limit less the head wall temperature, K.
+// HeadMargin is the head limit less the head wall temperature, K; with no
+// equilibrium at the head it is the limit less the search's cap, a bound
+// (the head runs hotter), and the status says so.
 func (o Outcome) HeadMargin() float64 { return o.Limits.Head - o.Result.Head.WallTemp }
 
-// BarrelMargin is the barrel limit less the barrel wall temperature, K.
+// BarrelMargin is the barrel limit less the barrel wall temperature, K
+// (a bound with no equilibrium, as HeadMargin).
 func (o Outcome) BarrelMargin() float64 { return o.Limits.Barrel - o.Result.Barrel.WallTemp }
 
 // WithinLimits reports whether both walls are at or below their limits.

@@ -1,7 +1,11 @@
 package cylinder
 
 import (
+	"encoding/json"
 	"errors"
+	"math"
+	"strconv"
+	"strings"
 	"testing"
 )
 
@@ -64,5 +68,39 @@ func TestEvaluate(t *testing.T) {
 	n, err := d.Evaluate(Settings{})
 	if err != nil || !errors.Is(n.NoEquilibrium, ErrNoEquilibrium) || n.Status() != StatusNoEquilibrium {
 		t.Errorf("no equilibrium: err %v, outcome %v", err, n.NoEquilibrium)
+	}
+}
+
+// No equilibrium is a state: the set says so, with the heat it cannot
+// reject at the search's cap, its JSON wall temperature is null (never the
+// cap as a temperature), and on a series path the barrel behind such a
+// head has no determined wall either.
+func TestNoEquilibriumIsAState(t *testing.T) {
+	for _, lo := range []bool{false, true} {
+		c := demoCase(t, lo)
+		r, err := c.Balance(HeatLoad{Head: 40000, Barrel: 300}, Settings{})
+		if !errors.Is(err, ErrNoEquilibrium) {
+			t.Fatalf("laid over %v: %v", lo, err)
+		}
+		h := r.Head
+		if h.Equilibrium || !(h.Shortfall > 0) || math.Abs(h.HeatLoad-h.HeatRejected-h.Shortfall) > 1e-9 {
+			t.Errorf("laid over %v: head %+v", lo, h)
+		}
+		b, _ := json.Marshal(h)
+		var m map[string]any
+		if err := json.Unmarshal(b, &m); err != nil {
+			t.Fatal(err)
+		}
+		if v, ok := m["wall_temperature_K"]; !ok || v != nil || m["equilibrium"] != false {
+			t.Errorf("laid over %v: JSON wall %v, equilibrium %v", lo, v, m["equilibrium"])
+		}
+		if r.Barrel.Equilibrium == lo {
+			t.Errorf("laid over %v: barrel equilibrium %v (a series barrel behind a head with none has none)", lo, r.Barrel.Equilibrium)
+		}
+	}
+	ok := mustBalance(t, demoCase(t, false), demoLoad)
+	b, _ := json.Marshal(ok.Head)
+	if !strings.Contains(string(b), `"wall_temperature_K":`+strconv.FormatFloat(ok.Head.WallTemp, 'g', -1, 64)) {
+		t.Errorf("an equilibrium's wall missing from %s", b)
 	}
 }

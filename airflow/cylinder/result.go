@@ -1,6 +1,7 @@
 package cylinder
 
 import (
+	"encoding/json"
 	"errors"
 	"math"
 
@@ -22,18 +23,24 @@ type Segment struct {
 
 // SetResult is the outcome for one fin set.
 type SetResult struct {
-	Name              string    `json:"name"`
-	Style             string    `json:"style"`
-	HeatLoad          float64   `json:"heat_load_W"`
-	HeatRejected      float64   `json:"heat_rejected_W"`
-	ForcedHeat        float64   `json:"forced_heat_W"`   // passages and envelope combined
-	PassageHeat       float64   `json:"passage_heat_W"`  // the march along the fin passages
-	EnvelopeHeat      float64   `json:"envelope_heat_W"` // the air over the fin envelope
-	EnvelopeH         float64   `json:"envelope_h_W_m2K"`
-	NaturalHeat       float64   `json:"natural_heat_W"`
-	ConvectionHeat    float64   `json:"convection_heat_W"`
-	RadiationHeat     float64   `json:"radiation_heat_W"`
+	Name           string  `json:"name"`
+	Style          string  `json:"style"`
+	HeatLoad       float64 `json:"heat_load_W"`
+	HeatRejected   float64 `json:"heat_rejected_W"`
+	ForcedHeat     float64 `json:"forced_heat_W"`   // passages and envelope combined
+	PassageHeat    float64 `json:"passage_heat_W"`  // the march along the fin passages
+	EnvelopeHeat   float64 `json:"envelope_heat_W"` // the air over the fin envelope
+	EnvelopeH      float64 `json:"envelope_h_W_m2K"`
+	NaturalHeat    float64 `json:"natural_heat_W"`
+	ConvectionHeat float64 `json:"convection_heat_W"`
+	RadiationHeat  float64 `json:"radiation_heat_W"`
+	// WallTemp is the wall at the fin roots, K. Without an equilibrium
+	// (Equilibrium false) it is the search's cap, SaneWallLimit, where the
+	// set falls Shortfall short of its load: not a temperature the set
+	// reaches (the JSON gives null).
 	WallTemp          float64   `json:"wall_temperature_K"`
+	Equilibrium       bool      `json:"equilibrium"`
+	Shortfall         float64   `json:"heat_shortfall_W"` // W, load less the heat rejected at the cap, with no equilibrium
 	MeanH             float64   `json:"mean_h_W_m2K"`
 	NaturalH          float64   `json:"natural_h_W_m2K"`
 	FinEfficiency     float64   `json:"fin_efficiency"`
@@ -54,6 +61,19 @@ type SetResult struct {
 	AirImbalance      float64   `json:"air_imbalance"`       // |enthalpy rise - passage heat| / passage heat
 	LoadImbalance     float64   `json:"load_imbalance"`      // |heat rejected - load| / load; 0 at fixed walls or no load
 	March             []Segment `json:"march"`
+}
+
+// MarshalJSON writes the set with a null wall temperature when it has no
+// equilibrium, so that no script reads the search's cap as a temperature.
+func (r SetResult) MarshalJSON() ([]byte, error) {
+	type plain SetResult
+	if r.Equilibrium {
+		return json.Marshal(plain(r))
+	}
+	return json.Marshal(struct {
+		plain
+		WallTemp *float64 `json:"wall_temperature_K"`
+	}{plain: plain(r)})
 }
 
 // Result is the outcome for one cylinder.

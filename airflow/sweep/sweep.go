@@ -64,6 +64,9 @@ type Row struct {
 	HeatPerFinMass float64 // W/kg
 	HeadFins       int
 	BarrelFins     int
+	// HeadEquilibrium and BarrelEquilibrium say which set has one; without
+	// it the set's wall and margin are the search's cap, not temperatures
+	HeadEquilibrium, BarrelEquilibrium bool
 }
 
 // Within reports whether the row reached an equilibrium within both limits.
@@ -142,6 +145,7 @@ func evalPoint(g Grid, i int, build Builder, ws *cylinder.Workspace) Row {
 		return r
 	}
 	r.Evaluated, r.Equilibrium = true, o.NoEquilibrium == nil
+	r.HeadEquilibrium, r.BarrelEquilibrium = o.Result.Head.Equilibrium, o.Result.Barrel.Equilibrium
 	r.HeadFins, r.BarrelFins = d.Case.Head.Set.Count, d.Case.Barrel.Set.Count
 	r.HeadWall, r.BarrelWall = o.Result.Head.WallTemp, o.Result.Barrel.WallTemp
 	r.HeadMargin, r.BarrelMargin = o.HeadMargin(), o.BarrelMargin()

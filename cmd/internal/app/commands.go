@@ -5,6 +5,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"finmarch/airflow/cylinder"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
 )
@@ -19,6 +20,34 @@ const (
 
 func fmtT(u output.Units, k float64) string  { return output.Num(u.Of(output.Temp, k), 1) }
 func fmtDT(u output.Units, k float64) string { return output.Num(u.Of(output.TempDiff, k), 1) }
+
+// noEquilibrium is what the tables show for a set's wall temperature when
+// it has none below the search's cap: a state, never a temperature.
+const noEquilibrium = "no equilibrium"
+
+// wallText is a set's wall temperature, or noEquilibrium.
+func wallText(u output.Units, r cylinder.SetResult) string {
+	if !r.Equilibrium {
+		return noEquilibrium
+	}
+	return fmtT(u, r.WallTemp)
+}
+
+// marginText is a set's margin to its limit, or "-" without an equilibrium.
+func marginText(u output.Units, r cylinder.SetResult, margin float64) string {
+	if !r.Equilibrium {
+		return "-"
+	}
+	return fmtDT(u, margin)
+}
+
+// marginJSON is a margin for the JSON: null without an equilibrium.
+func marginJSON(r cylinder.SetResult, margin float64) any {
+	if !r.Equilibrium {
+		return nil
+	}
+	return margin
+}
 
 // oneDesign builds a command that reads one design file and runs fn on it.
 func (e *env) oneDesign(use, short string, fn func(*design.Design) error) *cobra.Command {

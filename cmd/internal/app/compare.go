@@ -68,10 +68,10 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 	add("heat load head / barrel", "W", func(o outcome) string {
 		return output.Num(o.Result.Head.HeatLoad, 0) + " / " + output.Num(o.Result.Barrel.HeatLoad, 0)
 	})
-	add("head temperature", u.Name(output.Temp), func(o outcome) string { return fmtT(u, o.Result.Head.WallTemp) })
-	add("barrel temperature", u.Name(output.Temp), func(o outcome) string { return fmtT(u, o.Result.Barrel.WallTemp) })
-	add("head margin to limit", u.Name(output.TempDiff), func(o outcome) string { return fmtDT(u, o.HeadMargin()) })
-	add("barrel margin to limit", u.Name(output.TempDiff), func(o outcome) string { return fmtDT(u, o.BarrelMargin()) })
+	add("head temperature", u.Name(output.Temp), func(o outcome) string { return wallText(u, o.Result.Head) })
+	add("barrel temperature", u.Name(output.Temp), func(o outcome) string { return wallText(u, o.Result.Barrel) })
+	add("head margin to limit", u.Name(output.TempDiff), func(o outcome) string { return marginText(u, o.Result.Head, o.HeadMargin()) })
+	add("barrel margin to limit", u.Name(output.TempDiff), func(o outcome) string { return marginText(u, o.Result.Barrel, o.BarrelMargin()) })
 	add("status", "", func(o outcome) string { return string(o.Status()) })
 	add("passage velocity head / barrel", u.Name(output.Vel), func(o outcome) string {
 		return output.Num(u.Of(output.Vel, o.Result.Head.PassageVelocity), 1) + " / " + output.Num(u.Of(output.Vel, o.Result.Barrel.PassageVelocity), 1)
@@ -109,7 +109,7 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 	var js []map[string]any
 	for _, o := range os {
 		js = append(js, map[string]any{"design": o.d.Name, "source": o.d.Source, "load": o.Load, "result": o.Result,
-			"head_margin_K": o.HeadMargin(), "barrel_margin_K": o.BarrelMargin(), "status": o.Status(),
+			"head_margin_K": marginJSON(o.Result.Head, o.HeadMargin()), "barrel_margin_K": marginJSON(o.Result.Barrel, o.BarrelMargin()), "status": o.Status(),
 			"equilibrium": o.NoEquilibrium == nil, "energy_imbalance": o.Result.MaxImbal})
 	}
 	doc.JSON = map[string]any{"designs": js, "notes": doc.Notes, "warnings": doc.Warnings, "caution": output.Caution}
@@ -121,7 +121,11 @@ func explain(u output.Units, a, b outcome, la, lb rune) string {
 	dh := b.Result.Head.WallTemp - a.Result.Head.WallTemp
 	db := b.Result.Barrel.WallTemp - a.Result.Barrel.WallTemp
 	word := func(d float64) string {
-		if d >= 0 {
+		switch {
+		case !a.Result.Head.Equilibrium || !b.Result.Head.Equilibrium || !a.Result.Barrel.Equilibrium || !b.Result.Barrel.Equilibrium:
+			// no difference of temperatures where one is the search's cap
+			return "with no equilibrium on one side, no difference to give"
+		case d >= 0:
 			return fmt.Sprintf("%s %s hotter", output.Num(u.Of(output.TempDiff, d), 0), u.Name(output.TempDiff))
 		}
 		return fmt.Sprintf("%s %s cooler", output.Num(u.Of(output.TempDiff, -d), 0), u.Name(output.TempDiff))

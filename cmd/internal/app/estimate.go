@@ -69,9 +69,9 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 	)
 	if !o.Fixed {
 		g.Rows = append(g.Rows,
-			row("wall temperature at fin roots", u.Name(output.Temp), pair(func(r cylinder.SetResult) string { return fmtT(u, r.WallTemp) })),
+			row("wall temperature at fin roots", u.Name(output.Temp), pair(func(r cylinder.SetResult) string { return wallText(u, r) })),
 			row("limit", u.Name(output.Temp), []string{fmtT(u, d.HeadLimit), fmtT(u, d.BarrelLimit)}),
-			row("margin to limit", u.Name(output.TempDiff), []string{fmtDT(u, o.HeadMargin()), fmtDT(u, o.BarrelMargin())}),
+			row("margin to limit", u.Name(output.TempDiff), []string{marginText(u, h, o.HeadMargin()), marginText(u, b, o.BarrelMargin())}),
 			row("status", "", []string{setStatus(o.NoEquilibrium, h, o.HeadMargin()), setStatus(o.NoEquilibrium, b, o.BarrelMargin())}),
 		)
 	}
@@ -118,14 +118,16 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		"design":         d.Name, "source": d.Source, "tilt_deg": c.Tilt * 180 / math.Pi, "speed_m_s": c.Speed,
 		"ambient_K": c.Ambient, "pressure_Pa": c.Pressure, "altitude_m": d.Altitude,
 		"load": o.Load, "result": o.Result, "head_limit_K": d.HeadLimit, "barrel_limit_K": d.BarrelLimit,
-		"head_margin_K": o.HeadMargin(), "barrel_margin_K": o.BarrelMargin(), "status": o.Status(),
+		"head_margin_K": marginJSON(h, o.HeadMargin()), "barrel_margin_K": marginJSON(b, o.BarrelMargin()), "status": o.Status(),
 		"fixed_walls": o.Fixed, "equilibrium": o.NoEquilibrium == nil, "energy_imbalance": o.Result.MaxImbal,
 		"warnings": doc.Warnings, "defaults_applied": d.Defaults, "caution": output.Caution,
 	}
 	return doc, o, nil
 }
 
-// limitAlerts says which wall is over its limit, and by how much.
+// limitAlerts says which wall is over its limit, and by how much, or which
+// set finds no equilibrium below the search's cap and how much heat it
+// cannot reject there.
 func limitAlerts(u output.Units, o outcome) []string {
 	if o.Fixed {
 		return nil
@@ -133,13 +135,17 @@ func limitAlerts(u output.Units, o outcome) []string {
 	var out []string
 	for _, x := range []struct {
 		name   string
-		wall   float64
+		r      cylinder.SetResult
 		limit  float64
 		margin float64
-	}{{"head", o.Result.Head.WallTemp, o.d.HeadLimit, o.HeadMargin()}, {"barrel", o.Result.Barrel.WallTemp, o.d.BarrelLimit, o.BarrelMargin()}} {
-		if x.margin < 0 {
+	}{{"head", o.Result.Head, o.d.HeadLimit, o.HeadMargin()}, {"barrel", o.Result.Barrel, o.d.BarrelLimit, o.BarrelMargin()}} {
+		switch {
+		case !x.r.Equilibrium:
+			out = append(out, fmt.Sprintf("%s: the %s fins find no equilibrium below %s %s: there they reject %.0f W of the %.0f W load, %.0f W short",
+				o.d.Name, x.name, fmtT(u, cylinder.SaneWallLimit), u.Name(output.Temp), x.r.HeatRejected, x.r.HeatLoad, x.r.Shortfall))
+		case x.margin < 0:
 			out = append(out, fmt.Sprintf("%s: the %s runs at %s %s, %s %s over its %s %s limit",
-				o.d.Name, x.name, fmtT(u, x.wall), u.Name(output.Temp), fmtDT(u, -x.margin), u.Name(output.TempDiff), fmtT(u, x.limit), u.Name(output.Temp)))
+				o.d.Name, x.name, fmtT(u, x.r.WallTemp), u.Name(output.Temp), fmtDT(u, -x.margin), u.Name(output.TempDiff), fmtT(u, x.limit), u.Name(output.Temp)))
 		}
 	}
 	return out

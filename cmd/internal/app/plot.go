@@ -155,7 +155,11 @@ func (e *env) marchFigure(ds []*design.Design) (*plots.Figure, error) {
 			if s.Series && s.Name == "barrel" {
 				off = o.Result.Head.PathLength
 			}
-			t := plots.Series{Label: fmt.Sprintf("%s %s (%s)", letter(i), s.Name, s.Style), Design: i, Dashed: k == 1}
+			label := fmt.Sprintf("%s %s (%s)", letter(i), s.Name, s.Style)
+			if !s.Equilibrium {
+				label += fmt.Sprintf(", no equilibrium: drawn at the %s %s cap", fmtT(u, cylinder.SaneWallLimit), u.Name(output.Temp))
+			}
+			t := plots.Series{Label: label, Design: i, Dashed: k == 1}
 			q := t
 			t.X, t.Y = []float64{u.Of(output.Len, off)}, []float64{u.Of(output.Temp, s.AirIn)}
 			for j, sg := range s.March {
@@ -241,8 +245,14 @@ func (e *env) compareFigure(ds []*design.Design) (*plots.Figure, error) {
 		if err != nil {
 			return nil, err
 		}
-		names = append(names, letter(i)+": "+short(d.Name))
-		ht = append(ht, u.Of(output.Temp, o.Result.Head.WallTemp))
+		name := letter(i) + ": " + short(d.Name)
+		head := u.Of(output.Temp, o.Result.Head.WallTemp)
+		if !o.Result.Head.Equilibrium {
+			// a state, not a temperature: no bar
+			name, head = name+" (no equilibrium)", 0
+		}
+		names = append(names, name)
+		ht = append(ht, head)
 		perKg = append(perKg, u.Of(output.PerMass, o.Result.HeatPerFinMass()))
 	}
 	return plots.Compare("Designs at cruise\n"+strings.Join(names, "    "), names, []plots.Panel{

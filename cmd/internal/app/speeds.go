@@ -59,23 +59,15 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 			return err
 		}
 		warns = append(warns, o.warnings())
-		ht, bt := fmtT(u, o.Result.Head.WallTemp), fmtT(u, o.Result.Barrel.WallTemp)
-		if o.NoEquilibrium != nil {
-			if o.Result.Head.HeatRejected < o.Result.Head.HeatLoad {
-				ht = "over " + fmtT(u, cylinder.SaneWallLimit)
-			}
-			if o.Result.Barrel.HeatRejected < o.Result.Barrel.HeatLoad {
-				bt = "over " + fmtT(u, cylinder.SaneWallLimit)
-			}
-		}
-		st, margin := string(o.Status()), fmtDT(u, o.HeadMargin())
+		ht, bt := wallText(u, o.Result.Head), wallText(u, o.Result.Barrel)
+		st, margin := string(o.Status()), marginText(u, o.Result.Head, o.HeadMargin())
 		if !o.Fixed && o.Load.Head == 0 && o.Load.Barrel == 0 {
 			st, margin, ht, bt = "no load", "-", "-", "-"
 		}
 		g.Rows = append(g.Rows, []string{output.Num(u.Of(output.Road, v), 0), output.Num(o.Result.Head.HeatLoad, 0), output.Num(o.Result.Barrel.HeatLoad, 0),
 			ht, bt, margin, st})
 		rows = append(rows, map[string]any{"speed_m_s": v, "load": o.Load, "head": summary(o.Result.Head), "barrel": summary(o.Result.Barrel),
-			"head_margin_K": o.HeadMargin(), "status": o.Status(), "equilibrium": o.NoEquilibrium == nil})
+			"head_margin_K": marginJSON(o.Result.Head, o.HeadMargin()), "status": o.Status(), "equilibrium": o.NoEquilibrium == nil})
 	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: road-speed sweep, ambient %s %s, tilt %.0f deg", d.Name, fmtT(u, d.Case.Ambient), T, d.Case.Tilt*180/math.Pi),
 		Grids: []output.Grid{g}, Caution: true}

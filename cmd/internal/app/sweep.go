@@ -318,7 +318,15 @@ func sweepCells(r sweep.Row, axes sweep.Grid, u output.Units) []string {
 	if !r.Evaluated {
 		return append(c, "", "", "", "", "", "", "", "", r.Status, r.Note)
 	}
-	return append(c, strconv.Itoa(r.HeadFins), strconv.Itoa(r.BarrelFins), fmtT(u, r.HeadWall), fmtT(u, r.BarrelWall), fmtDT(u, r.HeadMargin), fmtDT(u, r.BarrelMargin),
+	wall := func(ok bool, t, m float64) (string, string) {
+		if !ok {
+			return noEquilibrium, "-"
+		}
+		return fmtT(u, t), fmtDT(u, m)
+	}
+	ht, hm := wall(r.HeadEquilibrium, r.HeadWall, r.HeadMargin)
+	bt, bm := wall(r.BarrelEquilibrium, r.BarrelWall, r.BarrelMargin)
+	return append(c, strconv.Itoa(r.HeadFins), strconv.Itoa(r.BarrelFins), ht, bt, hm, bm,
 		output.Num(u.Of(output.Mass, r.FinMass), 3), output.Num(u.Of(output.PerMass, r.HeatPerFinMass), 0), r.Status, r.Note)
 }
 
@@ -330,6 +338,13 @@ func sweepJSON(r sweep.Row, axes sweep.Grid) map[string]any {
 	}
 	if r.Evaluated {
 		m["head_K"], m["barrel_K"], m["head_margin_K"], m["barrel_margin_K"] = r.HeadWall, r.BarrelWall, r.HeadMargin, r.BarrelMargin
+		// a state, not a temperature, where a set has no equilibrium
+		if !r.HeadEquilibrium {
+			m["head_K"], m["head_margin_K"] = nil, nil
+		}
+		if !r.BarrelEquilibrium {
+			m["barrel_K"], m["barrel_margin_K"] = nil, nil
+		}
 		m["fin_mass_kg"], m["heat_per_kg_W"], m["equilibrium"] = r.FinMass, r.HeatPerFinMass, r.Equilibrium
 		m["head_fins"], m["barrel_fins"] = r.HeadFins, r.BarrelFins
 	}

@@ -68,12 +68,7 @@ func (e *env) tilt(d *design.Design, step float64) error {
 		Header: []string{"tilt (deg)", "annular head (" + T + ")", "annular barrel (" + T + ")", "longitudinal head (" + T + ")", "longitudinal barrel (" + T + ")", "cooler style"}}
 	var warns [][]string
 	var rows []map[string]any
-	cell := func(o outcome, r cylinder.SetResult) string {
-		if o.NoEquilibrium != nil && r.HeatRejected < r.HeatLoad {
-			return "over " + fmtT(u, cylinder.SaneWallLimit)
-		}
-		return fmtT(u, r.WallTemp)
-	}
+	cell := func(_ outcome, r cylinder.SetResult) string { return wallText(u, r) }
 	var tilts []float64
 	for t := 0.0; t < 90-1e-9; t += step {
 		tilts = append(tilts, t)
