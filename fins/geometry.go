@@ -209,6 +209,39 @@ func (s Set) Fitting() int {
 	return Fitting(s.Style, s.Pitch, s.RootThickness, s.Length, s.RootDiameter)
 }
 
+// RestyleFor is Restyle kept within process p's height-to-gap limit: where
+// the same mean gap would give a root gap too narrow to cast (longitudinal
+// fins crowd at the root), the set gets fewer fins, at the root gap
+// height/MaxAspect. It reports whether the result keeps every limit of p
+// (a fin thinner or with less draft than p allows stays so: only the count
+// and pitch change). A zero p restyles only.
+func (s Set) RestyleFor(style Style, p Process) (Set, bool, error) {
+	out, err := s.Restyle(style)
+	if err != nil || p.Name == "" {
+		return out, err == nil, err
+	}
+	if gap := out.Pitch - out.RootThickness; gap > 0 && out.Height/gap > p.MaxAspect {
+		need := out.RootThickness + out.Height/p.MaxAspect // the narrowest root pitch p casts
+		if style == StyleLongitudinal {
+			circ := math.Pi * out.RootDiameter
+			out.Count = max(1, int(math.Floor(circ/need*(1+1e-9))))
+			out.Pitch = circ / float64(out.Count)
+		} else {
+			out.Pitch = need * (1 + 1e-9)
+			out.Count = out.Fitting()
+		}
+		if _, err := out.Geometry(); err != nil {
+			return Set{}, false, err
+		}
+	}
+	for _, v := range p.Check(out) {
+		if v.Slack < -1e-9 {
+			return out, false, nil
+		}
+	}
+	return out, true, nil
+}
+
 // Restyle returns the set laid the other way at the same fin height,
 // thicknesses, root diameter, length and mean clear gap (so the same fin
 // density as the air sees it): annular fins are stacked along the length

@@ -4,6 +4,8 @@ import (
 	"errors"
 	"fmt"
 	"math"
+
+	"finmarch/fins"
 )
 
 // Limits are the wall temperatures the head and the barrel must stay at or
@@ -36,6 +38,43 @@ type Design struct {
 	// Walls, when set, fixes the wall temperatures of head and barrel (K):
 	// the estimate then gives the heat each set rejects there.
 	Walls *[2]float64
+	// Process is how the fins are made; Castability checks them against
+	// its limits (a zero Process checks nothing).
+	Process fins.Process
+}
+
+// Castability describes each casting limit of Process that a fin set
+// breaks, with the limit and the value ("head fins: height to gap 8.0
+// over the die-casting limit 10"); nil when every limit holds or no process
+// is named. The limits are common practice (fins.Processes).
+func (d Design) Castability() []string {
+	p := d.Process
+	if p.Name == "" {
+		return nil
+	}
+	var out []string
+	for _, fs := range []FinSet{d.Case.Head, d.Case.Barrel} {
+		s := fs.Set
+		for _, v := range p.Check(s) {
+			if v.Slack >= -1e-12 {
+				continue
+			}
+			var what string
+			switch v.Constraint {
+			case "minimum thickness":
+				what = fmt.Sprintf("tip %.2f mm, thinner than the %s minimum %.2f mm", s.TipThickness*1e3, p.Name, p.MinThickness*1e3)
+			case "height to gap":
+				what = fmt.Sprintf("height to root gap %.1f, over the %s limit %.1f", s.Height/(s.Pitch-s.RootThickness), p.Name, p.MaxAspect)
+			case "draft":
+				what = fmt.Sprintf("face draft %.2f deg, under the %s minimum %.2f deg",
+					math.Atan((s.RootThickness-s.TipThickness)/(2*s.Height))*180/math.Pi, p.Name, p.MinDraft*180/math.Pi)
+			default:
+				what = fmt.Sprintf("%s broken by %.3g", v.Constraint, -v.Slack)
+			}
+			out = append(out, fs.Name+" fins: "+what)
+		}
+	}
+	return out
 }
 
 // Outcome is a design evaluated at one operating point.

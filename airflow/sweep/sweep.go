@@ -67,6 +67,9 @@ type Row struct {
 	// HeadEquilibrium and BarrelEquilibrium say which set has one; without
 	// it the set's wall and margin are the search's cap, not temperatures
 	HeadEquilibrium, BarrelEquilibrium bool
+	// Uncastable lists the casting limits of the design's process that the
+	// point's fins break (cylinder.Design.Castability); empty when castable
+	Uncastable []string
 }
 
 // Within reports whether the row reached an equilibrium within both limits.
@@ -147,6 +150,7 @@ func evalPoint(g Grid, i int, build Builder, ws *cylinder.Workspace) Row {
 	r.Evaluated, r.Equilibrium = true, o.NoEquilibrium == nil
 	r.HeadEquilibrium, r.BarrelEquilibrium = o.Result.Head.Equilibrium, o.Result.Barrel.Equilibrium
 	r.HeadFins, r.BarrelFins = d.Case.Head.Set.Count, d.Case.Barrel.Set.Count
+	r.Uncastable = d.Castability()
 	r.HeadWall, r.BarrelWall = o.Result.Head.WallTemp, o.Result.Barrel.WallTemp
 	r.HeadMargin, r.BarrelMargin = o.HeadMargin(), o.BarrelMargin()
 	r.FinMass = o.Result.FinMass()

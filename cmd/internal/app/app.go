@@ -208,7 +208,7 @@ func (e *env) emit(doc output.Doc) error {
 		for _, w := range doc.Warnings {
 			fmt.Fprintf(e.stderr, "warning: %s\n", w)
 		}
-		return fail(ExitStrict, fmt.Errorf("--strict: %d correlation range warning(s); no output written", len(doc.Warnings)))
+		return fail(ExitStrict, fmt.Errorf("--strict: %d warning(s) (correlation ranges, casting limits); no output written", len(doc.Warnings)))
 	}
 	if !e.opt.quiet {
 		for _, w := range doc.Warnings {

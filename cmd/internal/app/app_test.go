@@ -135,7 +135,7 @@ func TestExitCodesAndFiles(t *testing.T) {
 	}
 	bad := filepath.Join(dir, "bad.toml")
 	os.WriteFile(bad, []byte(strings.Replace(string(demo.Upright), `pitch = "9 mm"`, `pitch = "9 mmm"`, 1)), 0o644)
-	if _, e, code := run(t, "estimate", bad); code != ExitDesign || !strings.Contains(e, "bad.toml:21: head.pitch") {
+	if _, e, code := run(t, "estimate", bad); code != ExitDesign || !strings.Contains(e, "bad.toml:22: head.pitch") {
 		t.Errorf("bad design: exit %d %s", code, e)
 	}
 	// new refuses to overwrite; --force allows it

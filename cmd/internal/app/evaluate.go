@@ -46,10 +46,15 @@ func evaluateWith(d *design.Design, v float64, ws *cylinder.Workspace, totalsOnl
 	return outcome{Outcome: co, d: d, speed: v}, err
 }
 
+// warnings are the correlation range warnings and the casting limits the
+// design's fins break (its cylinder.casting process).
 func (o outcome) warnings() []string {
 	var out []string
 	for _, w := range o.Result.Warnings {
 		out = append(out, w.String())
+	}
+	for _, c := range o.d.Cylinder().Castability() {
+		out = append(out, "casting: "+c)
 	}
 	return out
 }

@@ -49,6 +49,9 @@ the trade-off front of temperature against fin mass from every design it evaluat
 			if goal != "cool" && goal != "light" {
 				return fail(ExitUsage, fmt.Errorf("--goal %q: cool or light", goal))
 			}
+			if process == "" {
+				process = d.Casting.Name // the design's own process
+			}
 			p, err := fins.LookupProcess(process)
 			if err != nil {
 				return fail(ExitUsage, err)
@@ -112,7 +115,7 @@ the trade-off front of temperature against fin mass from every design it evaluat
 	f := cmd.Flags()
 	f.StringVar(&set, "set", "head", "fin set to optimise: head, barrel, or both (the head's wall with the barrel's limit kept)")
 	f.StringVar(&goal, "goal", "cool", "cool (lowest wall temperature) or light (least fin mass within the limit)")
-	f.StringVar(&process, "process", "permanent-mould", "casting process: sand, permanent-mould, die-casting or machined")
+	f.StringVar(&process, "process", "", "casting process: sand, permanent-mould, die-casting or machined (default: the design's cylinder.casting)")
 	f.StringVar(&limit, "limit", "", "wall temperature limit for --goal light (default: the design's limit)")
 	f.StringVar(&minThick, "min-thickness", "", "override the process's minimum fin thickness")
 	f.StringVar(&maxAspect, "max-aspect", "", "override the process's maximum height-to-gap ratio")

@@ -326,8 +326,14 @@ func sweepCells(r sweep.Row, axes sweep.Grid, u output.Units) []string {
 	}
 	ht, hm := wall(r.HeadEquilibrium, r.HeadWall, r.HeadMargin)
 	bt, bm := wall(r.BarrelEquilibrium, r.BarrelWall, r.BarrelMargin)
+	status, note := r.Status, r.Note
+	if len(r.Uncastable) > 0 {
+		// never ranked as best without saying so
+		status += ", uncastable"
+		note = strings.TrimPrefix(note+"; "+strings.Join(r.Uncastable, "; "), "; ")
+	}
 	return append(c, strconv.Itoa(r.HeadFins), strconv.Itoa(r.BarrelFins), ht, bt, hm, bm,
-		output.Num(u.Of(output.Mass, r.FinMass), 3), output.Num(u.Of(output.PerMass, r.HeatPerFinMass), 0), r.Status, r.Note)
+		output.Num(u.Of(output.Mass, r.FinMass), 3), output.Num(u.Of(output.PerMass, r.HeatPerFinMass), 0), status, note)
 }
 
 // sweepJSON is a row as a JSON-lines object (SI).
@@ -351,6 +357,9 @@ func sweepJSON(r sweep.Row, axes sweep.Grid) map[string]any {
 	if r.Note != "" {
 		m["note"] = r.Note
 	}
+	if len(r.Uncastable) > 0 {
+		m["uncastable"] = r.Uncastable
+	}
 	return m
 }
 
@@ -373,6 +382,7 @@ func sweepSummary(d *design.Design, axes sweep.Grid, sum *sweep.Summary, total, 
 		Grids: []output.Grid{grid(fmt.Sprintf("Coolest heads (best %d)", top), sum.Coolest.Rows()),
 			grid(fmt.Sprintf("Lightest fins within both limits (best %d)", top), sum.Lightest.Rows())},
 		Caution: true}
+	doc.Notes = append(doc.Notes, fmt.Sprintf("Casting limits: %s (cylinder.casting); a row marked uncastable breaks them (its note in the full rows says how).", d.Casting.Name))
 	if fi := sum.FirstInvalid; fi != nil {
 		doc.Notes = append(doc.Notes, fmt.Sprintf("Invalid points break a design rule (the row's note says which) and are not estimated; the first, point %d: %s.",
 			fi.Index, strings.TrimSuffix(fi.Note, ".")))

@@ -3,6 +3,7 @@ package app
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	"github.com/spf13/cobra"
 
@@ -38,16 +39,51 @@ gap between fins, so the air sees the same fin density.`,
 	return cmd
 }
 
-func restyled(d *design.Design, st fins.Style) (*design.Design, error) {
+// restyled is the design with both fin sets of style st at the same mean
+// gap, kept castable by the design's process where a count can do it; it
+// says which sets it thinned out.
+func restyled(d *design.Design, st fins.Style) (*design.Design, []string, error) {
 	cp := *d
-	var err error
-	if cp.Case.Head.Set, err = d.Case.Head.Set.Restyle(st); err != nil {
-		return nil, fmt.Errorf("head fins as %s: %w", st, err)
+	var thinned []string
+	for _, x := range []struct {
+		name string
+		dst  *fins.Set
+		src  fins.Set
+	}{{"head", &cp.Case.Head.Set, d.Case.Head.Set}, {"barrel", &cp.Case.Barrel.Set, d.Case.Barrel.Set}} {
+		same, err := x.src.Restyle(st)
+		if err != nil {
+			return nil, nil, fmt.Errorf("%s fins as %s: %w", x.name, st, err)
+		}
+		if *x.dst, _, err = x.src.RestyleFor(st, d.Casting); err != nil {
+			return nil, nil, fmt.Errorf("%s fins as %s: %w", x.name, st, err)
+		}
+		if x.dst.Count < same.Count {
+			thinned = append(thinned, fmt.Sprintf("%s %d instead of %d", x.name, x.dst.Count, same.Count))
+		}
 	}
-	if cp.Case.Barrel.Set, err = d.Case.Barrel.Set.Restyle(st); err != nil {
-		return nil, fmt.Errorf("barrel fins as %s: %w", st, err)
+	return &cp, thinned, nil
+}
+
+// castNote says how the restyled variants keep the design's casting
+// limits, or which they break.
+func castNote(process string, thinA, thinL []string, an, lo *design.Design) string {
+	var parts []string
+	for _, v := range []struct {
+		style   string
+		thinned []string
+		d       *design.Design
+	}{{"annular", thinA, an}, {"longitudinal", thinL, lo}} {
+		if len(v.thinned) > 0 {
+			parts = append(parts, fmt.Sprintf("the %s variant has fewer fins than the same mean gap gives (%s) to keep the %s height-to-gap limit", v.style, strings.Join(v.thinned, ", "), process))
+		}
+		if c := v.d.Cylinder().Castability(); len(c) > 0 {
+			parts = append(parts, fmt.Sprintf("the %s variant cannot keep the %s limits: %s", v.style, process, strings.Join(c, "; ")))
+		}
 	}
-	return &cp, nil
+	if len(parts) == 0 {
+		return fmt.Sprintf("Both variants keep the %s limits (cylinder.casting).", process)
+	}
+	return "Casting: " + strings.Join(parts, "; ") + "."
 }
 
 func (e *env) tilt(d *design.Design, step float64) error {
@@ -55,11 +91,11 @@ func (e *env) tilt(d *design.Design, step float64) error {
 	if err != nil {
 		return err
 	}
-	an, err := restyled(d, fins.StyleAnnular)
+	an, thinA, err := restyled(d, fins.StyleAnnular)
 	if err != nil {
 		return fail(ExitDesign, err)
 	}
-	lo, err := restyled(d, fins.StyleLongitudinal)
+	lo, thinL, err := restyled(d, fins.StyleLongitudinal)
 	if err != nil {
 		return fail(ExitDesign, err)
 	}
@@ -105,6 +141,7 @@ func (e *env) tilt(d *design.Design, step float64) error {
 	doc.Notes = append(doc.Notes,
 		fmt.Sprintf("Annular variant: head %d fins at %s pitch, barrel %d fins at %s pitch. Longitudinal variant: head %d fins at %s root pitch, barrel %d fins at %s root pitch. Same heights, thicknesses and mean gap.",
 			hs.Count, lu(hs.Pitch), bs.Count, lu(bs.Pitch), hl.Count, lu(hl.Pitch), bl.Count, lu(bl.Pitch)),
+		castNote(d.Casting.Name, thinA, thinL, an, lo),
 		"Annular fins take the road-speed share in their plane (cos tilt); longitudinal fins the share along the axis (sin tilt), head first then barrel in series. "+
 			"The rest of the road air is credited over the fin envelope only (a lower bound), so at its unfavourable extreme each style is cooled little more than in still air.",
 		noteWall)

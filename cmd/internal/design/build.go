@@ -83,6 +83,7 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 // cylinder reads the [cylinder] dimensions and the two fin sets.
 func (b *builder) cylinder() {
 	f, c := b.f, &b.d.Case
+	b.casting()
 	c.Tilt = b.opt("cylinder.tilt", f.Cylinder.Tilt.raw(), f.Cylinder.Tilt.Set, 0, 0, math.Pi/2+1e-12, "deg", math.Pi/180, 0, "0 deg (upright)")
 	hd := b.need("cylinder.head_diameter", f.Cylinder.HeadDiameter.raw(), f.Cylinder.HeadDiameter.Set, 20*mm, 400*mm, "mm", mm, 0)
 	hl := b.need("cylinder.head_length", f.Cylinder.HeadLength.raw(), f.Cylinder.HeadLength.Set, 5*mm, 500*mm, "mm", mm, 0)
@@ -91,6 +92,26 @@ func (b *builder) cylinder() {
 
 	c.Head = b.finSet("head", f.Head, hd, hl)
 	c.Barrel = b.finSet("barrel", f.Barrel, bd, bl)
+}
+
+// DefaultCasting is the process fins are taken to be made by when a design
+// names none: gravity die casting, the usual way for motorcycle and small
+// engine cylinders (common practice).
+const DefaultCasting = "permanent-mould"
+
+// casting reads cylinder.casting, the process the fins are made by.
+func (b *builder) casting() {
+	name := b.f.Cylinder.Casting
+	if strings.TrimSpace(name) == "" {
+		b.def("cylinder.casting", DefaultCasting+" (common practice for motorcycle and small-engine cylinders)")
+		name = DefaultCasting
+	}
+	p, err := fins.LookupProcess(name)
+	if err != nil {
+		b.add("cylinder.casting", "%v", err)
+		return
+	}
+	b.d.Casting = p
 }
 
 // alloy returns the alloy named n: a custom [alloys.n] table or the

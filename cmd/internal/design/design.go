@@ -14,6 +14,7 @@ import (
 	"github.com/BurntSushi/toml"
 
 	"finmarch/airflow/cylinder"
+	"finmarch/fins"
 	"finmarch/materials"
 )
 
@@ -38,6 +39,7 @@ type CylinderT struct {
 	HeadLength     Q[Length] `toml:"head_length"`
 	BarrelDiameter Q[Length] `toml:"barrel_diameter"`
 	BarrelLength   Q[Length] `toml:"barrel_length"`
+	Casting        string    `toml:"casting"`
 }
 
 // FinSetT is a [head] or [barrel] table.
@@ -110,9 +112,10 @@ type Design struct {
 	Case        cylinder.Case
 	Run         cylinder.Settings // segments; the command line adds caches and totals-only per use
 	Load        cylinder.Load
-	HeadLimit   float64 // K
-	BarrelLimit float64 // K
-	Altitude    float64 // m (0 when the pressure was given)
+	Casting     fins.Process // the process the fins are made by; every command checks them against its limits
+	HeadLimit   float64      // K
+	BarrelLimit float64      // K
+	Altitude    float64      // m (0 when the pressure was given)
 	WallFixed   bool
 	HeadWall    float64  // K
 	BarrelWall  float64  // K
@@ -134,7 +137,7 @@ func (d *Design) OverrideSegments(n int) {
 // Cylinder is the design as the estimator takes it: the case, the load,
 // the limits and any fixed walls.
 func (d *Design) Cylinder() cylinder.Design {
-	cd := cylinder.Design{Case: d.Case, Load: d.Load, Limits: cylinder.Limits{Head: d.HeadLimit, Barrel: d.BarrelLimit}}
+	cd := cylinder.Design{Case: d.Case, Load: d.Load, Limits: cylinder.Limits{Head: d.HeadLimit, Barrel: d.BarrelLimit}, Process: d.Casting}
 	if d.WallFixed {
 		cd.Walls = &[2]float64{d.HeadWall, d.BarrelWall}
 	}

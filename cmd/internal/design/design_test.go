@@ -334,7 +334,7 @@ func TestWith(t *testing.T) {
 	}
 	// the same rules as Parse: a pitch below the root thickness is refused with the key and the line
 	_, err = d.With(map[string]float64{"head.pitch": 0.003})
-	if err == nil || !strings.Contains(err.Error(), "u.toml:21: head.pitch") {
+	if err == nil || !strings.Contains(err.Error(), "u.toml:22: head.pitch") {
 		t.Errorf("bad variant: %v", err)
 	}
 	if _, err := d.With(map[string]float64{"head.count": 7.5}); err == nil {
