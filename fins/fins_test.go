@@ -692,3 +692,39 @@ func TestSingleProfiles(t *testing.T) {
 		t.Error("unknown profile accepted")
 	}
 }
+
+// RestyleFor keeps the process's height-to-gap limit with as many fins as
+// it allows (one more would break it), and reports a set whose thickness
+// no count can mend; with no process it is Restyle.
+func TestRestyleFor(t *testing.T) {
+	up := Set{Style: StyleAnnular, Count: 8, Pitch: 0.009, Height: 0.040, RootThickness: 0.004, TipThickness: 0.002, RootDiameter: 0.12, Length: 0.072}
+	die, _ := LookupProcess("die-casting")
+	lo, ok, err := up.RestyleFor(StyleLongitudinal, die)
+	if err != nil || !ok {
+		t.Fatalf("%v %v", ok, err)
+	}
+	same, _ := up.Restyle(StyleLongitudinal)
+	if lo.Count >= same.Count {
+		t.Errorf("not thinned: %d fins against %d", lo.Count, same.Count)
+	}
+	for _, v := range die.Check(lo) {
+		if v.Slack < -1e-9 {
+			t.Errorf("breaks %s", v.Constraint)
+		}
+	}
+	more := lo
+	more.Count++
+	more.Pitch = math.Pi * more.RootDiameter / float64(more.Count)
+	if more.Height/(more.Pitch-more.RootThickness) <= die.MaxAspect {
+		t.Errorf("%d fins would still cast: not the most", more.Count)
+	}
+	pm, _ := LookupProcess("permanent-mould")
+	thin := up
+	thin.TipThickness = 0.0015
+	if _, ok, err := thin.RestyleFor(StyleLongitudinal, pm); err != nil || ok {
+		t.Errorf("a 1.5 mm tip passed permanent-mould's 2 mm: %v %v", ok, err)
+	}
+	if plain, _, _ := up.RestyleFor(StyleLongitudinal, Process{}); plain != same {
+		t.Error("with no process it is not Restyle")
+	}
+}

@@ -7,6 +7,8 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+
+	"finmarch/fins"
 )
 
 // The verdict's thresholds: over a limit below zero margin, marginal under
@@ -102,5 +104,26 @@ func TestNoEquilibriumIsAState(t *testing.T) {
 	b, _ := json.Marshal(ok.Head)
 	if !strings.Contains(string(b), `"wall_temperature_K":`+strconv.FormatFloat(ok.Head.WallTemp, 'g', -1, 64)) {
 		t.Errorf("an equilibrium's wall missing from %s", b)
+	}
+}
+
+// Castability names each broken limit with its value: the demo's head
+// (40 mm fins on a 5 mm root gap, 8:1) breaks permanent-mould's 7:1 and
+// its barrel's 1.8 mm tips its 2 mm minimum; die casting (10:1, 1.2 mm)
+// takes both; no process checks nothing.
+func TestCastability(t *testing.T) {
+	d := Design{Case: demoCase(t, false)}
+	if d.Castability() != nil {
+		t.Error("no process, yet a finding")
+	}
+	d.Process, _ = fins.LookupProcess("permanent-mould")
+	c := d.Castability()
+	if len(c) != 2 || !strings.Contains(c[0], "head fins: height to root gap 8.0, over the permanent-mould limit 7.0") ||
+		!strings.Contains(c[1], "barrel fins: tip 1.80 mm, thinner than the permanent-mould minimum 2.00 mm") {
+		t.Errorf("%q", c)
+	}
+	d.Process, _ = fins.LookupProcess("die-casting")
+	if c := d.Castability(); c != nil {
+		t.Errorf("die casting: %q", c)
 	}
 }

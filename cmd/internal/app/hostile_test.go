@@ -238,3 +238,28 @@ func TestNoEquilibriumNeverACap(t *testing.T) {
 		}
 	}
 }
+
+// Castability in the command line: a design that names no process is held
+// to permanent-mould's limits, warned with the limit and the value, an
+// error under --strict; a sweep marks its rows uncastable.
+func TestCastabilityWarnings(t *testing.T) {
+	up, _ := designs(t)
+	src, _ := os.ReadFile(up)
+	pm := filepath.Join(filepath.Dir(up), "pm.toml")
+	if err := os.WriteFile(pm, []byte(strings.Replace(string(src), `casting = "die-casting"`, "", 1)), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if _, errs, code := run(t, "estimate", pm); code != 0 || !strings.Contains(errs, "casting: head fins: height to root gap 8.0, over the permanent-mould limit 7.0") {
+		t.Errorf("exit %d: %s", code, errs)
+	}
+	if _, errs, code := run(t, "estimate", pm, "--strict"); code != ExitStrict {
+		t.Errorf("--strict: exit %d %s", code, errs)
+	}
+	if _, errs, _ := run(t, "estimate", up); strings.Contains(errs, "casting:") {
+		t.Errorf("the die-cast demo warned: %s", errs)
+	}
+	out, _, _ := run(t, "sweep", pm, "--vary", "head.pitch=8mm,12mm")
+	if !strings.Contains(out, "ok, uncastable") && !strings.Contains(out, "marginal, uncastable") && !strings.Contains(out, "LIMIT, uncastable") {
+		t.Errorf("no uncastable row:\n%s", out)
+	}
+}
