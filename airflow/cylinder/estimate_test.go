@@ -492,3 +492,25 @@ func TestWindCoolsEveryOrientation(t *testing.T) {
 		}
 	}
 }
+
+// The top speed at a rated power, against the closed form of a road load
+// with no rolling resistance and no grade: P_crank = 0.5 rho CdA v^3 /
+// driveline, so v = cbrt(2 P driveline / (rho CdA)); past it the load is
+// flagged OverRated, below it not.
+func TestTopSpeed(t *testing.T) {
+	r := RoadLoad{Mass: 200, CdA: 0.5, Crr: 1e-12, Driveline: 0.9, RatedPower: 20e3}
+	v, ok := r.TopSpeed(1.2)
+	want := math.Cbrt(2 * 20e3 * 0.9 / (1.2 * 0.5))
+	if !ok || math.Abs(v-want) > 1e-6*want {
+		t.Errorf("top speed %.6f m/s, closed form %.6f", v, want)
+	}
+	if l, _ := r.Heat(v*1.01, 1.2); !l.OverRated {
+		t.Error("1 % past the top speed not flagged")
+	}
+	if l, _ := r.Heat(v*0.99, 1.2); l.OverRated {
+		t.Error("1 % below the top speed flagged")
+	}
+	if _, ok := (RoadLoad{Mass: 200, CdA: 0.5}).TopSpeed(1.2); ok {
+		t.Error("a top speed with no rated power")
+	}
+}

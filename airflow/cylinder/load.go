@@ -24,6 +24,9 @@ type RoadLoad struct {
 	// IdleHeat is the heat one cylinder's fins reject at idle, W: the
 	// least the road load gives (0: no floor).
 	IdleHeat float64
+	// RatedPower is the engine's rated power at the crank, W (0: not
+	// given): a road load past it is a speed the engine cannot hold.
+	RatedPower float64
 }
 
 // withDefaults returns r with every zero that has a default replaced by it.
@@ -72,6 +75,10 @@ type HeatLoad struct {
 	WheelPower   float64 // W at the wheel (0 when given directly)
 	BrakePower   float64 // W at the crank (0 when given directly)
 	FuelPower    float64 // W (0 when given directly)
+	// OverRated is set when the crank power the road asks exceeds the
+	// engine's rated power: the engine cannot hold this speed (the heat
+	// is what that speed would need, not what the engine can make).
+	OverRated bool
 }
 
 // Heat returns the heat load per fin set at road speed v (m/s) and air
@@ -98,11 +105,42 @@ func (r RoadLoad) Heat(v, rho float64) (HeatLoad, error) {
 	pb := pw / r.Driveline
 	pf := pb / r.Thermal
 	q := r.CoolShare * pf / float64(r.Cylinders)
-	l := HeatLoad{Head: r.HeadShare * q, Barrel: (1 - r.HeadShare) * q, WheelPower: pw, BrakePower: pb, FuelPower: pf}
+	l := HeatLoad{Head: r.HeadShare * q, Barrel: (1 - r.HeadShare) * q, WheelPower: pw, BrakePower: pb, FuelPower: pf,
+		OverRated: r.RatedPower > 0 && pb > r.RatedPower*(1+1e-9)}
 	if h := r.HeadShare; r.IdleHeat > 0 && l.Head+l.Barrel < r.IdleHeat {
 		l.Head, l.Barrel = h*r.IdleHeat, (1-h)*r.IdleHeat
 	}
 	return l, nil
+}
+
+// TopSpeed returns the road speed (m/s) at which the crank power the road
+// asks equals the rated power, in air of density rho (kg/m3), by bisection
+// on the road-load equation (the power rises with speed); 0 and false when
+// no rated power is given or the engine cannot even move the vehicle.
+func (r RoadLoad) TopSpeed(rho float64) (float64, bool) {
+	if r.RatedPower <= 0 {
+		return 0, false
+	}
+	brake := func(v float64) float64 {
+		l, err := r.Heat(v, rho)
+		if err != nil {
+			return math.Inf(1)
+		}
+		return l.BrakePower
+	}
+	lo, hi := 0.0, 200.0 // m/s: no road vehicle of this tool's kind is faster
+	if brake(lo) >= r.RatedPower || brake(hi) <= r.RatedPower {
+		return 0, false
+	}
+	for i := 0; i < 60; i++ {
+		mid := 0.5 * (lo + hi)
+		if brake(mid) < r.RatedPower {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return 0.5 * (lo + hi), true
 }
 
 // Load is the heat load of one cylinder as a design gives it: the heats
@@ -131,7 +169,7 @@ func (r RoadLoad) check() error {
 		{"mass", r.Mass, 1, 50000}, {"cda", r.CdA, 0.01, 20}, {"rolling_resistance", r.Crr, 0, 0.5},
 		{"driveline_efficiency", r.Driveline, 0.3, 1}, {"thermal_efficiency", r.Thermal, 0.05, 0.6},
 		{"cooling_share", r.CoolShare, 0.01, 0.9}, {"head_share", r.HeadShare, 0, 1}, {"grade", r.GradePct, -30, 30},
-		{"extra_power", r.ExtraPowerW, 0, 1e6}, {"idle_heat", r.IdleHeat, 0, 1e6},
+		{"extra_power", r.ExtraPowerW, 0, 1e6}, {"idle_heat", r.IdleHeat, 0, 1e6}, {"rated_power", r.RatedPower, 0, 1e7},
 	} {
 		if math.IsNaN(c.v) || c.v < c.lo || c.v > c.hi {
 			return fmt.Errorf("road load: %s = %g outside %g to %g", c.k, c.v, c.lo, c.hi)

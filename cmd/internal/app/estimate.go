@@ -7,6 +7,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"finmarch/airflow"
 	"finmarch/airflow/cylinder"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
@@ -113,6 +114,10 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 	}
 	doc.Warnings = o.warnings()
 	doc.Alerts = limitAlerts(u, o)
+	if a := overRated(u, d, o); a != "" {
+		doc.Alerts = append(doc.Alerts, a)
+		doc.Notes = append(doc.Notes, a+".")
+	}
 	doc.JSON = map[string]any{
 		"limit_warnings": doc.Alerts,
 		"design":         d.Name, "source": d.Source, "tilt_deg": c.Tilt * 180 / math.Pi, "speed_m_s": c.Speed,
@@ -149,6 +154,21 @@ func limitAlerts(u output.Units, o outcome) []string {
 		}
 	}
 	return out
+}
+
+// overRated says when the road asks more crank power than the engine's
+// rated power: the speed cannot be held, and the top speed it can.
+func overRated(u output.Units, d *design.Design, o outcome) string {
+	if !o.Load.OverRated {
+		return ""
+	}
+	r := d.Load.Road
+	s := fmt.Sprintf("%s: at %s %s the road asks %.1f kW at the crank, more than the rated %.1f kW (load.rated_power): the engine cannot hold this speed, and these temperatures are what it would need",
+		d.Name, output.Num(u.Of(output.Road, o.speed), 0), u.Name(output.Road), o.Load.BrakePower/1e3, r.RatedPower/1e3)
+	if v, ok := r.TopSpeed(d.Case.Pressure / (airflow.RAir * d.Case.Ambient)); ok {
+		s += fmt.Sprintf("; its top speed here is %s %s", output.Num(u.Of(output.Road, v), 0), u.Name(output.Road))
+	}
+	return s
 }
 
 // noteMixed explains why the forced and natural rows do not add up.

@@ -209,6 +209,9 @@ func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.F
 			if err != nil {
 				return nil, err
 			}
+			if o.Load.OverRated {
+				break // past the engine's top speed: the curves stop
+			}
 			if o.NoEquilibrium != nil || (!o.Fixed && o.Load.Head+o.Load.Barrel == 0) {
 				continue // no equilibrium or no load at this speed: leave a gap at the end
 			}

@@ -6,6 +6,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"finmarch/airflow"
 	"finmarch/airflow/cylinder"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
@@ -49,6 +50,7 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 		Header: []string{"speed (" + u.Name(output.Road) + ")", "head load (W)", "barrel load (W)", "head (" + T + ")", "barrel (" + T + ")", "head margin (" + u.Name(output.TempDiff) + ")", "status"}}
 	var warns [][]string
 	var rows []map[string]any
+	stopped := ""
 	for i := 0; ; i++ {
 		v := from + float64(i)*step
 		if v > to+1e-9 {
@@ -57,6 +59,13 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 		o, err := evaluate(d, v)
 		if err != nil {
 			return err
+		}
+		if o.Load.OverRated {
+			// the engine cannot hold this speed: the sweep stops here
+			top, _ := d.Load.Road.TopSpeed(d.Case.Pressure / (airflow.RAir * d.Case.Ambient))
+			stopped = fmt.Sprintf("The table stops at the engine's top speed, %s %s: past it the road asks more than the rated %.1f kW (load.rated_power).",
+				output.Num(u.Of(output.Road, top), 0), u.Name(output.Road), d.Load.Road.RatedPower/1e3)
+			break
 		}
 		warns = append(warns, o.warnings())
 		ht, bt := wallText(u, o.Result.Head), wallText(u, o.Result.Barrel)
@@ -79,6 +88,9 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 			note += " At 0 speed the road load is nil: set load.idle_heat (heat to the fins at idle) for an idle check."
 		}
 		doc.Notes = append(doc.Notes, note)
+		if stopped != "" {
+			doc.Notes = append(doc.Notes, stopped)
+		}
 	} else {
 		doc.Notes = append(doc.Notes, "The heat load is the design's fixed head_heat and barrel_heat at every speed.")
 	}

@@ -270,6 +270,9 @@ func (b *builder) load() {
 			r.IdleHeat = b.opt("load.idle_heat", l.IdleHeat.raw(), true, 0, 0, 20e3, "kW", 1e3, 0, "")
 		}
 		r.ExtraPowerW = b.opt("load.extra_power", l.ExtraPower.raw(), l.ExtraPower.Set, 0, 0, 100e3, "kW", 1e3, 0, "0 W")
+		if l.RatedPower.Set {
+			r.RatedPower = b.opt("load.rated_power", l.RatedPower.raw(), true, 0, 0.5e3, 1000e3, "kW", 1e3, 0, "")
+		}
 		r.Cylinders = 1
 		if md.IsDefined("load", "cylinders") {
 			if l.Cylinders < 1 || l.Cylinders > 16 {

@@ -79,6 +79,7 @@ type LoadT struct {
 	Cylinders           int         `toml:"cylinders"`
 	Grade               Q[Percent]  `toml:"grade"`
 	ExtraPower          Q[Power]    `toml:"extra_power"`
+	RatedPower          Q[Power]    `toml:"rated_power"`
 	IdleHeat            Q[Power]    `toml:"idle_heat"`
 }
 
