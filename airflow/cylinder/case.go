@@ -79,6 +79,11 @@ type Settings struct {
 	// Natural is the natural-convection correlation of the fin set; nil
 	// means airflow.BarCohenRohsenow.
 	Natural airflow.NaturalModel
+	// Factors on the forced coefficient (passages and envelope), the
+	// natural coefficient and the alloys' conductivity: 0 means 1. They
+	// carry a correlation's scatter or a material's into an uncertainty
+	// band (airflow/uncertainty), or a multiplier fitted to a measurement.
+	ForcedFactor, NaturalFactor, ConductivityFactor float64
 	// TotalsOnly leaves SetResult.March empty: sweeps and the optimiser
 	// need the totals, not the segment-by-segment profile.
 	TotalsOnly bool
@@ -102,6 +107,11 @@ func (s Settings) resolved() Settings {
 	}
 	if s.Natural == nil {
 		s.Natural = airflow.BarCohenRohsenow{}
+	}
+	for _, f := range []*float64{&s.ForcedFactor, &s.NaturalFactor, &s.ConductivityFactor} {
+		if *f == 0 {
+			*f = 1
+		}
 	}
 	return s
 }
@@ -160,6 +170,9 @@ func (c Case) validate(s Settings) error {
 		return fmt.Errorf("fixed h %g W/(m2 K) outside 0 to 10000", c.FixedH)
 	case !(s.EntryLoss >= 0 && s.EntryLoss < 100) || !(s.ExitLoss >= 0 && s.ExitLoss < 100):
 		return fmt.Errorf("loss coefficients %g, %g outside 0 to 100", s.EntryLoss, s.ExitLoss)
+	case !(s.ForcedFactor >= 0 && s.ForcedFactor <= 10) || !(s.NaturalFactor >= 0 && s.NaturalFactor <= 10) ||
+		!(s.ConductivityFactor >= 0 && s.ConductivityFactor <= 10):
+		return fmt.Errorf("factors %g, %g, %g outside 0 to 10", s.ForcedFactor, s.NaturalFactor, s.ConductivityFactor)
 	}
 	for _, s := range []FinSet{c.Head, c.Barrel} {
 		if !(s.Emissivity > 0 && s.Emissivity <= 1) {

@@ -24,8 +24,8 @@ func (p *prepared) natural(st *setState, tw float64) (float64, float64, float64)
 	if fs.Set.Style == fins.StyleLongitudinal {
 		L = fs.Set.Length
 	}
-	h := p.set.Natural.H(air, g.GapMean, L, dT, p.log)
-	eta := st.cv.Efficiency(h, fs.Alloy.Conductivity(tw), p.log)
+	h := p.set.NaturalFactor * p.set.Natural.H(air, g.GapMean, L, dT, p.log)
+	eta := st.cv.Efficiency(h, p.set.ConductivityFactor*fs.Alloy.Conductivity(tw), p.log)
 	return h * g.SurfaceEfficiency(eta) * g.TotalArea * dT, h, eta
 }
 
@@ -66,8 +66,9 @@ func (p *prepared) envelope(st *setState, tw float64) (float64, float64) {
 		L := fs.Set.Length
 		h = airflow.FlatPlateNu(air.Rho*v*L/air.Mu, air.Pr, p.log) * air.K / L
 	}
+	h *= p.set.ForcedFactor
 	hEq := h * g.EnvelopeArea / g.TotalArea
-	eta := st.cv.Efficiency(hEq, fs.Alloy.Conductivity(tw), p.log)
+	eta := st.cv.Efficiency(hEq, p.set.ConductivityFactor*fs.Alloy.Conductivity(tw), p.log)
 	return hEq * g.SurfaceEfficiency(eta) * g.TotalArea * dT, h
 }
 

@@ -199,7 +199,7 @@ func (p *prepared) march(st *setState, tw, tin float64, keep bool) marchOut {
 	// segment ends x_i = L (i/N)^SegmentGrading crowd the entrance, where
 	// the developing-flow coefficient changes fastest
 	perLen := pt.AreaPerPath / pt.Length
-	k := fs.Alloy.Conductivity(tw)
+	k := p.set.ConductivityFactor * fs.Alloy.Conductivity(tw)
 	paths := float64(pt.Paths)
 	if keep {
 		if cap(p.segBuf) < n {
@@ -231,6 +231,7 @@ func (p *prepared) march(st *setState, tw, tin float64, keep bool) marchOut {
 			h = p.c.FixedH
 		} else {
 			h, out.regime = p.segmentH(&fp, pre, i, n, re, pr, mu, kAir, tb, tw, pt.Dh)
+			h *= p.set.ForcedFactor
 		}
 		etaF := cv.Efficiency(h, k, p.log)
 		etaO := g.SurfaceEfficiency(etaF)
