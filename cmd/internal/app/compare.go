@@ -7,6 +7,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"finmarch/airflow/uncertainty"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
 )
@@ -42,6 +43,7 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 	}
 	var os []outcome
 	var warns [][]string
+	bands := map[*design.Design]*uncertainty.Band{}
 	for _, d := range ds {
 		o, err := evaluate(d, d.Case.Speed)
 		if err != nil {
@@ -49,6 +51,9 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 		}
 		os = append(os, o)
 		warns = append(warns, o.warnings())
+		if bands[d], err = e.band(d, d.Case.Speed); err != nil {
+			return output.Doc{}, err
+		}
 	}
 	g := output.Grid{Header: []string{"quantity", "unit"}, Left: 2}
 	for i := range ds {
@@ -73,6 +78,18 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 	add("head margin to limit", u.Name(output.TempDiff), func(o outcome) string { return marginText(u, o.Result.Head, o.HeadMargin()) })
 	add("barrel margin to limit", u.Name(output.TempDiff), func(o outcome) string { return marginText(u, o.Result.Barrel, o.BarrelMargin()) })
 	add("status", "", func(o outcome) string { return string(o.Status()) })
+	withBand := func(f func(b *uncertainty.Band) string) func(o outcome) string {
+		return func(o outcome) string {
+			if b := bands[o.d]; b != nil {
+				return f(b)
+			}
+			return "-"
+		}
+	}
+	if bands[ds[0]] != nil {
+		add("head, 5 % to 95 %", u.Name(output.Temp), withBand(func(b *uncertainty.Band) string { return bandText(u, b.Head) }))
+		add("chance the head passes its limit", "%", withBand(func(b *uncertainty.Band) string { return output.Num(100*b.HeadOver, 0) }))
+	}
 	add("passage velocity head / barrel", u.Name(output.Vel), func(o outcome) string {
 		return output.Num(u.Of(output.Vel, o.Result.Head.PassageVelocity), 1) + " / " + output.Num(u.Of(output.Vel, o.Result.Barrel.PassageVelocity), 1)
 	})
@@ -102,13 +119,16 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 		}
 	}
 	doc.Notes = append(doc.Notes, noteWall, noteModel)
+	if bands[ds[0]] != nil {
+		doc.Notes = append(doc.Notes, bandNote)
+	}
 	doc.Warnings = warningsOf(warns...)
 	for _, o := range os {
 		doc.Alerts = append(doc.Alerts, limitAlerts(u, o)...)
 	}
 	var js []map[string]any
 	for _, o := range os {
-		js = append(js, map[string]any{"design": o.d.Name, "source": o.d.Source, "load": o.Load, "result": o.Result,
+		js = append(js, map[string]any{"design": o.d.Name, "source": o.d.Source, "load": o.Load, "result": o.Result, "band": bandJSON(bands[o.d]),
 			"head_margin_K": marginJSON(o.Result.Head, o.HeadMargin()), "barrel_margin_K": marginJSON(o.Result.Barrel, o.BarrelMargin()), "status": o.Status(),
 			"equilibrium": o.NoEquilibrium == nil, "energy_imbalance": o.Result.MaxImbal})
 	}

@@ -101,6 +101,14 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		})),
 	)
 	doc.Grids = append(doc.Grids, g)
+	band, err := e.band(d, c.Speed)
+	if err != nil {
+		return output.Doc{}, o, err
+	}
+	if band != nil {
+		doc.Grids = append(doc.Grids, bandGrid(u, d, band))
+		doc.Notes = append(doc.Notes, bandNote)
+	}
 	if !o.Fixed && !d.Load.Direct {
 		doc.Notes = append(doc.Notes, fmt.Sprintf("Road load at %s %s: %.2f kW at the wheel, %.2f kW at the crank, %.1f kW of fuel; %.0f%% of the fuel power to the fins of %d cylinder(s), %.0f%% of it through the head.",
 			output.Num(u.Of(output.Road, c.Speed), 0), u.Name(output.Road), o.Load.WheelPower/1e3, o.Load.BrakePower/1e3, o.Load.FuelPower/1e3,
@@ -124,7 +132,7 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		"ambient_K": c.Ambient, "pressure_Pa": c.Pressure, "altitude_m": d.Altitude,
 		"load": o.Load, "result": o.Result, "head_limit_K": d.HeadLimit, "barrel_limit_K": d.BarrelLimit,
 		"head_margin_K": marginJSON(h, o.HeadMargin()), "barrel_margin_K": marginJSON(b, o.BarrelMargin()), "status": o.Status(),
-		"fixed_walls": o.Fixed, "equilibrium": o.NoEquilibrium == nil, "energy_imbalance": o.Result.MaxImbal,
+		"fixed_walls": o.Fixed, "equilibrium": o.NoEquilibrium == nil, "energy_imbalance": o.Result.MaxImbal, "band": bandJSON(band),
 		"warnings": doc.Warnings, "defaults_applied": d.Defaults, "caution": output.Caution,
 	}
 	return doc, o, nil

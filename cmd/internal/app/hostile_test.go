@@ -263,3 +263,35 @@ func TestCastabilityWarnings(t *testing.T) {
 		t.Errorf("no uncastable row:\n%s", out)
 	}
 }
+
+// The band in the command line: the estimate's JSON carries its
+// percentiles (ordered, around the estimate) and chances; --samples 0
+// turns it off; a sample count outside its range is refused by name.
+func TestBandInTheCommandLine(t *testing.T) {
+	up, _ := designs(t)
+	js, errs, code := run(t, "estimate", up, "-f", "json", "-q")
+	if code != 0 {
+		t.Fatal(errs)
+	}
+	var v map[string]any
+	if err := json.Unmarshal([]byte(js), &v); err != nil {
+		t.Fatal(err)
+	}
+	band, ok := v["band"].(map[string]any)
+	if !ok {
+		t.Fatalf("no band: %v", v["band"])
+	}
+	h := band["head"].(map[string]any)
+	wall := v["result"].(map[string]any)["head"].(map[string]any)["wall_temperature_K"].(float64)
+	p5, p50, p95 := h["p5_K"].(float64), h["p50_K"].(float64), h["p95_K"].(float64)
+	if !(p5 < wall && wall < p95 && p5 < p50 && p50 < p95) || band["samples"].(float64) != 1000 {
+		t.Errorf("band %v %v %v around %v", p5, p50, p95, wall)
+	}
+	js, _, _ = run(t, "estimate", up, "-f", "json", "-q", "--samples", "0")
+	if !strings.Contains(js, `"band": null`) {
+		t.Error("--samples 0 left a band")
+	}
+	if _, errs, code := run(t, "estimate", up, "--samples", "5"); code != ExitUsage || !strings.Contains(errs, "--samples 5") {
+		t.Errorf("exit %d %s", code, errs)
+	}
+}

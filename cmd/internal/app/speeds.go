@@ -48,6 +48,13 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 	T := u.Name(output.Temp)
 	g := output.Grid{Title: "Temperatures against road speed",
 		Header: []string{"speed (" + u.Name(output.Road) + ")", "head load (W)", "barrel load (W)", "head (" + T + ")", "barrel (" + T + ")", "head margin (" + u.Name(output.TempDiff) + ")", "status"}}
+	n, err := e.samples(d)
+	if err != nil {
+		return err
+	}
+	if n > 0 && !d.WallFixed {
+		g.Header = append(g.Header, "head 5 % to 95 % ("+T+")", "chance over (%)")
+	}
 	var warns [][]string
 	var rows []map[string]any
 	stopped := ""
@@ -73,10 +80,19 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 		if !o.Fixed && o.Load.Head == 0 && o.Load.Barrel == 0 {
 			st, margin, ht, bt = "no load", "-", "-", "-"
 		}
-		g.Rows = append(g.Rows, []string{output.Num(u.Of(output.Road, v), 0), output.Num(o.Result.Head.HeatLoad, 0), output.Num(o.Result.Barrel.HeatLoad, 0),
-			ht, bt, margin, st})
+		row := []string{output.Num(u.Of(output.Road, v), 0), output.Num(o.Result.Head.HeatLoad, 0), output.Num(o.Result.Barrel.HeatLoad, 0),
+			ht, bt, margin, st}
+		band, err := e.band(d, v)
+		if err != nil {
+			return err
+		}
+		if band != nil {
+			row = append(row, bandText(u, band.Head), output.Num(100*band.HeadOver, 0))
+		}
+		g.Rows = append(g.Rows, row)
 		rows = append(rows, map[string]any{"speed_m_s": v, "load": o.Load, "head": summary(o.Result.Head), "barrel": summary(o.Result.Barrel),
-			"head_margin_K": marginJSON(o.Result.Head, o.HeadMargin()), "status": o.Status(), "equilibrium": o.NoEquilibrium == nil})
+			"head_margin_K": marginJSON(o.Result.Head, o.HeadMargin()), "status": o.Status(), "equilibrium": o.NoEquilibrium == nil,
+			"band": bandJSON(band)})
 	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: road-speed sweep, ambient %s %s, tilt %.0f deg", d.Name, fmtT(u, d.Case.Ambient), T, d.Case.Tilt*180/math.Pi),
 		Grids: []output.Grid{g}, Caution: true}

@@ -10,6 +10,7 @@ import (
 
 	"finmarch/airflow"
 	"finmarch/airflow/cylinder"
+	"finmarch/airflow/uncertainty"
 	"finmarch/fins"
 	"finmarch/materials"
 )
@@ -75,6 +76,7 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 	b.air()
 	b.load()
 	b.limits()
+	b.uncertainty()
 	b.ranges()
 	b.crossRules()
 	return d
@@ -281,6 +283,45 @@ func (b *builder) load() {
 			r.Cylinders = l.Cylinders
 		} else {
 			b.def("load.cylinders", "1")
+		}
+	}
+}
+
+// DefaultSamples is the band's sample count when a design names none:
+// percentiles within 1 K between seeds (airflow/uncertainty).
+const DefaultSamples = 1000
+
+// uncertainty reads [uncertainty]: the sample count, the seed and any
+// half-width that replaces its default (uncertainty.DefaultSpread).
+func (b *builder) uncertainty() {
+	u, d := b.f.Uncertainty, b.d
+	d.Band = BandSpec{Samples: DefaultSamples, Seed: 1, Spread: uncertainty.DefaultSpread()}
+	if b.md.IsDefined("uncertainty", "samples") {
+		if u.Samples != 0 && (u.Samples < 10 || u.Samples > 100000) {
+			b.add("uncertainty.samples", "%d; allowed 0 (no band) or 10 to 100000", u.Samples)
+		}
+		d.Band.Samples = u.Samples
+	}
+	if b.md.IsDefined("uncertainty", "seed") {
+		if u.Seed < 0 {
+			b.add("uncertainty.seed", "%d; a seed is a whole number from 0", u.Seed)
+		}
+		d.Band.Seed = uint64(max(u.Seed, 0))
+	}
+	sp := &d.Band.Spread
+	for _, h := range []struct {
+		key string
+		q   Q[Fraction]
+		dst *float64
+		hi  float64
+	}{
+		{"pressure_recovery", u.PressureRecovery, &sp.Recovery, 0.5}, {"cooling_share", u.CoolingShare, &sp.CoolShare, 0.9},
+		{"thermal_efficiency", u.ThermalEfficiency, &sp.Thermal, 0.9}, {"head_share", u.HeadShare, &sp.HeadShare, 0.5},
+		{"forced_convection", u.ForcedConvection, &sp.Forced, 0.9}, {"natural_convection", u.NaturalConvection, &sp.Natural, 0.9},
+		{"conductivity", u.Conductivity, &sp.Conductivity, 0.5}, {"emissivity", u.Emissivity, &sp.Emissivity, 0.5},
+	} {
+		if h.q.Set {
+			*h.dst = b.opt("uncertainty."+h.key, h.q.raw(), true, 0, 0, h.hi, "", 1, 0, "")
 		}
 	}
 }

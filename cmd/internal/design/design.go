@@ -14,22 +14,24 @@ import (
 	"github.com/BurntSushi/toml"
 
 	"finmarch/airflow/cylinder"
+	"finmarch/airflow/uncertainty"
 	"finmarch/fins"
 	"finmarch/materials"
 )
 
 // File mirrors the design file. Quantities are Q values in SI.
 type File struct {
-	Name     string            `toml:"name"`
-	Segments int               `toml:"segments"`
-	Cylinder CylinderT         `toml:"cylinder"`
-	Head     FinSetT           `toml:"head"`
-	Barrel   FinSetT           `toml:"barrel"`
-	Air      AirT              `toml:"air"`
-	Load     LoadT             `toml:"load"`
-	Limits   LimitsT           `toml:"limits"`
-	Override OverrideT         `toml:"override"`
-	Alloys   map[string]AlloyT `toml:"alloys"`
+	Name        string            `toml:"name"`
+	Segments    int               `toml:"segments"`
+	Cylinder    CylinderT         `toml:"cylinder"`
+	Head        FinSetT           `toml:"head"`
+	Barrel      FinSetT           `toml:"barrel"`
+	Air         AirT              `toml:"air"`
+	Load        LoadT             `toml:"load"`
+	Limits      LimitsT           `toml:"limits"`
+	Override    OverrideT         `toml:"override"`
+	Uncertainty UncertaintyT      `toml:"uncertainty"`
+	Alloys      map[string]AlloyT `toml:"alloys"`
 }
 
 // CylinderT is the [cylinder] table.
@@ -96,6 +98,22 @@ type OverrideT struct {
 	BarrelWall Q[Temperature] `toml:"barrel_wall"`
 }
 
+// UncertaintyT is the [uncertainty] table: the band's sample count and
+// seed, and the half-widths of the uncertain inputs (absolute for the
+// recovery, the head share and the emissivity; fractions for the rest).
+type UncertaintyT struct {
+	Samples           int         `toml:"samples"`
+	Seed              int         `toml:"seed"`
+	PressureRecovery  Q[Fraction] `toml:"pressure_recovery"`
+	CoolingShare      Q[Fraction] `toml:"cooling_share"`
+	ThermalEfficiency Q[Fraction] `toml:"thermal_efficiency"`
+	HeadShare         Q[Fraction] `toml:"head_share"`
+	ForcedConvection  Q[Fraction] `toml:"forced_convection"`
+	NaturalConvection Q[Fraction] `toml:"natural_convection"`
+	Conductivity      Q[Fraction] `toml:"conductivity"`
+	Emissivity        Q[Fraction] `toml:"emissivity"`
+}
+
 // AlloyT is one [alloys.NAME] table: a custom alloy.
 type AlloyT struct {
 	Conductivity      Q[Conductivity] `toml:"conductivity"`
@@ -114,6 +132,7 @@ type Design struct {
 	Run         cylinder.Settings // segments; the command line adds caches and totals-only per use
 	Load        cylinder.Load
 	Casting     fins.Process // the process the fins are made by; every command checks them against its limits
+	Band        BandSpec     // the uncertainty band's samples, seed and spread
 	HeadLimit   float64      // K
 	BarrelLimit float64      // K
 	Altitude    float64      // m (0 when the pressure was given)
@@ -133,6 +152,13 @@ type Design struct {
 func (d *Design) OverrideSegments(n int) {
 	d.Run.Segments = n
 	d.segOverride = true
+}
+
+// BandSpec is how a design's uncertainty band is sampled.
+type BandSpec struct {
+	Samples int                // 0: no band
+	Seed    uint64             //
+	Spread  uncertainty.Spread // half-widths of the uncertain inputs
 }
 
 // Cylinder is the design as the estimator takes it: the case, the load,

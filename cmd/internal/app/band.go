@@ -1,0 +1,96 @@
+package app
+
+import (
+	"fmt"
+
+	"finmarch/airflow/cylinder"
+	"finmarch/airflow/uncertainty"
+	"finmarch/cmd/internal/design"
+	"finmarch/cmd/internal/output"
+)
+
+// samples is the band's sample count for d: --samples, or the design's.
+func (e *env) samples(d *design.Design) (int, error) {
+	n := d.Band.Samples
+	if e.opt.samples >= 0 {
+		n = e.opt.samples
+		if n != 0 && (n < 10 || n > 100000) {
+			return 0, fail(ExitUsage, fmt.Errorf("--samples %d: allowed 0 (no band) or 10 to 100000", n))
+		}
+	}
+	return n, nil
+}
+
+// band samples the design's uncertain inputs at road speed v; nil when the
+// band is off (no samples) or the walls are fixed.
+func (e *env) band(d *design.Design, v float64) (*uncertainty.Band, error) {
+	n, err := e.samples(d)
+	if err != nil || n == 0 || d.WallFixed {
+		return nil, err
+	}
+	cd := d.Cylinder()
+	cd.Case.Speed = v
+	b, err := uncertainty.Estimate(cd, d.Run, d.Band.Spread, n, d.Band.Seed, 0)
+	if err != nil {
+		return nil, fail(ExitModel, fmt.Errorf("%s: %w", d.Name, err))
+	}
+	return &b, nil
+}
+
+// bandText is a 5th-95th percentile range in display units.
+func bandText(u output.Units, p uncertainty.Percentiles) string {
+	t := func(k float64) string {
+		if k > cylinder.SaneWallLimit {
+			return noEquilibrium
+		}
+		return fmtT(u, k)
+	}
+	return t(p.P5) + " to " + t(p.P95)
+}
+
+// bandGrid is the band as a table: each set's percentiles and the
+// probability of passing its limit.
+func bandGrid(u output.Units, d *design.Design, b *uncertainty.Band) output.Grid {
+	T := u.Name(output.Temp)
+	g := output.Grid{Title: fmt.Sprintf("Uncertainty band (%d samples, seed %d; [uncertainty] in the design)", b.Samples, b.Seed),
+		Header: []string{"set", "5 % (" + T + ")", "50 % (" + T + ")", "95 % (" + T + ")", "limit (" + T + ")", "chance over the limit"}, Left: 1}
+	t := func(k float64) string {
+		if k > cylinder.SaneWallLimit {
+			return noEquilibrium
+		}
+		return fmtT(u, k)
+	}
+	for _, r := range []struct {
+		name  string
+		p     uncertainty.Percentiles
+		limit float64
+		over  float64
+	}{{"head", b.Head, d.HeadLimit, b.HeadOver}, {"barrel", b.Barrel, d.BarrelLimit, b.BarrelOver}} {
+		g.Rows = append(g.Rows, []string{r.name, t(r.p.P5), t(r.p.P50), t(r.p.P95), fmtT(u, r.limit), output.Num(100*r.over, 0) + " %"})
+	}
+	return g
+}
+
+// bandNote says what the band covers.
+const bandNote = "The band samples the poorly known inputs within stated half-widths (pressure recovery, cooling share, thermal efficiency, head share, " +
+	"forced and natural convection scatter, conductivity, emissivity; defaults and sources in 'go doc finmarch/airflow/uncertainty'); " +
+	"to narrow it, measure the head on the running engine, set air.pressure_recovery so that the estimate meets the measurement, and shrink [uncertainty] pressure_recovery."
+
+// bandJSON is the band for the JSON (null when off).
+func bandJSON(b *uncertainty.Band) any {
+	if b == nil {
+		return nil
+	}
+	pj := func(p uncertainty.Percentiles) map[string]any {
+		v := func(k float64) any {
+			if k > cylinder.SaneWallLimit {
+				return nil // no equilibrium at that percentile
+			}
+			return k
+		}
+		return map[string]any{"p5_K": v(p.P5), "p50_K": v(p.P50), "p95_K": v(p.P95)}
+	}
+	return map[string]any{"samples": b.Samples, "seed": b.Seed, "head": pj(b.Head), "barrel": pj(b.Barrel),
+		"head_over_limit_probability": b.HeadOver, "barrel_over_limit_probability": b.BarrelOver,
+		"no_equilibrium_samples": b.NoEquilibrium, "failed_samples": b.Failed}
+}
