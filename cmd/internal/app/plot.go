@@ -197,6 +197,8 @@ func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.F
 	for i, d := range ds {
 		h := plots.Series{Label: letter(i) + " head", Design: i}
 		b := plots.Series{Label: letter(i) + " barrel", Design: i, Dashed: true}
+		lo := plots.Series{Label: letter(i) + " head, 5 % and 95 %", Design: i, Thin: true}
+		hi := plots.Series{Design: i, Thin: true}
 		for k := 0; ; k++ {
 			v := from + float64(k)*step
 			if v > to+1e-9 {
@@ -217,8 +219,17 @@ func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.F
 			}
 			h.X, h.Y = append(h.X, u.Of(output.Road, v)), append(h.Y, u.Of(output.Temp, o.Result.Head.WallTemp))
 			b.X, b.Y = append(b.X, u.Of(output.Road, v)), append(b.Y, u.Of(output.Temp, o.Result.Barrel.WallTemp))
+			band, err := e.band(d, v)
+			if err != nil {
+				return nil, err
+			}
+			// the band's edges, where its samples reach an equilibrium
+			if band != nil && band.Head.P95 <= cylinder.SaneWallLimit {
+				lo.X, lo.Y = append(lo.X, u.Of(output.Road, v)), append(lo.Y, u.Of(output.Temp, band.Head.P5))
+				hi.X, hi.Y = append(hi.X, u.Of(output.Road, v)), append(hi.Y, u.Of(output.Temp, band.Head.P95))
+			}
 		}
-		lines = append(lines, h, b)
+		lines = append(lines, h, b, lo, hi)
 		limits[fmt.Sprintf("head limit %s %s", output.Num(u.Of(output.Temp, d.HeadLimit), 0), u.Name(output.Temp))] = u.Of(output.Temp, d.HeadLimit)
 		names = append(names, letter(i)+": "+short(d.Name))
 	}

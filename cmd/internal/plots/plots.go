@@ -21,6 +21,7 @@ type Series struct {
 	X, Y   []float64
 	Design int  // colour index
 	Dashed bool // second fin set of a design
+	Thin   bool // a band's edge: thin and dotted
 }
 
 // palette: dark, print-safe colours that stay distinct in grey.
@@ -76,8 +77,14 @@ func addLines(p *plot.Plot, ss []Series) error {
 		if s.Dashed {
 			l.Dashes = []vg.Length{vg.Points(6), vg.Points(3)}
 		}
+		if s.Thin {
+			l.Width = vg.Points(0.8)
+			l.Dashes = []vg.Length{vg.Points(1.5), vg.Points(2)}
+		}
 		p.Add(l)
-		p.Legend.Add(s.Label, l)
+		if s.Label != "" {
+			p.Legend.Add(s.Label, l)
+		}
 	}
 	return nil
 }
