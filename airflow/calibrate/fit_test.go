@@ -1,0 +1,96 @@
+package calibrate
+
+import (
+	"errors"
+	"math"
+	"testing"
+
+	"finmarch/airflow/cylinder"
+	"finmarch/airflow/internal/demotest"
+)
+
+// demo is the upright demo with its road load (the load rises with speed,
+// which parts the parameters).
+func demo(t *testing.T) cylinder.Design {
+	d := demotest.Upright(t)
+	d.Load = cylinder.Load{Road: cylinder.RoadLoad{Mass: 230, CdA: 0.45, CoolShare: 0.18, IdleHeat: 500}}
+	return d
+}
+
+// measure makes a "measured" head temperature with the estimator itself at
+// recovery rec, plus noise and a measuring-place offset.
+func measure(t *testing.T, d cylinder.Design, rec, v, amb, noise, offset float64) Point {
+	t.Helper()
+	d.Case.Recovery, d.Case.Speed, d.Case.Ambient = rec, v, amb
+	o, err := d.Evaluate(cylinder.Settings{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return Point{Speed: v, Ambient: amb, Pressure: d.Case.Pressure, Temp: o.Result.Head.WallTemp + noise + offset}
+}
+
+// A measurement made by the tool itself at a known recovery (0.35) gives it
+// back to 1e-3 from a design that assumed 0.5, at a fin root and at a plug
+// seat whose stated offset is taken off.
+func TestRecoversAKnownRecovery(t *testing.T) {
+	d := demo(t)
+	for _, off := range []float64{0, 25} {
+		p := measure(t, d, 0.35, 90/3.6, 303.15, 0, off)
+		p.Offset = off
+		f, err := Calibrate(d, cylinder.Settings{}, []Point{p})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if r, _ := f.Get(Recovery); math.Abs(r-0.35) > 1e-3 || math.Abs(f.Residuals[0]) > 1e-3 {
+			t.Errorf("offset %g: recovery %.5f, residual %.3g", off, r, f.Residuals[0])
+		}
+	}
+}
+
+// Three points with 5 K of noise: the fitted recovery and the residuals are
+// reported, and the truth lies within two standard errors of the fit; with
+// the plug offset fitted too, the offset comes out near the truth.
+func TestThreeNoisyPoints(t *testing.T) {
+	d := demo(t)
+	noise := []float64{5, -5, 4}
+	var pts []Point
+	for i, v := range []float64{60, 90, 120} {
+		pts = append(pts, measure(t, d, 0.35, v/3.6, 300+float64(i)*5, noise[i], 0))
+	}
+	f, err := Calibrate(d, cylinder.Settings{}, pts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p := f.Params[0]
+	if math.Abs(p.Value-0.35) > 2*p.StdError || !(p.StdError > 0) || len(f.Residuals) != 3 {
+		t.Errorf("recovery %.4f +- %.4f against 0.35; residuals %v", p.Value, p.StdError, f.Residuals)
+	}
+	var plug []Point
+	for i, v := range []float64{40, 90, 120} {
+		q := measure(t, d, 0.35, v/3.6, 300, noise[i], 20)
+		plug = append(plug, q)
+	}
+	g, err := Calibrate(d, cylinder.Settings{}, plug, Recovery, Offset)
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, _ := g.Get(Recovery)
+	o, _ := g.Get(Offset)
+	if math.Abs(r-0.35) > 2*g.Params[0].StdError || math.Abs(o-20) > 2*g.Params[1].StdError {
+		t.Errorf("recovery %.4f +- %.4f, offset %.2f +- %.2f K", r, g.Params[0].StdError, o, g.Params[1].StdError)
+	}
+}
+
+// A fit the points cannot identify is refused, saying why: the recovery
+// and the forced factor from two points (both scale the forced
+// coefficient), or more parameters than points.
+func TestRefusesWhatThePointsCannotTell(t *testing.T) {
+	d := demo(t)
+	pts := []Point{measure(t, d, 0.35, 60/3.6, 300, 0, 0), measure(t, d, 0.35, 90/3.6, 300, 0, 0)}
+	if _, err := Calibrate(d, cylinder.Settings{}, pts, Recovery, ForcedFactor); !errors.Is(err, ErrNotIdentifiable) {
+		t.Errorf("recovery and forced factor from two points: %v", err)
+	}
+	if _, err := Calibrate(d, cylinder.Settings{}, pts[:1], Recovery, Offset); !errors.Is(err, ErrNotIdentifiable) {
+		t.Errorf("two parameters from one point: %v", err)
+	}
+}
