@@ -128,7 +128,7 @@ upright with annular fins against laid over with longitudinal fins.`,
 		return []string{"metric", "us"}, cobra.ShellCompDirectiveNoFileComp
 	})
 	root.AddCommand(e.demoCmd(), e.estimateCmd(), e.compareCmd(), e.tiltCmd(), e.marchCmd(), e.speedsCmd(),
-		e.sweepCmd(), e.optimiseCmd(), e.plotCmd(), e.reportCmd(), e.finCmd(), e.alloysCmd(), e.newCmd())
+		e.sweepCmd(), e.optimiseCmd(), e.calibrateCmd(), e.plotCmd(), e.reportCmd(), e.finCmd(), e.alloysCmd(), e.newCmd())
 	return root
 }
 

@@ -2,6 +2,7 @@ package app
 
 import (
 	"encoding/json"
+	"math"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -293,5 +294,49 @@ func TestBandInTheCommandLine(t *testing.T) {
 	}
 	if _, errs, code := run(t, "estimate", up, "--samples", "5"); code != ExitUsage || !strings.Contains(errs, "--samples 5") {
 		t.Errorf("exit %d %s", code, errs)
+	}
+}
+
+// Calibration through the command line: a plug-seat reading with its
+// offset fits the recovery, the written design predicts the measured fin
+// root at the measured point (the band narrow around it), the source is
+// not touched, and fits the points cannot carry are refused.
+func TestCalibrateCommand(t *testing.T) {
+	up, _ := designs(t)
+	dir := filepath.Dir(up)
+	src, _ := os.ReadFile(up)
+	meas := string(src) + "\n[[measurement]]\nspeed = \"90 km/h\"\nambient = \"28 C\"\nhead = \"204 C\"\nplace = \"plug-seat\"\noffset = \"15 K\"\n"
+	in := filepath.Join(dir, "measured.toml")
+	if err := os.WriteFile(in, []byte(meas), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	out := filepath.Join(dir, "calibrated.toml")
+	if _, errs, code := run(t, "calibrate", in, "--write", out, "-q"); code != 0 {
+		t.Fatalf("exit %d %s", code, errs)
+	}
+	if b, _ := os.ReadFile(in); string(b) != meas {
+		t.Error("the measured design was changed")
+	}
+	js, errs, code := run(t, "estimate", out, "--ambient", "28 C", "-f", "json", "-q")
+	if code != 0 {
+		t.Fatal(errs)
+	}
+	var v map[string]any
+	if err := json.Unmarshal([]byte(js), &v); err != nil {
+		t.Fatal(err)
+	}
+	wall := v["result"].(map[string]any)["head"].(map[string]any)["wall_temperature_K"].(float64)
+	if math.Abs(wall-(204+273.15-15)) > 0.05 {
+		t.Errorf("calibrated head %.3f K, measured fin root %.3f K", wall, 204+273.15-15)
+	}
+	band := v["band"].(map[string]any)["head"].(map[string]any)
+	if w := band["p95_K"].(float64) - band["p5_K"].(float64); !(w < 25) {
+		t.Errorf("a calibrated band %.1f K wide", w)
+	}
+	if _, errs, code := run(t, "calibrate", in, "--fit", "recovery,forced"); code != ExitModel || !strings.Contains(errs, "cannot identify") {
+		t.Errorf("two parameters from one point: exit %d %s", code, errs)
+	}
+	if _, errs, code := run(t, "calibrate", up); code != ExitDesign || !strings.Contains(errs, "no [[measurement]]") {
+		t.Errorf("no measurement: exit %d %s", code, errs)
 	}
 }

@@ -9,6 +9,7 @@ import (
 	"github.com/BurntSushi/toml"
 
 	"finmarch/airflow"
+	"finmarch/airflow/calibrate"
 	"finmarch/airflow/cylinder"
 	"finmarch/airflow/uncertainty"
 	"finmarch/fins"
@@ -77,6 +78,7 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 	b.load()
 	b.limits()
 	b.uncertainty()
+	b.calibration()
 	b.ranges()
 	b.crossRules()
 	return d
@@ -323,6 +325,59 @@ func (b *builder) uncertainty() {
 		if h.q.Set {
 			*h.dst = b.opt("uncertainty."+h.key, h.q.raw(), true, 0, 0, h.hi, "", 1, 0, "")
 		}
+	}
+}
+
+// calibration reads the [calibration] factors and the [[measurement]]s.
+func (b *builder) calibration() {
+	f, d := b.f, b.d
+	cal := f.Calibration
+	if cal.ForcedConvectionFactor.Set {
+		d.Run.ForcedFactor = b.opt("calibration.forced_convection_factor", cal.ForcedConvectionFactor.raw(), true, 1, 0.3, 3, "", 1, 0, "")
+	}
+	if cal.HeatLoadFactor.Set {
+		k := b.opt("calibration.heat_load_factor", cal.HeatLoadFactor.raw(), true, 1, 0.3, 3, "", 1, 0, "")
+		if d.Load.Direct {
+			d.Load.Given.Head *= k
+			d.Load.Given.Barrel *= k
+		} else {
+			cs := d.Load.Road.CoolShare
+			if cs == 0 {
+				cs = cylinder.DefaultCoolShare
+			}
+			d.Load.Road.CoolShare = cs * k
+		}
+	}
+	for i, m := range f.Measurement {
+		key := fmt.Sprintf("measurement[%d]", i+1)
+		if m.Head.Set == m.Barrel.Set {
+			b.add("measurement", "%s: give the head or the barrel temperature measured (one of them)", key)
+			continue
+		}
+		p := calibrate.Point{Speed: m.Speed.Or(math.NaN()), Ambient: m.Ambient.Or(math.NaN()), Barrel: m.Barrel.Set,
+			Temp: m.Head.Or(m.Barrel.Or(0)), Offset: m.Offset.Or(0), Sigma: m.Sigma.Or(0)}
+		alt := m.Altitude.Or(d.Altitude)
+		p.Pressure = airflow.ISA(alt, nil).P
+		switch strings.ToLower(strings.TrimSpace(m.Place)) {
+		case "", "fin-root", "fin root":
+		case "plug-seat", "plug seat", "spark-plug-seat":
+			if !m.Offset.Set {
+				b.add("measurement", "%s: a plug-seat reading needs offset, how much hotter the seat runs than the mean fin root (measure both once, or fit it: finmarch calibrate --fit recovery,offset)", key)
+			}
+		default:
+			b.add("measurement", "%s: place %q: fin-root or plug-seat", key, m.Place)
+		}
+		switch {
+		case !(p.Speed >= 0 && p.Speed <= 400/3.6):
+			b.add("measurement", "%s: speed missing or outside 0 to 400 km/h", key)
+		case !(p.Ambient > 223 && p.Ambient < 333):
+			b.add("measurement", "%s: ambient missing or outside -50 to 60 C", key)
+		case !(p.Temp > p.Ambient && p.Temp < 773.15):
+			b.add("measurement", "%s: the measured temperature must lie between the ambient and 500 C", key)
+		case !(p.Sigma >= 0 && p.Sigma < 100) || !(p.Offset > -100 && p.Offset < 200):
+			b.add("measurement", "%s: uncertainty 0 to 100 K, offset -100 to 200 K", key)
+		}
+		d.Points = append(d.Points, p)
 	}
 }
 

@@ -13,6 +13,7 @@ import (
 
 	"github.com/BurntSushi/toml"
 
+	"finmarch/airflow/calibrate"
 	"finmarch/airflow/cylinder"
 	"finmarch/airflow/uncertainty"
 	"finmarch/fins"
@@ -31,6 +32,8 @@ type File struct {
 	Limits      LimitsT           `toml:"limits"`
 	Override    OverrideT         `toml:"override"`
 	Uncertainty UncertaintyT      `toml:"uncertainty"`
+	Calibration CalibrationT      `toml:"calibration"`
+	Measurement []MeasurementT    `toml:"measurement"`
 	Alloys      map[string]AlloyT `toml:"alloys"`
 }
 
@@ -114,6 +117,26 @@ type UncertaintyT struct {
 	Emissivity        Q[Fraction] `toml:"emissivity"`
 }
 
+// CalibrationT is the [calibration] table: factors fitted to measurements
+// by 'finmarch calibrate' (1 when absent).
+type CalibrationT struct {
+	ForcedConvectionFactor Q[Fraction] `toml:"forced_convection_factor"`
+	HeatLoadFactor         Q[Fraction] `toml:"heat_load_factor"`
+}
+
+// MeasurementT is one [[measurement]]: a wall temperature measured on the
+// running engine, for 'finmarch calibrate'.
+type MeasurementT struct {
+	Speed    Q[Speed]       `toml:"speed"`
+	Ambient  Q[Temperature] `toml:"ambient"`
+	Altitude Q[Length]      `toml:"altitude"`
+	Head     Q[Temperature] `toml:"head"`
+	Barrel   Q[Temperature] `toml:"barrel"`
+	Place    string         `toml:"place"`
+	Offset   Q[TempDiff]    `toml:"offset"`
+	Sigma    Q[TempDiff]    `toml:"uncertainty"`
+}
+
 // AlloyT is one [alloys.NAME] table: a custom alloy.
 type AlloyT struct {
 	Conductivity      Q[Conductivity] `toml:"conductivity"`
@@ -131,11 +154,12 @@ type Design struct {
 	Case        cylinder.Case
 	Run         cylinder.Settings // segments; the command line adds caches and totals-only per use
 	Load        cylinder.Load
-	Casting     fins.Process // the process the fins are made by; every command checks them against its limits
-	Band        BandSpec     // the uncertainty band's samples, seed and spread
-	HeadLimit   float64      // K
-	BarrelLimit float64      // K
-	Altitude    float64      // m (0 when the pressure was given)
+	Casting     fins.Process      // the process the fins are made by; every command checks them against its limits
+	Band        BandSpec          // the uncertainty band's samples, seed and spread
+	Points      []calibrate.Point // the design's [[measurement]]s
+	HeadLimit   float64           // K
+	BarrelLimit float64           // K
+	Altitude    float64           // m (0 when the pressure was given)
 	WallFixed   bool
 	HeadWall    float64  // K
 	BarrelWall  float64  // K

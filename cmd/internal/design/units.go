@@ -18,6 +18,8 @@ type dimension struct {
 	// (m against mm, K against C, m/s against km/h, rad against deg): on
 	// the command line a bare number for them is refused, not read as SI
 	needsUnit bool
+	// difference marks a temperature difference: "25 C" or "25 K" is 25 K
+	difference bool
 }
 
 type unitConv struct {
@@ -110,7 +112,7 @@ func parseQuantity(v any, d *dimension) (float64, error) {
 	}
 }
 
-func parseString(s string, d *dimension) (float64, error) { return parseText(s, d, false) }
+func parseString(s string, d *dimension) (float64, error) { return parseText(s, d, d.difference) }
 
 // parseText converts "6 mm" to SI; with difference set it converts a
 // difference ("5 C" is 5 K), leaving out the unit's offset.
@@ -177,6 +179,7 @@ type (
 	Density      struct{}
 	Conductivity struct{}
 	SpecificHeat struct{}
+	TempDiff     struct{} // a temperature difference, K
 )
 
 func (Length) dim() *dimension       { return dimLength }
@@ -193,6 +196,15 @@ func (Percent) dim() *dimension      { return dimPercent }
 func (Density) dim() *dimension      { return dimDensity }
 func (Conductivity) dim() *dimension { return dimConductivity }
 func (SpecificHeat) dim() *dimension { return dimSpecificHeat }
+func (TempDiff) dim() *dimension     { return dimTempDiff }
+
+// dimTempDiff is a temperature difference: the temperature units without
+// their offsets.
+var dimTempDiff = func() *dimension {
+	d := *dimTemp
+	d.name, d.difference = "temperature difference", true
+	return &d
+}()
 
 // Q is a quantity read from the design file, held in SI. Set records
 // whether the key was present.

@@ -1,0 +1,171 @@
+package app
+
+import (
+	"fmt"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"finmarch/airflow/calibrate"
+	"finmarch/cmd/internal/design"
+	"finmarch/cmd/internal/output"
+)
+
+func (e *env) calibrateCmd() *cobra.Command {
+	var fit, write string
+	cmd := &cobra.Command{
+		Use:   "calibrate DESIGN.toml [--fit recovery[,forced,load,offset]] [--write CALIBRATED.toml]",
+		Short: "Fit the design's pressure recovery (and more) to head or barrel temperatures measured on the engine",
+		Long: `calibrate fits the design's poorly known parameters to the temperatures measured on the
+running engine, given in the design as [[measurement]] tables (speed, ambient, altitude,
+head or barrel, place fin-root or plug-seat with its offset, uncertainty). It fits the
+pressure recovery; --fit adds the forced convection factor (forced), the heat load factor
+(load) or the offset of the measuring place (offset), when the points can tell them
+apart, and refuses a fit they cannot. It prints the fitted values with their standard
+errors and each point's residual; --write writes the calibrated design (the fitted values
+set, the band's half-widths narrowed to the fit) and never replaces a file without --force.
+
+  [[measurement]]
+  speed = "90 km/h"
+  ambient = "28 C"
+  head = "204 C"
+  place = "plug-seat"
+  offset = "15 K"      # the seat runs this much hotter than the mean fin root`,
+		Args:              cobra.ExactArgs(1),
+		ValidArgsFunction: tomlArgs,
+		RunE: func(_ *cobra.Command, args []string) error {
+			d, err := e.load(args[0])
+			if err != nil {
+				return err
+			}
+			names, err := fitNames(fit)
+			if err != nil {
+				return err
+			}
+			return e.calibrate(d, args[0], names, write)
+		},
+	}
+	cmd.Flags().StringVar(&fit, "fit", "recovery", "parameters to fit: recovery, forced, load, offset (comma-separated)")
+	cmd.Flags().StringVar(&write, "write", "", "write the calibrated design to this file")
+	return cmd
+}
+
+func fitNames(s string) ([]string, error) {
+	var out []string
+	for _, f := range strings.Split(s, ",") {
+		n, ok := map[string]string{"recovery": calibrate.Recovery, "forced": calibrate.ForcedFactor, "load": calibrate.LoadFactor, "offset": calibrate.Offset}[strings.TrimSpace(f)]
+		if !ok {
+			return nil, fail(ExitUsage, fmt.Errorf("--fit %q: recovery, forced, load or offset, comma-separated", f))
+		}
+		out = append(out, n)
+	}
+	return out, nil
+}
+
+func (e *env) calibrate(d *design.Design, path string, names []string, write string) error {
+	_, u, err := e.settings()
+	if err != nil {
+		return err
+	}
+	if len(d.Points) == 0 {
+		return fail(ExitDesign, fmt.Errorf("%s: no [[measurement]] to calibrate against; add one (finmarch calibrate --help)", path))
+	}
+	f, err := calibrate.Calibrate(d.Cylinder(), d.Run, d.Points, names...)
+	if err != nil {
+		return fail(ExitModel, fmt.Errorf("%s: %w", d.Name, err))
+	}
+	T := u.Name(output.Temp)
+	pg := output.Grid{Title: "Fitted parameters", Header: []string{"parameter", "value", "standard error", "plausible range"}, Left: 1}
+	for _, p := range f.Params {
+		pg.Rows = append(pg.Rows, []string{p.Name, output.Num(p.Value, 4), output.Num(p.StdError, 4), output.Num(p.Lo, 2) + " to " + output.Num(p.Hi, 2)})
+	}
+	rg := output.Grid{Title: "Measured points", Header: []string{"point", "speed (" + u.Name(output.Road) + ")", "ambient (" + T + ")", "set", "measured (" + T + ")", "offset (" + u.Name(output.TempDiff) + ")", "residual (" + u.Name(output.TempDiff) + ")"}, Left: 1}
+	for i, p := range d.Points {
+		set := "head"
+		if p.Barrel {
+			set = "barrel"
+		}
+		sig := p.Sigma
+		if sig <= 0 {
+			sig = calibrate.DefaultSigma
+		}
+		rg.Rows = append(rg.Rows, []string{fmt.Sprint(i + 1), output.Num(u.Of(output.Road, p.Speed), 0), fmtT(u, p.Ambient), set,
+			fmtT(u, p.Temp), fmtDT(u, p.Offset), fmtDT(u, f.Residuals[i]*sig)})
+	}
+	doc := output.Doc{Title: fmt.Sprintf("%s: calibration against %d measured point(s)", d.Name, len(d.Points)), Grids: []output.Grid{pg, rg}, Caution: true,
+		Notes: []string{"A residual is the model (plus the measuring place's offset) less the measurement; a plug seat runs hotter than the mean fin root the model gives.",
+			"Standard errors come from the fit's covariance, scaled by the residuals when the points outnumber the parameters and by the points' stated uncertainty (5 K unless given) otherwise."}}
+	kvs := calibratedKeys(f)
+	if write != "" {
+		src, err := readDesign(path)
+		if err != nil {
+			return err
+		}
+		out := design.SetKeys(src, kvs)
+		if _, err := design.Parse(out, write); err != nil {
+			return fail(ExitInternal, fmt.Errorf("the calibrated design does not parse: %w", err))
+		}
+		if err := e.write(write, out); err != nil {
+			return err
+		}
+		doc.Notes = append(doc.Notes, fmt.Sprintf("Wrote %s: the fitted values set and the band's half-widths narrowed to two standard errors; 'finmarch estimate %s' predicts with them.", write, write))
+	} else {
+		var keys []string
+		for _, kv := range kvs {
+			keys = append(keys, kv.Key+" = "+kv.Value)
+		}
+		doc.Notes = append(doc.Notes, "To use the fit, set in the design: "+strings.Join(keys, "; ")+" (or run with --write FILE).")
+	}
+	doc.JSON = map[string]any{"design": d.Name, "parameters": f.Params, "residuals_K": scaleResiduals(f, d.Points), "chi2": f.Chi2, "caution": output.Caution}
+	return e.emit(doc)
+}
+
+// calibratedKeys are the design keys a fit sets: each fitted value, and
+// the band's half-width of that input narrowed to two standard errors (the
+// offset belongs to the measuring place, not to the design).
+func calibratedKeys(f calibrate.Fit) []design.KV {
+	var kvs []design.KV
+	for _, p := range f.Params {
+		v, h := output.Num(p.Value, 4), output.Num(2*p.StdError, 4)
+		switch p.Name {
+		case calibrate.Recovery:
+			kvs = append(kvs, design.KV{Key: "air.pressure_recovery", Value: v, Note: "fitted by finmarch calibrate"},
+				design.KV{Key: "uncertainty.pressure_recovery", Value: h, Note: "two standard errors of the fit"})
+			// the fitted recovery absorbs what the measurement saw of the
+			// convection's and the load's scatter: those inputs no longer
+			// vary on their own
+			for _, k := range []string{"forced_convection", "cooling_share", "thermal_efficiency", "head_share"} {
+				if !fitted(f, k) {
+					kvs = append(kvs, design.KV{Key: "uncertainty." + k, Value: "0", Note: "absorbed by the fitted pressure recovery"})
+				}
+			}
+		case calibrate.ForcedFactor:
+			kvs = append(kvs, design.KV{Key: "calibration.forced_convection_factor", Value: v, Note: "fitted by finmarch calibrate"},
+				design.KV{Key: "uncertainty.forced_convection", Value: output.Num(2*p.StdError/p.Value, 4), Note: "two standard errors of the fit"})
+		case calibrate.LoadFactor:
+			kvs = append(kvs, design.KV{Key: "calibration.heat_load_factor", Value: v, Note: "fitted by finmarch calibrate"},
+				design.KV{Key: "uncertainty.cooling_share", Value: output.Num(2*p.StdError/p.Value, 4), Note: "two standard errors of the fit"})
+		}
+	}
+	return kvs
+}
+
+// fitted reports whether the fit carries its own parameter for the band's
+// input k (so that its half-width comes from the fit, not from zero).
+func fitted(f calibrate.Fit, k string) bool {
+	name := map[string]string{"forced_convection": calibrate.ForcedFactor, "cooling_share": calibrate.LoadFactor}[k]
+	_, ok := f.Get(name)
+	return name != "" && ok
+}
+
+func scaleResiduals(f calibrate.Fit, pts []calibrate.Point) []float64 {
+	out := make([]float64, len(pts))
+	for i, p := range pts {
+		sig := p.Sigma
+		if sig <= 0 {
+			sig = calibrate.DefaultSigma
+		}
+		out[i] = f.Residuals[i] * sig
+	}
+	return out
+}
