@@ -37,9 +37,10 @@ type Param struct {
 // Fit is the result.
 type Fit struct {
 	Params     []Param
-	Residuals  []float64 // K, model less measurement (offset taken off) per point
+	Residuals  []float64 // K, model plus the measuring place's offset less the measurement, per point
 	Chi2       float64   // sum of squared residuals over sigma^2
 	Iterations int
+	Warnings   []string // points the fit misses by more than three of their uncertainties
 }
 
 // Get returns the fitted value of the named parameter and whether it was
@@ -64,6 +65,11 @@ const (
 // ErrNotIdentifiable is wrapped when the points cannot separate the
 // parameters.
 var ErrNotIdentifiable = errors.New("the points cannot identify the parameters")
+
+// ErrAtBound is wrapped when the best fit needs a parameter at the end of
+// its plausible range: the model cannot meet the points with plausible
+// values, and the fitted numbers would mislead.
+var ErrAtBound = errors.New("the fit rests on the end of a plausible range")
 
 // Calibrate fits the named parameters (Recovery, ForcedFactor, LoadFactor,
 // Offset; the recovery alone when none is named) of the design to the
@@ -117,7 +123,36 @@ func Calibrate(d cylinder.Design, s cylinder.Settings, pts []Point, names ...str
 		x[i] = p.Value
 	}
 	model := func(x []float64) ([]float64, error) { return residuals(d, s, pts, ps, x) }
-	return levenbergMarquardt(model, x, ps)
+	f, err := levenbergMarquardt(model, x, ps)
+	worst := 0.0
+	for i := range f.Residuals {
+		sig := sigma(pts[i])
+		f.Residuals[i] *= sig
+		worst = math.Max(worst, math.Abs(f.Residuals[i]))
+		if len(pts) > len(ps) && math.Abs(f.Residuals[i]) > 3*sig {
+			f.Warnings = append(f.Warnings, fmt.Sprintf("calibrate: point %d misses by %.1f K, more than three times its uncertainty (%.0f K): check its speed, ambient, place and offset", i+1, f.Residuals[i], sig))
+		}
+	}
+	if err != nil {
+		return f, err
+	}
+	// a parameter pinned to the end of its range (within 1e-3 of the range)
+	// means the points ask for more than the model can give
+	for _, p := range f.Params {
+		if w := 1e-3 * (p.Hi - p.Lo); p.Value < p.Lo+w || p.Value > p.Hi-w {
+			return f, fmt.Errorf("%w: the %s went to %.3g, the end of its plausible %.3g to %.3g, and the points are still missed by up to %.0f K; the model cannot meet them with plausible values: check each reading's speed, ambient, place and offset, and the design's load",
+				ErrAtBound, p.Name, p.Value, p.Lo, p.Hi, worst)
+		}
+	}
+	return f, nil
+}
+
+// sigma is a point's uncertainty, DefaultSigma when none is given.
+func sigma(p Point) float64 {
+	if p.Sigma > 0 {
+		return p.Sigma
+	}
+	return DefaultSigma
 }
 
 // Apply returns the design and settings with the fit's parameters: what a
@@ -178,11 +213,7 @@ func residuals(d cylinder.Design, s cylinder.Settings, pts []Point, ps []Param, 
 		if p.Barrel {
 			r = o.Result.Barrel
 		}
-		sig := p.Sigma
-		if sig <= 0 {
-			sig = DefaultSigma
-		}
-		out[i] = (r.WallTemp + p.Offset + extra - p.Temp) / sig
+		out[i] = (r.WallTemp + p.Offset + extra - p.Temp) / sigma(p)
 	}
 	return out, nil
 }

@@ -3,6 +3,7 @@ package calibrate
 import (
 	"errors"
 	"math"
+	"strings"
 	"testing"
 
 	"finmarch/airflow/cylinder"
@@ -65,6 +66,26 @@ func TestThreeNoisyPoints(t *testing.T) {
 	if math.Abs(p.Value-0.35) > 2*p.StdError || !(p.StdError > 0) || len(f.Residuals) != 3 {
 		t.Errorf("recovery %.4f +- %.4f against 0.35; residuals %v", p.Value, p.StdError, f.Residuals)
 	}
+	// the residuals are in kelvin whatever the points' uncertainty: the
+	// calibrated design re-evaluated at each point, less the reading
+	for i := range pts {
+		pts[i].Sigma = 2
+	}
+	f2, err := Calibrate(d, cylinder.Settings{}, pts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	dd, ss := f2.Apply(d, cylinder.Settings{})
+	for i, q := range pts {
+		dd.Case.Speed, dd.Case.Ambient = q.Speed, q.Ambient
+		o, err := dd.Evaluate(ss)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if r := o.Result.Head.WallTemp - q.Temp; math.Abs(r-f2.Residuals[i]) > 1e-6 {
+			t.Errorf("point %d: residual %.4f K, re-evaluated %.4f K", i+1, f2.Residuals[i], r)
+		}
+	}
 	var plug []Point
 	for i, v := range []float64{40, 90, 120} {
 		q := measure(t, d, 0.35, v/3.6, 300, noise[i], 20)
@@ -92,5 +113,36 @@ func TestRefusesWhatThePointsCannotTell(t *testing.T) {
 	}
 	if _, err := Calibrate(d, cylinder.Settings{}, pts[:1], Recovery, Offset); !errors.Is(err, ErrNotIdentifiable) {
 		t.Errorf("two parameters from one point: %v", err)
+	}
+}
+
+// Points the model cannot meet with plausible values are refused rather
+// than fitted at the end of a range: a head reading a few kelvin over the
+// ambient at full cruise load would need a recovery far above 1.
+func TestRefusesAFitAtItsBound(t *testing.T) {
+	d := demo(t)
+	p := measure(t, d, 0.35, 100/3.6, 300, 0, 0)
+	p.Temp = p.Ambient + 30
+	_, err := Calibrate(d, cylinder.Settings{}, []Point{p})
+	if !errors.Is(err, ErrAtBound) {
+		t.Errorf("head 30 K over the ambient at 100 km/h: %v", err)
+	}
+}
+
+// A point the fit misses by more than three of its uncertainties is named
+// in the warnings (here one reading 40 K off among four).
+func TestWarnsOfAPointItMisses(t *testing.T) {
+	d := demo(t)
+	var pts []Point
+	for _, v := range []float64{50, 70, 90, 110} {
+		pts = append(pts, measure(t, d, 0.35, v/3.6, 300, 0, 0))
+	}
+	pts[2].Temp += 40
+	f, err := Calibrate(d, cylinder.Settings{}, pts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(f.Warnings) == 0 || !strings.Contains(f.Warnings[0], "point 3") {
+		t.Errorf("warnings %q, residuals %v", f.Warnings, f.Residuals)
 	}
 }

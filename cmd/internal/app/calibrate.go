@@ -85,12 +85,8 @@ func (e *env) calibrate(d *design.Design, path string, names []string, write str
 		if p.Barrel {
 			set = "barrel"
 		}
-		sig := p.Sigma
-		if sig <= 0 {
-			sig = calibrate.DefaultSigma
-		}
 		rg.Rows = append(rg.Rows, []string{fmt.Sprint(i + 1), output.Num(u.Of(output.Road, p.Speed), 0), fmtT(u, p.Ambient), set,
-			fmtT(u, p.Temp), fmtDT(u, p.Offset), fmtDT(u, f.Residuals[i]*sig)})
+			fmtT(u, p.Temp), fmtDT(u, p.Offset), fmtDT(u, f.Residuals[i])})
 	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: calibration against %d measured point(s)", d.Name, len(d.Points)), Grids: []output.Grid{pg, rg}, Caution: true,
 		Notes: []string{"A residual is the model (plus the measuring place's offset) less the measurement; a plug seat runs hotter than the mean fin root the model gives.",
@@ -116,7 +112,8 @@ func (e *env) calibrate(d *design.Design, path string, names []string, write str
 		}
 		doc.Notes = append(doc.Notes, "To use the fit, set in the design: "+strings.Join(keys, "; ")+" (or run with --write FILE).")
 	}
-	doc.JSON = map[string]any{"design": d.Name, "parameters": f.Params, "residuals_K": scaleResiduals(f, d.Points), "chi2": f.Chi2, "caution": output.Caution}
+	doc.JSON = map[string]any{"design": d.Name, "parameters": f.Params, "residuals_K": f.Residuals, "chi2": f.Chi2, "warnings": f.Warnings, "caution": output.Caution}
+	doc.Warnings = f.Warnings
 	return e.emit(doc)
 }
 
@@ -156,16 +153,4 @@ func fitted(f calibrate.Fit, k string) bool {
 	name := map[string]string{"forced_convection": calibrate.ForcedFactor, "cooling_share": calibrate.LoadFactor}[k]
 	_, ok := f.Get(name)
 	return name != "" && ok
-}
-
-func scaleResiduals(f calibrate.Fit, pts []calibrate.Point) []float64 {
-	out := make([]float64, len(pts))
-	for i, p := range pts {
-		sig := p.Sigma
-		if sig <= 0 {
-			sig = calibrate.DefaultSigma
-		}
-		out[i] = f.Residuals[i] * sig
-	}
-	return out
 }
