@@ -2,6 +2,7 @@ package app
 
 import (
 	"encoding/json"
+	"fmt"
 	"math"
 	"os"
 	"os/exec"
@@ -338,5 +339,60 @@ func TestCalibrateCommand(t *testing.T) {
 	}
 	if _, errs, code := run(t, "calibrate", up); code != ExitDesign || !strings.Contains(errs, "no [[measurement]]") {
 		t.Errorf("no measurement: exit %d %s", code, errs)
+	}
+}
+
+// The README's calibration example ("Anchoring the estimate to a
+// measurement") states the figures these commands give: its measurement
+// table is taken from the README itself, so the text and the tool cannot
+// drift apart.
+func TestReadmeCalibrationFigures(t *testing.T) {
+	b, err := os.ReadFile("../../../README.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	readme := string(b)
+	i := strings.Index(readme, "## Anchoring the estimate to a measurement")
+	j := strings.Index(readme[i:], "```\n[[measurement]]")
+	if i < 0 || j < 0 {
+		t.Fatal("README lacks the calibration example")
+	}
+	table := readme[i+j+4:]
+	table = table[:strings.Index(table, "```")]
+	up, _ := designs(t)
+	src, _ := os.ReadFile(up)
+	dir := t.TempDir()
+	in, out := filepath.Join(dir, "up.toml"), filepath.Join(dir, "up-cal.toml")
+	if err := os.WriteFile(in, append(src, "\n"+table...), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	js, errs, code := run(t, "calibrate", in, "--write", out, "-f", "json", "-q")
+	if code != 0 {
+		t.Fatalf("exit %d %s", code, errs)
+	}
+	var fit struct {
+		Parameters []struct{ Value, StdError float64 }
+	}
+	if err := json.Unmarshal([]byte(js), &fit); err != nil || len(fit.Parameters) != 1 {
+		t.Fatalf("%v %s", err, js)
+	}
+	p := fit.Parameters[0]
+	want := fmt.Sprintf("fits the pressure recovery to %.3f (standard error %.3f)", p.Value, p.StdError)
+	if !strings.Contains(readme, want) {
+		t.Errorf("README should say %q", want)
+	}
+	js, errs, code = run(t, "estimate", out, "--ambient", "40 C", "-f", "json", "-q")
+	if code != 0 {
+		t.Fatal(errs)
+	}
+	var v map[string]any
+	if err := json.Unmarshal([]byte(js), &v); err != nil {
+		t.Fatal(err)
+	}
+	wall := v["result"].(map[string]any)["head"].(map[string]any)["wall_temperature_K"].(float64) - 273.15
+	band := v["band"].(map[string]any)["head"].(map[string]any)
+	want = fmt.Sprintf("%.1f C at the fin roots with a band of %.0f to %.0f C", wall, band["p5_K"].(float64)-273.15, band["p95_K"].(float64)-273.15)
+	if !strings.Contains(readme, want) {
+		t.Errorf("README should say %q", want)
 	}
 }
