@@ -45,6 +45,9 @@ func bandText(u output.Units, p uncertainty.Percentiles) string {
 		}
 		return fmtT(u, k)
 	}
+	if p.P5 > cylinder.SaneWallLimit {
+		return noEquilibrium
+	}
 	return t(p.P5) + " to " + t(p.P95)
 }
 

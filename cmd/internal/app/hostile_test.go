@@ -396,3 +396,43 @@ func TestReadmeCalibrationFigures(t *testing.T) {
 		t.Errorf("README should say %q", want)
 	}
 }
+
+// tilt carries each style's head band at every tilt, and the nominal head
+// lies inside it wherever both have an equilibrium (the band samples the
+// inputs around the nominal values, so a band beside the wrong variant or
+// tilt would miss it).
+func TestTiltBand(t *testing.T) {
+	up, _ := designs(t)
+	js, errs, code := run(t, "tilt", up, "--step", "45", "-f", "json", "-q", "--samples", "200")
+	if code != 0 {
+		t.Fatalf("exit %d %s", code, errs)
+	}
+	var v struct{ Rows []map[string]any }
+	if err := json.Unmarshal([]byte(js), &v); err != nil || len(v.Rows) != 3 {
+		t.Fatalf("%v: %d rows", err, len(v.Rows))
+	}
+	checked := 0
+	for _, r := range v.Rows {
+		for _, style := range []string{"annular", "longitudinal"} {
+			b, ok := r[style+"_band"].(map[string]any)
+			if !ok {
+				t.Fatalf("tilt %v: no %s band", r["tilt_deg"], style)
+			}
+			head := r[style].(map[string]any)["head"].(map[string]any)
+			p := b["head"].(map[string]any)
+			p5, ok5 := p["p5_K"].(float64)
+			p95, ok95 := p["p95_K"].(float64)
+			if head["equilibrium"] != true || !ok5 {
+				continue
+			}
+			wall := head["wall_temperature_K"].(float64)
+			if wall < p5 || (ok95 && wall > p95) {
+				t.Errorf("tilt %v %s: head %.1f K outside its band %.1f to %.1f K", r["tilt_deg"], style, wall, p5, p95)
+			}
+			checked++
+		}
+	}
+	if checked < 3 {
+		t.Errorf("only %d bands checked", checked)
+	}
+}

@@ -8,6 +8,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"finmarch/airflow/cylinder"
+	"finmarch/airflow/uncertainty"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
 	"finmarch/fins"
@@ -21,7 +22,9 @@ func (e *env) tiltCmd() *cobra.Command {
 		Long: `tilt runs the design at its cruise condition with the cylinder axis from 0 (upright)
 to 90 degrees (laid over), once with both fin sets annular and once with both
 longitudinal. The other style keeps the fin height, thicknesses and the mean clear
-gap between fins, so the air sees the same fin density.`,
+gap between fins, so the air sees the same fin density (as many fins as the design's
+casting process allows). Beside each head temperature is its uncertainty band, the
+5th to 95th percentile ([uncertainty] in the design; --samples 0 leaves it out).`,
 		Args:              cobra.ExactArgs(1),
 		ValidArgsFunction: tomlArgs,
 		RunE: func(_ *cobra.Command, args []string) error {
@@ -102,6 +105,14 @@ func (e *env) tilt(d *design.Design, step float64) error {
 	T := u.Name(output.Temp)
 	g := output.Grid{Title: "Head and barrel temperature against tilt",
 		Header: []string{"tilt (deg)", "annular head (" + T + ")", "annular barrel (" + T + ")", "longitudinal head (" + T + ")", "longitudinal barrel (" + T + ")", "cooler style"}}
+	n, err := e.samples(d)
+	if err != nil {
+		return err
+	}
+	if n > 0 {
+		g.Header = []string{"tilt (deg)", "annular head (" + T + ")", "5 to 95 %", "annular barrel (" + T + ")",
+			"longitudinal head (" + T + ")", "5 to 95 %", "longitudinal barrel (" + T + ")", "cooler style"}
+	}
 	var warns [][]string
 	var rows []map[string]any
 	cell := func(_ outcome, r cylinder.SetResult) string { return wallText(u, r) }
@@ -112,11 +123,15 @@ func (e *env) tilt(d *design.Design, step float64) error {
 	tilts = append(tilts, 90)
 	for _, t := range tilts {
 		var outs []outcome
-		for _, v := range []*design.Design{an, lo} {
+		var bands [2]*uncertainty.Band
+		for k, v := range []*design.Design{an, lo} {
 			cp := *v
 			cp.Case.Tilt = t * math.Pi / 180
 			o, err := evaluate(&cp, cp.Case.Speed)
 			if err != nil {
+				return err
+			}
+			if bands[k], err = e.band(&cp, cp.Case.Speed); err != nil {
 				return err
 			}
 			outs = append(outs, o)
@@ -127,9 +142,14 @@ func (e *env) tilt(d *design.Design, step float64) error {
 		if math.Max(l.Result.Head.WallTemp, l.Result.Barrel.WallTemp) < math.Max(a.Result.Head.WallTemp, a.Result.Barrel.WallTemp) {
 			better = "longitudinal"
 		}
-		g.Rows = append(g.Rows, []string{output.Num(t, 0), cell(a, a.Result.Head), cell(a, a.Result.Barrel), cell(l, l.Result.Head), cell(l, l.Result.Barrel), better})
+		row := []string{output.Num(t, 0), cell(a, a.Result.Head), cell(a, a.Result.Barrel), cell(l, l.Result.Head), cell(l, l.Result.Barrel), better}
+		if n > 0 {
+			row = []string{row[0], row[1], bandText(u, bands[0].Head), row[2], row[3], bandText(u, bands[1].Head), row[4], row[5]}
+		}
+		g.Rows = append(g.Rows, row)
 		rows = append(rows, map[string]any{"tilt_deg": t, "annular": a.Result, "longitudinal": l.Result,
-			"annular_equilibrium": a.NoEquilibrium == nil, "longitudinal_equilibrium": l.NoEquilibrium == nil})
+			"annular_equilibrium": a.NoEquilibrium == nil, "longitudinal_equilibrium": l.NoEquilibrium == nil,
+			"annular_band": bandJSON(bands[0]), "longitudinal_band": bandJSON(bands[1])})
 	}
 	hs, bs := an.Case.Head.Set, an.Case.Barrel.Set
 	hl, bl := lo.Case.Head.Set, lo.Case.Barrel.Set
