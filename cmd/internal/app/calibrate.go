@@ -12,9 +12,9 @@ import (
 )
 
 func (e *env) calibrateCmd() *cobra.Command {
-	var fit, write string
+	var fit, write, points string
 	cmd := &cobra.Command{
-		Use:   "calibrate DESIGN.toml [--fit recovery[,forced,load,offset]] [--write CALIBRATED.toml]",
+		Use:   "calibrate DESIGN.toml [--points READINGS.csv] [--fit recovery[,forced,load,offset]] [--write CALIBRATED.toml]",
 		Short: "Fit the design's pressure recovery (and more) to head or barrel temperatures measured on the engine",
 		Long: `calibrate fits the design's poorly known parameters to the temperatures measured on the
 running engine, given in the design as [[measurement]] tables (speed, ambient, altitude,
@@ -30,7 +30,15 @@ set, the band's half-widths narrowed to the fit) and never replaces a file witho
   ambient = "28 C"
   head = "204 C"
   place = "plug-seat"
-  offset = "15 K"      # the seat runs this much hotter than the mean fin root`,
+  offset = "15 K"      # the seat runs this much hotter than the mean fin root
+
+or in a CSV file given with --points (added to the design's tables): a header row
+naming the columns, with a unit in parentheses for bare numbers, then one reading
+per row; # starts a comment.
+
+  speed (km/h),ambient (C),head (C),place,offset (K),uncertainty (K)
+  90,28,204,plug-seat,15,5
+  60,24,168,plug-seat,15,5`,
 		Args:              cobra.ExactArgs(1),
 		ValidArgsFunction: tomlArgs,
 		RunE: func(_ *cobra.Command, args []string) error {
@@ -42,11 +50,24 @@ set, the band's half-widths narrowed to the fit) and never replaces a file witho
 			if err != nil {
 				return err
 			}
+			if points != "" {
+				src, err := readInput(points, "points file")
+				if err != nil {
+					return err
+				}
+				e.inputs = append(e.inputs, points)
+				pts, err := design.ReadPoints(src, points, d.Altitude)
+				if err != nil {
+					return fail(ExitDesign, err)
+				}
+				d.Points = append(d.Points, pts...)
+			}
 			return e.calibrate(d, args[0], names, write)
 		},
 	}
 	cmd.Flags().StringVar(&fit, "fit", "recovery", "parameters to fit: recovery, forced, load, offset (comma-separated)")
 	cmd.Flags().StringVar(&write, "write", "", "write the calibrated design to this file")
+	cmd.Flags().StringVar(&points, "points", "", "CSV file of measured points, added to the design's [[measurement]] tables")
 	return cmd
 }
 
@@ -68,7 +89,7 @@ func (e *env) calibrate(d *design.Design, path string, names []string, write str
 		return err
 	}
 	if len(d.Points) == 0 {
-		return fail(ExitDesign, fmt.Errorf("%s: no [[measurement]] to calibrate against; add one (finmarch calibrate --help)", path))
+		return fail(ExitDesign, fmt.Errorf("%s: no [[measurement]] to calibrate against; add one, or give a points file with --points (finmarch calibrate --help)", path))
 	}
 	f, err := calibrate.Calibrate(d.Cylinder(), d.Run, d.Points, names...)
 	if err != nil {

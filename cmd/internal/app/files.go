@@ -69,17 +69,17 @@ func (e *env) openOutput(path string, force bool) (sink, error) {
 	switch {
 	case errors.Is(err, os.ErrNotExist):
 		if li, lerr := os.Lstat(path); lerr == nil && li.Mode()&os.ModeSymlink != 0 {
-			return nil, fail(ExitIO, fmt.Errorf("--output %s is a link to nothing", path))
+			return nil, fail(ExitIO, fmt.Errorf("%s is a link to nothing", path))
 		}
 		return createAtomic(path, false, 0)
 	case err != nil:
-		return nil, fail(ExitIO, fmt.Errorf("--output %s: %w", path, err))
+		return nil, fail(ExitIO, fmt.Errorf("cannot write %s: %w", path, err))
 	}
 	target := path
 	if fi.Mode().IsRegular() {
 		// replace the file a link names, not the link
 		if target, err = filepath.EvalSymlinks(path); err != nil {
-			return nil, fail(ExitIO, fmt.Errorf("--output %s: %w", path, err))
+			return nil, fail(ExitIO, fmt.Errorf("cannot write %s: %w", path, err))
 		}
 	}
 	m := fi.Mode()
@@ -87,7 +87,7 @@ func (e *env) openOutput(path string, force bool) (sink, error) {
 	case m.IsRegular():
 		for _, in := range e.inputs {
 			if ii, err := os.Stat(in); err == nil && os.SameFile(fi, ii) {
-				return nil, fail(ExitIO, fmt.Errorf("--output %s is the design file %s that this run reads; write the results elsewhere", path, in))
+				return nil, fail(ExitIO, fmt.Errorf("%s is the input file %s that this run reads; write the results elsewhere", path, in))
 			}
 		}
 		if !force {
@@ -105,7 +105,7 @@ func (e *env) openOutput(path string, force bool) (sink, error) {
 		}
 		return &stream{Writer: f, path: path, f: f}, nil
 	}
-	return nil, fail(ExitIO, fmt.Errorf("--output %s is a %s, not a file; results are written only to files, character devices, FIFOs or standard output", path, kindOf(m)))
+	return nil, fail(ExitIO, fmt.Errorf("%s is a %s, not a file; results are written only to files, character devices, FIFOs or standard output", path, kindOf(m)))
 }
 
 func kindOf(m os.FileMode) string {
@@ -268,26 +268,30 @@ func cleanStale(dir string) {
 // readDesign reads a design file: a regular file only (a FIFO or a device
 // would hang or never end), and at most the design-file limit plus one
 // byte, so that a huge file is refused without being read whole.
-func readDesign(path string) ([]byte, error) {
+func readDesign(path string) ([]byte, error) { return readInput(path, "design") }
+
+// readInput reads an input file (what names it in errors) by the rules of
+// readDesign.
+func readInput(path, what string) ([]byte, error) {
 	// non-blocking, so that opening a FIFO does not wait for a writer
 	f, err := os.OpenFile(path, os.O_RDONLY|syscall.O_NONBLOCK, 0)
 	if err != nil {
-		return nil, fail(ExitIO, fmt.Errorf("cannot read the design: %w", err))
+		return nil, fail(ExitIO, fmt.Errorf("cannot read the %s: %w", what, err))
 	}
 	defer f.Close()
 	fi, err := f.Stat()
 	if err != nil {
-		return nil, fail(ExitIO, fmt.Errorf("cannot read the design: %w", err))
+		return nil, fail(ExitIO, fmt.Errorf("cannot read the %s: %w", what, err))
 	}
 	if !fi.Mode().IsRegular() {
-		return nil, fail(ExitIO, fmt.Errorf("cannot read the design %s: a %s, not a regular file", path, kindOf(fi.Mode())))
+		return nil, fail(ExitIO, fmt.Errorf("cannot read the %s %s: a %s, not a regular file", what, path, kindOf(fi.Mode())))
 	}
 	if fi.Size() > design.MaxFileSize {
 		return nil, fail(ExitDesign, design.TooLarge(path, fi.Size()))
 	}
 	src, err := io.ReadAll(io.LimitReader(f, design.MaxFileSize+1))
 	if err != nil {
-		return nil, fail(ExitIO, fmt.Errorf("cannot read the design: %w", err))
+		return nil, fail(ExitIO, fmt.Errorf("cannot read the %s: %w", what, err))
 	}
 	return src, nil
 }

@@ -55,8 +55,8 @@ func TestHostileCommandLine(t *testing.T) {
 		{"negative worker count", []string{"sweep", up, "--vary", "head.pitch=6mm:8mm:2mm", "--workers", "-3"}, ExitUsage, "--workers -3"},
 		{"speed range past the design's", []string{"speeds", up, "--from", "0 km/h", "--to", "900 km/h", "--step", "100 km/h"}, ExitUsage, "--to 900 km/h: allowed 0 to 400 km/h"},
 		{"tiny conductivity", []string{"fin", "--height", "30mm", "--root-thickness", "4mm", "--h", "60 W/m2K", "--k", "1e-200 W/mK", "-f", "json"}, ExitUsage, "--k 1e-200 W/mK: allowed 1 to 500"},
-		{"output onto the design", []string{"estimate", up, "-o", up, "--force"}, ExitIO, "is the design file"},
-		{"output onto a link to the design", []string{"estimate", up, "-o", link, "--force"}, ExitIO, "is the design file"},
+		{"output onto the design", []string{"estimate", up, "-o", up, "--force"}, ExitIO, "is the input file"},
+		{"output onto a link to the design", []string{"estimate", up, "-o", link, "--force"}, ExitIO, "is the input file"},
 		{"output onto a directory", []string{"estimate", up, "-o", sub, "--force"}, ExitIO, "is a directory"},
 		{"output onto a dangling link", []string{"estimate", up, "-o", dangling}, ExitIO, "a link to nothing"},
 		{"output into a FIFO with no reader", []string{"estimate", up, "-o", fifo}, ExitIO, "cannot write " + fifo},
@@ -434,5 +434,44 @@ func TestTiltBand(t *testing.T) {
 	}
 	if checked < 3 {
 		t.Errorf("only %d bands checked", checked)
+	}
+}
+
+// calibrate --points reads the same readings from a CSV file as from the
+// design's tables (the same fit), refuses to write over it, and names the
+// line of a bad row.
+func TestCalibratePointsFile(t *testing.T) {
+	up, _ := designs(t)
+	dir := t.TempDir()
+	src, _ := os.ReadFile(up)
+	tables := filepath.Join(dir, "tables.toml")
+	rows := []string{"90 km/h", "28 C", "204 C"}
+	meas := fmt.Sprintf("\n[[measurement]]\nspeed = %q\nambient = %q\nhead = %q\nplace = \"plug-seat\"\noffset = \"15 K\"\n", rows[0], rows[1], rows[2])
+	if err := os.WriteFile(tables, append(src, meas...), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	csvPath := filepath.Join(dir, "runs.csv")
+	if err := os.WriteFile(csvPath, []byte("# the test road\nspeed,ambient,head (C),place,offset (K)\n90 km/h,28 C,204,plug-seat,15\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	a, errs, code := run(t, "calibrate", tables, "-f", "json", "-q")
+	if code != 0 {
+		t.Fatal(errs)
+	}
+	b, errs, code := run(t, "calibrate", up, "--points", csvPath, "-f", "json", "-q")
+	if code != 0 {
+		t.Fatal(errs)
+	}
+	if a != b {
+		t.Errorf("tables and points file differ:\n%s\n%s", a, b)
+	}
+	if _, errs, code := run(t, "calibrate", up, "--points", csvPath, "--write", csvPath, "--force"); code != ExitIO || !strings.Contains(errs, "is the input file") {
+		t.Errorf("write over the points file: exit %d %s", code, errs)
+	}
+	if err := os.WriteFile(csvPath, []byte("speed (km/h),ambient (C),head (C)\n90,28,204\n90,28,900\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if _, errs, code := run(t, "calibrate", up, "--points", csvPath); code != ExitDesign || !strings.Contains(errs, "runs.csv:3:") {
+		t.Errorf("bad row: exit %d %s", code, errs)
 	}
 }

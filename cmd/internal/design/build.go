@@ -350,35 +350,51 @@ func (b *builder) calibration() {
 	}
 	for i, m := range f.Measurement {
 		key := fmt.Sprintf("measurement[%d]", i+1)
-		if m.Head.Set == m.Barrel.Set {
-			b.add("measurement", "%s: give the head or the barrel temperature measured (one of them)", key)
-			continue
-		}
-		p := calibrate.Point{Speed: m.Speed.Or(math.NaN()), Ambient: m.Ambient.Or(math.NaN()), Barrel: m.Barrel.Set,
-			Temp: m.Head.Or(m.Barrel.Or(0)), Offset: m.Offset.Or(0), Sigma: m.Sigma.Or(0)}
-		alt := m.Altitude.Or(d.Altitude)
-		p.Pressure = airflow.ISA(alt, nil).P
-		switch strings.ToLower(strings.TrimSpace(m.Place)) {
-		case "", "fin-root", "fin root":
-		case "plug-seat", "plug seat", "spark-plug-seat":
-			if !m.Offset.Set {
-				b.add("measurement", "%s: a plug-seat reading needs offset, how much hotter the seat runs than the mean fin root (measure both once, or fit it: finmarch calibrate --fit recovery,offset)", key)
-			}
-		default:
-			b.add("measurement", "%s: place %q: fin-root or plug-seat", key, m.Place)
-		}
-		switch {
-		case !(p.Speed >= 0 && p.Speed <= 400/3.6):
-			b.add("measurement", "%s: speed missing or outside 0 to 400 km/h", key)
-		case !(p.Ambient > 223 && p.Ambient < 333):
-			b.add("measurement", "%s: ambient missing or outside -50 to 60 C", key)
-		case !(p.Temp > p.Ambient && p.Temp < 773.15):
-			b.add("measurement", "%s: the measured temperature must lie between the ambient and 500 C", key)
-		case !(p.Sigma >= 0 && p.Sigma < 100) || !(p.Offset > -100 && p.Offset < 200):
-			b.add("measurement", "%s: uncertainty 0 to 100 K, offset -100 to 200 K", key)
+		p, problems := measuredPoint(m, d.Altitude)
+		for _, msg := range problems {
+			b.add("measurement", "%s: %s", key, msg)
 		}
 		d.Points = append(d.Points, p)
 	}
+}
+
+// measuredPoint checks one measurement (from a [[measurement]] table or a
+// row of a points file) and makes its calibration point; alt is the
+// design's altitude, for a measurement that gives none. The problems are
+// messages for the caller to place.
+func measuredPoint(m MeasurementT, alt float64) (calibrate.Point, []string) {
+	var bad []string
+	if m.Head.Set == m.Barrel.Set {
+		return calibrate.Point{}, []string{"give the head or the barrel temperature measured (one of them)"}
+	}
+	p := calibrate.Point{Speed: m.Speed.Or(math.NaN()), Ambient: m.Ambient.Or(math.NaN()), Barrel: m.Barrel.Set,
+		Temp: m.Head.Or(m.Barrel.Or(0)), Offset: m.Offset.Or(0), Sigma: m.Sigma.Or(0)}
+	alt = m.Altitude.Or(alt)
+	if !(alt >= -500 && alt <= 6000) {
+		bad = append(bad, "altitude outside -500 to 6000 m")
+		alt = 0
+	}
+	p.Pressure = airflow.ISA(alt, nil).P
+	switch strings.ToLower(strings.TrimSpace(m.Place)) {
+	case "", "fin-root", "fin root":
+	case "plug-seat", "plug seat", "spark-plug-seat":
+		if !m.Offset.Set {
+			bad = append(bad, "a plug-seat reading needs offset, how much hotter the seat runs than the mean fin root (measure both once, or fit it: finmarch calibrate --fit recovery,offset)")
+		}
+	default:
+		bad = append(bad, fmt.Sprintf("place %q: fin-root or plug-seat", m.Place))
+	}
+	switch {
+	case !(p.Speed >= 0 && p.Speed <= 400/3.6):
+		bad = append(bad, "speed missing or outside 0 to 400 km/h")
+	case !(p.Ambient > 223 && p.Ambient < 333):
+		bad = append(bad, "ambient missing or outside -50 to 60 C")
+	case !(p.Temp > p.Ambient && p.Temp < 773.15):
+		bad = append(bad, "the measured temperature must lie between the ambient and 500 C")
+	case !(p.Sigma >= 0 && p.Sigma < 100) || !(p.Offset > -100 && p.Offset < 200):
+		bad = append(bad, "uncertainty 0 to 100 K, offset -100 to 200 K")
+	}
+	return p, bad
 }
 
 // limits reads [limits] and [override].
