@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"errors"
 	"fmt"
+	"math"
 	"path/filepath"
 	"sort"
 	"strings"
@@ -253,9 +254,14 @@ func (e *env) compareFigure(ds []*design.Design) (*plots.Figure, error) {
 		return nil, err
 	}
 	var names []string
-	var ht, perKg []float64
+	var ht, lo, hi, perKg []float64
+	banded := false
 	for i, d := range ds {
 		o, err := evaluate(d, d.Case.Speed)
+		if err != nil {
+			return nil, err
+		}
+		b, err := e.band(d, d.Case.Speed)
 		if err != nil {
 			return nil, err
 		}
@@ -265,12 +271,28 @@ func (e *env) compareFigure(ds []*design.Design) (*plots.Figure, error) {
 			// a state, not a temperature: no bar
 			name, head = name+" (no equilibrium)", 0
 		}
+		l, h := math.NaN(), math.NaN()
+		if b != nil {
+			banded = true
+			if b.Head.P5 <= cylinder.SaneWallLimit {
+				l = u.Of(output.Temp, b.Head.P5)
+			}
+			if b.Head.P95 <= cylinder.SaneWallLimit {
+				h = u.Of(output.Temp, b.Head.P95)
+			}
+		}
 		names = append(names, name)
-		ht = append(ht, head)
+		ht, lo, hi = append(ht, head), append(lo, l), append(hi, h)
 		perKg = append(perKg, u.Of(output.PerMass, o.Result.HeatPerFinMass()))
 	}
+	label := "head temperature (" + u.Name(output.Temp) + ")"
+	if banded {
+		label += ", whisker 5 % to 95 %"
+	} else {
+		lo, hi = nil, nil
+	}
 	return plots.Compare("Designs at cruise\n"+strings.Join(names, "    "), names, []plots.Panel{
-		{Label: "head temperature (" + u.Name(output.Temp) + ")", Values: ht},
+		{Label: label, Values: ht, Low: lo, High: hi},
 		{Label: "heat rejected per mass of fin (" + u.Name(output.PerMass) + ")", Values: perKg},
 	})
 }

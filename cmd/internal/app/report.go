@@ -158,7 +158,7 @@ func (e *env) report(ds []*design.Design) ([]byte, error) {
 		figs = append(figs, struct {
 			make    func() (*plots.Figure, error)
 			caption string
-		}{func() (*plots.Figure, error) { return e.compareFigure(ds) }, "Head temperature and heat rejected per kilogram of fin, design by design (letters as in the comparison)."})
+		}{func() (*plots.Figure, error) { return e.compareFigure(ds) }, "Head temperature, with its uncertainty band (5th to 95th percentile) as a whisker, and heat rejected per kilogram of fin, design by design (letters as in the comparison)."})
 	}
 	for _, f := range figs {
 		fig, err := f.make()

@@ -181,6 +181,13 @@ func Compare(title string, names []string, panels []Panel) (*Figure, error) {
 		bc.Color = colour(k)
 		bc.LineStyle.Width = 0
 		p.Add(bc)
+		if len(pn.Low) == len(pn.Values) && len(pn.High) == len(pn.Values) {
+			eb, err := whiskers(pn)
+			if err != nil {
+				return nil, err
+			}
+			p.Add(eb)
+		}
 		// bars are lettered A, B, ... as in the comparison table; the
 		// caller's caption names them
 		short := make([]string, len(names))
@@ -196,10 +203,39 @@ func Compare(title string, names []string, panels []Panel) (*Figure, error) {
 	return &Figure{Plots: ps, Width: 18 * vg.Centimeter, Height: vg.Length(len(ps)) * 8 * vg.Centimeter}, nil
 }
 
-// Panel is one bar-chart panel of Compare.
+// Panel is one bar-chart panel of Compare. Low and High, when given, are
+// a band around each value (its 5th and 95th percentiles), drawn as a
+// whisker; NaN leaves that end out (no equilibrium there).
 type Panel struct {
-	Label  string
-	Values []float64
+	Label     string
+	Values    []float64
+	Low, High []float64
+}
+
+// whiskers are a panel's bands as error bars on its bars.
+func whiskers(pn Panel) (*plotter.YErrorBars, error) {
+	var band struct {
+		plotter.XYs
+		plotter.YErrors
+	}
+	for i, v := range pn.Values {
+		lo, hi := pn.Low[i], pn.High[i]
+		if math.IsNaN(lo) || v == 0 {
+			lo = v
+		}
+		if math.IsNaN(hi) || v == 0 {
+			hi = v
+		}
+		band.XYs = append(band.XYs, plotter.XY{X: float64(i), Y: v})
+		band.YErrors = append(band.YErrors, struct{ Low, High float64 }{math.Max(v-lo, 0), math.Max(hi-v, 0)})
+	}
+	eb, err := plotter.NewYErrorBars(band)
+	if err != nil {
+		return nil, err
+	}
+	eb.LineStyle.Width = vg.Points(1.2)
+	eb.CapWidth = vg.Points(14)
+	return eb, nil
 }
 
 // Write renders the figure as "svg" or "png" to w.
