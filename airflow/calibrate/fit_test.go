@@ -12,7 +12,7 @@ import (
 
 // demo is the upright demo with its road load (the load rises with speed,
 // which parts the parameters).
-func demo(t *testing.T) cylinder.Design {
+func demo(t testing.TB) cylinder.Design {
 	d := demotest.Upright(t)
 	d.Load = cylinder.Load{Road: cylinder.RoadLoad{Mass: 230, CdA: 0.45, CoolShare: 0.18, IdleHeat: 500}}
 	return d
@@ -20,7 +20,7 @@ func demo(t *testing.T) cylinder.Design {
 
 // measure makes a "measured" head temperature with the estimator itself at
 // recovery rec, plus noise and a measuring-place offset.
-func measure(t *testing.T, d cylinder.Design, rec, v, amb, noise, offset float64) Point {
+func measure(t testing.TB, d cylinder.Design, rec, v, amb, noise, offset float64) Point {
 	t.Helper()
 	d.Case.Recovery, d.Case.Speed, d.Case.Ambient = rec, v, amb
 	o, err := d.Evaluate(cylinder.Settings{})
@@ -144,5 +144,20 @@ func TestWarnsOfAPointItMisses(t *testing.T) {
 	}
 	if len(f.Warnings) == 0 || !strings.Contains(f.Warnings[0], "point 3") {
 		t.Errorf("warnings %q, residuals %v", f.Warnings, f.Residuals)
+	}
+}
+
+// BenchmarkCalibrateThreePoints fits the recovery to three points.
+func BenchmarkCalibrateThreePoints(b *testing.B) {
+	d := demo(b)
+	var pts []Point
+	for i, v := range []float64{60, 90, 120} {
+		pts = append(pts, measure(b, d, 0.35, v/3.6, 300+float64(i)*5, 0, 0))
+	}
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := Calibrate(d, cylinder.Settings{}, pts); err != nil {
+			b.Fatal(err)
+		}
 	}
 }
