@@ -352,7 +352,7 @@ func (b *builder) calibration() {
 		key := fmt.Sprintf("measurement[%d]", i+1)
 		p, problems := measuredPoint(m, d.Altitude)
 		for _, msg := range problems {
-			b.add("measurement", "%s: %s", key, msg)
+			b.add(key, "%s", msg)
 		}
 		d.Points = append(d.Points, p)
 	}

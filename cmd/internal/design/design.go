@@ -423,7 +423,8 @@ func (l locator) line(key string) int {
 
 func locate(src string) locator {
 	l := locator{}
-	table := ""
+	table, element := "", ""
+	arrays := map[string]int{} // [[name]] headers seen so far
 	inString := "" // the delimiter of an open multi-line string
 	for i, raw := range strings.Split(src, "\n") {
 		s := strings.TrimSpace(raw)
@@ -452,6 +453,13 @@ func locate(src string) locator {
 				if _, ok := l[table]; !ok {
 					l[table] = i + 1
 				}
+				// each element of an array of tables is also name[n]
+				element = ""
+				if strings.HasPrefix(s, "[[") {
+					arrays[table]++
+					element = fmt.Sprintf("%s[%d]", table, arrays[table])
+					l[element] = i + 1
+				}
 			}
 			continue
 		}
@@ -463,6 +471,9 @@ func locate(src string) locator {
 			}
 			if _, ok := l[full]; !ok {
 				l[full] = i + 1
+			}
+			if element != "" {
+				l[element+"."+key] = i + 1
 			}
 		}
 	}

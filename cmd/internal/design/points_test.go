@@ -2,6 +2,7 @@ package design
 
 import (
 	"errors"
+	"fmt"
 	"math"
 	"strings"
 	"testing"
@@ -63,5 +64,19 @@ func TestPointsFileErrors(t *testing.T) {
 		if !errors.As(err, &es) || !strings.Contains(err.Error(), c.want) {
 			t.Errorf("%q: %v; want %q", c.csv, err, c.want)
 		}
+	}
+}
+
+// A bad [[measurement]] is reported at its own table's line, not the
+// first one's.
+func TestMeasurementErrorLine(t *testing.T) {
+	src := string(demo.Files[0].Src)
+	lines := strings.Count(src, "\n")
+	src += "\n[[measurement]]\nspeed = \"90 km/h\"\nambient = \"28 C\"\nhead = \"204 C\"\n" +
+		"\n[[measurement]]\nspeed = \"90 km/h\"\nambient = \"28 C\"\nhead = \"20 C\"\n"
+	_, err := Parse([]byte(src), "up.toml")
+	want := fmt.Sprintf("up.toml:%d: measurement[2]: the measured temperature", lines+7)
+	if err == nil || !strings.Contains(err.Error(), want) {
+		t.Errorf("%v; want %q", err, want)
 	}
 }
