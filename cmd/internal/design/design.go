@@ -425,7 +425,7 @@ func locate(src string) locator {
 	l := locator{}
 	table, element := "", ""
 	arrays := map[string]int{} // [[name]] headers seen so far
-	inString := "" // the delimiter of an open multi-line string
+	inString := ""             // the delimiter of an open multi-line string
 	for i, raw := range strings.Split(src, "\n") {
 		s := strings.TrimSpace(raw)
 		if inString != "" {
