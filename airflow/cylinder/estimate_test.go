@@ -513,4 +513,24 @@ func TestTopSpeed(t *testing.T) {
 	if _, ok := (RoadLoad{Mass: 200, CdA: 0.5}).TopSpeed(1.2); ok {
 		t.Error("a top speed with no rated power")
 	}
+	// a top-gear speed below the power's top speed sets it, and the load
+	// past it is flagged as past the rated speed; above it, the power rules
+	g := r
+	g.TopGearSpeed = 0.8 * v
+	if top, ok := g.TopSpeed(1.2); !ok || top != 0.8*v || !g.TopSpeedByGear(1.2) {
+		t.Errorf("geared top speed %.3f m/s (by gear %v), want %.3f", top, g.TopSpeedByGear(1.2), 0.8*v)
+	}
+	if l, _ := g.Heat(0.81*v, 1.2); !l.OverRated || !l.PastRatedSpeed {
+		t.Errorf("past the top-gear speed: %+v", l)
+	}
+	if l, _ := g.Heat(0.79*v, 1.2); l.OverRated {
+		t.Error("below the top-gear speed flagged")
+	}
+	g.TopGearSpeed = 1.2 * v
+	if top, _ := g.TopSpeed(1.2); math.Abs(top-v) > 1e-9*v || g.TopSpeedByGear(1.2) {
+		t.Errorf("a top-gear speed above the power's top speed: %.3f m/s", top)
+	}
+	if top, ok := (RoadLoad{Mass: 200, CdA: 0.5, TopGearSpeed: 30}).TopSpeed(1.2); !ok || top != 30 {
+		t.Errorf("top-gear speed alone: %.3f %v", top, ok)
+	}
 }

@@ -27,6 +27,10 @@ type RoadLoad struct {
 	// RatedPower is the engine's rated power at the crank, W (0: not
 	// given): a road load past it is a speed the engine cannot hold.
 	RatedPower float64
+	// TopGearSpeed is the road speed in top gear at the engine's rated
+	// (highest allowed) crankshaft speed, m/s (0: not given): a faster
+	// road speed is one the engine cannot hold either.
+	TopGearSpeed float64
 }
 
 // withDefaults returns r with every zero that has a default replaced by it.
@@ -76,9 +80,13 @@ type HeatLoad struct {
 	BrakePower   float64 // W at the crank (0 when given directly)
 	FuelPower    float64 // W (0 when given directly)
 	// OverRated is set when the crank power the road asks exceeds the
-	// engine's rated power: the engine cannot hold this speed (the heat
-	// is what that speed would need, not what the engine can make).
+	// engine's rated power, or the road speed is past its top-gear speed:
+	// the engine cannot hold this speed (the heat is what that speed would
+	// need, not what the engine can make).
 	OverRated bool
+	// PastRatedSpeed is set when the road speed is past TopGearSpeed (and
+	// then OverRated too).
+	PastRatedSpeed bool
 }
 
 // Heat returns the heat load per fin set at road speed v (m/s) and air
@@ -106,18 +114,38 @@ func (r RoadLoad) Heat(v, rho float64) (HeatLoad, error) {
 	pf := pb / r.Thermal
 	q := r.CoolShare * pf / float64(r.Cylinders)
 	l := HeatLoad{Head: r.HeadShare * q, Barrel: (1 - r.HeadShare) * q, WheelPower: pw, BrakePower: pb, FuelPower: pf,
-		OverRated: r.RatedPower > 0 && pb > r.RatedPower*(1+1e-9)}
+		OverRated: r.RatedPower > 0 && pb > r.RatedPower*(1+1e-9), PastRatedSpeed: r.TopGearSpeed > 0 && v > r.TopGearSpeed*(1+1e-9)}
+	l.OverRated = l.OverRated || l.PastRatedSpeed
 	if h := r.HeadShare; r.IdleHeat > 0 && l.Head+l.Barrel < r.IdleHeat {
 		l.Head, l.Barrel = h*r.IdleHeat, (1-h)*r.IdleHeat
 	}
 	return l, nil
 }
 
-// TopSpeed returns the road speed (m/s) at which the crank power the road
-// asks equals the rated power, in air of density rho (kg/m3), by bisection
-// on the road-load equation (the power rises with speed); 0 and false when
-// no rated power is given or the engine cannot even move the vehicle.
-func (r RoadLoad) TopSpeed(rho float64) (float64, bool) {
+// TopSpeed returns the highest road speed (m/s) the engine can hold in air
+// of density rho (kg/m3): where the crank power the road asks equals the
+// rated power (bisection on the road-load equation, whose power rises with
+// speed), or TopGearSpeed if that is lower; 0 and false when neither limit
+// is given (or the engine cannot even move the vehicle); TopSpeedByGear
+// says which sets it.
+func (r RoadLoad) TopSpeed(rho float64) (v float64, ok bool) {
+	v, ok = r.powerTopSpeed(rho)
+	if r.TopGearSpeed > 0 && (!ok || r.TopGearSpeed < v) {
+		return r.TopGearSpeed, true
+	}
+	return v, ok
+}
+
+// TopSpeedByGear reports whether the gearing (TopGearSpeed), not the
+// rated power, sets TopSpeed.
+func (r RoadLoad) TopSpeedByGear(rho float64) bool {
+	v, ok := r.powerTopSpeed(rho)
+	return r.TopGearSpeed > 0 && (!ok || r.TopGearSpeed < v)
+}
+
+// powerTopSpeed is the road speed at which the crank power equals the
+// rated power.
+func (r RoadLoad) powerTopSpeed(rho float64) (float64, bool) {
 	if r.RatedPower <= 0 {
 		return 0, false
 	}
@@ -170,6 +198,7 @@ func (r RoadLoad) check() error {
 		{"driveline_efficiency", r.Driveline, 0.3, 1}, {"thermal_efficiency", r.Thermal, 0.05, 0.6},
 		{"cooling_share", r.CoolShare, 0.01, 0.9}, {"head_share", r.HeadShare, 0, 1}, {"grade", r.GradePct, -30, 30},
 		{"extra_power", r.ExtraPowerW, 0, 1e6}, {"idle_heat", r.IdleHeat, 0, 1e6}, {"rated_power", r.RatedPower, 0, 1e7},
+		{"top_gear_speed", r.TopGearSpeed, 0, 200},
 	} {
 		if math.IsNaN(c.v) || c.v < c.lo || c.v > c.hi {
 			return fmt.Errorf("road load: %s = %g outside %g to %g", c.k, c.v, c.lo, c.hi)

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 
 	"finmarch/cmd/internal/design"
@@ -76,5 +77,31 @@ func TestCalibratedBandCoversTheTruth(t *testing.T) {
 	}
 	if !(q5 <= want && want <= q95) || !(p95-p5 < 0.5*(q95-q5)) {
 		t.Errorf("calibrated band %.1f K wide, uncalibrated %.1f to %.1f K", p95-p5, q5, q95)
+	}
+}
+
+// A top-gear speed stops the speed sweep there and says why; estimate past
+// it warns that the engine cannot hold the speed.
+func TestTopGearSpeed(t *testing.T) {
+	up, _ := designs(t)
+	src, _ := os.ReadFile(up)
+	path := filepath.Join(t.TempDir(), "geared.toml")
+	if err := os.WriteFile(path, design.SetKeys(src, []design.KV{{Key: "load.top_gear_speed", Value: `"100 km/h"`}}), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	out, errs, code := run(t, "speeds", path, "--from", "60 km/h", "--to", "140 km/h", "--step", "20 km/h", "--samples", "0", "-f", "csv", "-q")
+	if code != 0 {
+		t.Fatalf("exit %d %s", code, errs)
+	}
+	if rows := strings.Count(strings.TrimSpace(out), "\n"); rows != 3 {
+		t.Errorf("%d rows up to 100 km/h, want 3:\n%s", rows, out)
+	}
+	txt, _, _ := run(t, "speeds", path, "--from", "60 km/h", "--to", "140 km/h", "--step", "20 km/h", "--samples", "0")
+	if !strings.Contains(txt, "top speed, 100 km/h") || !strings.Contains(txt, "load.top_gear_speed") {
+		t.Errorf("no top-gear note:\n%s", txt)
+	}
+	_, errs, _ = run(t, "estimate", path, "--speed", "120 km/h", "--samples", "0")
+	if !strings.Contains(errs, "cannot hold this speed") || !strings.Contains(errs, "top speed here is 100 km/h") {
+		t.Errorf("estimate past the top-gear speed: %s", errs)
 	}
 }

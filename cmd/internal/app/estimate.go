@@ -165,18 +165,37 @@ func limitAlerts(u output.Units, o outcome) []string {
 }
 
 // overRated says when the road asks more crank power than the engine's
-// rated power: the speed cannot be held, and the top speed it can.
+// rated power, or a speed past its top-gear speed: the speed cannot be
+// held, and the top speed it can.
 func overRated(u output.Units, d *design.Design, o outcome) string {
 	if !o.Load.OverRated {
 		return ""
 	}
 	r := d.Load.Road
-	s := fmt.Sprintf("%s: at %s %s the road asks %.1f kW at the crank, more than the rated %.1f kW (load.rated_power): the engine cannot hold this speed, and these temperatures are what it would need",
-		d.Name, output.Num(u.Of(output.Road, o.speed), 0), u.Name(output.Road), o.Load.BrakePower/1e3, r.RatedPower/1e3)
+	at := output.Num(u.Of(output.Road, o.speed), 0) + " " + u.Name(output.Road)
+	var s string
+	if o.Load.PastRatedSpeed {
+		s = fmt.Sprintf("%s: %s is past the road speed in top gear at the engine's rated speed, %s %s (load.top_gear_speed): the engine cannot hold this speed, and these temperatures are what it would need",
+			d.Name, at, output.Num(u.Of(output.Road, r.TopGearSpeed), 0), u.Name(output.Road))
+	} else {
+		s = fmt.Sprintf("%s: at %s the road asks %.1f kW at the crank, more than the rated %.1f kW (load.rated_power): the engine cannot hold this speed, and these temperatures are what it would need",
+			d.Name, at, o.Load.BrakePower/1e3, r.RatedPower/1e3)
+	}
 	if v, ok := r.TopSpeed(d.Case.Pressure / (airflow.RAir * d.Case.Ambient)); ok {
 		s += fmt.Sprintf("; its top speed here is %s %s", output.Num(u.Of(output.Road, v), 0), u.Name(output.Road))
 	}
 	return s
+}
+
+// topSpeedNote says where and why a speed sweep stops.
+func topSpeedNote(u output.Units, d *design.Design) string {
+	r, rho := d.Load.Road, d.Case.Pressure/(airflow.RAir*d.Case.Ambient)
+	top, _ := r.TopSpeed(rho)
+	why := fmt.Sprintf("past it the road asks more than the rated %.1f kW (load.rated_power)", r.RatedPower/1e3)
+	if r.TopSpeedByGear(rho) {
+		why = "past it the engine would turn faster than its rated speed in top gear (load.top_gear_speed)"
+	}
+	return fmt.Sprintf("The table stops at the engine's top speed, %s %s: %s.", output.Num(u.Of(output.Road, top), 0), u.Name(output.Road), why)
 }
 
 // noteMixed explains why the forced and natural rows do not add up.

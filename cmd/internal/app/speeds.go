@@ -6,7 +6,6 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"finmarch/airflow"
 	"finmarch/airflow/cylinder"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
@@ -69,9 +68,7 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 		}
 		if o.Load.OverRated {
 			// the engine cannot hold this speed: the sweep stops here
-			top, _ := d.Load.Road.TopSpeed(d.Case.Pressure / (airflow.RAir * d.Case.Ambient))
-			stopped = fmt.Sprintf("The table stops at the engine's top speed, %s %s: past it the road asks more than the rated %.1f kW (load.rated_power).",
-				output.Num(u.Of(output.Road, top), 0), u.Name(output.Road), d.Load.Road.RatedPower/1e3)
+			stopped = topSpeedNote(u, d)
 			break
 		}
 		warns = append(warns, o.warnings())

@@ -277,6 +277,9 @@ func (b *builder) load() {
 		if l.RatedPower.Set {
 			r.RatedPower = b.opt("load.rated_power", l.RatedPower.raw(), true, 0, 0.5e3, 1000e3, "kW", 1e3, 0, "")
 		}
+		if l.TopGearSpeed.Set {
+			r.TopGearSpeed = b.opt("load.top_gear_speed", l.TopGearSpeed.raw(), true, 0, 10/3.6, 400/3.6, "km/h", 1/3.6, 0, "")
+		}
 		r.Cylinders = 1
 		if md.IsDefined("load", "cylinders") {
 			if l.Cylinders < 1 || l.Cylinders > 16 {

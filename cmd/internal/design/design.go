@@ -85,6 +85,7 @@ type LoadT struct {
 	Grade               Q[Percent]  `toml:"grade"`
 	ExtraPower          Q[Power]    `toml:"extra_power"`
 	RatedPower          Q[Power]    `toml:"rated_power"`
+	TopGearSpeed        Q[Speed]    `toml:"top_gear_speed"`
 	IdleHeat            Q[Power]    `toml:"idle_heat"`
 }
 
