@@ -4,10 +4,12 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strings"
 
 	"gonum.org/v1/gonum/mat"
 
 	"finmarch/airflow/cylinder"
+	"finmarch/airflow/uncertainty"
 )
 
 // Point is one measurement: the operating point and the temperature.
@@ -19,6 +21,25 @@ type Point struct {
 	Sigma    float64 // K, the measurement's standard uncertainty (0: 5 K)
 	Barrel   bool    // measured on the barrel (false: the head)
 	Offset   float64 // K, how much hotter the measuring place runs than the mean fin-root wall (a plug seat: stated by the user; 0 at a fin root)
+}
+
+// Check lists what is wrong with a measured point (nothing when it is
+// usable): speed 0 to 400 km/h (111.1 m/s), ambient -50 to 60 C (223.15 to
+// 333.15 K), the reading between the ambient and 500 C (773.15 K), an
+// uncertainty 0 to 100 K and an offset -100 to 200 K (our plausibility
+// bounds; the estimator's own ranges are wider).
+func (p Point) Check() []string {
+	switch {
+	case !(p.Speed >= 0 && p.Speed <= 400/3.6):
+		return []string{"speed missing or outside 0 to 400 km/h"}
+	case !(p.Ambient > 223 && p.Ambient < 333):
+		return []string{"ambient missing or outside -50 to 60 C"}
+	case !(p.Temp > p.Ambient && p.Temp < 773.15):
+		return []string{"the measured temperature must lie between the ambient and 500 C"}
+	case !(p.Sigma >= 0 && p.Sigma < 100) || !(p.Offset > -100 && p.Offset < 200):
+		return []string{"uncertainty 0 to 100 K, offset -100 to 200 K"}
+	}
+	return nil
 }
 
 // DefaultSigma is a point's uncertainty when none is given: a thermocouple
@@ -88,6 +109,11 @@ func Calibrate(d cylinder.Design, s cylinder.Settings, pts []Point, names ...str
 	}
 	if len(names) == 0 {
 		names = []string{Recovery}
+	}
+	for i, p := range pts {
+		if bad := p.Check(); len(bad) > 0 {
+			return Fit{}, fmt.Errorf("calibrate: point %d: %s", i+1, strings.Join(bad, "; "))
+		}
 	}
 	if len(names) > len(pts) {
 		return Fit{}, fmt.Errorf("%w: %d parameters from %d points; give at least one point a parameter", ErrNotIdentifiable, len(names), len(pts))
@@ -359,4 +385,35 @@ func dot(a, b []float64) float64 {
 		s += a[i] * b[i]
 	}
 	return s
+}
+
+// Narrow returns the band's spread sp as the fit leaves it: each fitted
+// input's half-width narrowed to two standard errors (the recovery's
+// absolute, the forced and load factors' relative to their value, the load
+// factor on the cooling share); and, when the recovery is fitted, the inputs
+// it has absorbed at the measured points (cooling share, thermal efficiency,
+// head share and forced convection, unless fitted themselves) set to zero.
+// Natural convection, conductivity and emissivity keep their half-widths.
+// The offset belongs to the measuring place and narrows nothing.
+func (f Fit) Narrow(sp uncertainty.Spread) uncertainty.Spread {
+	for _, p := range f.Params {
+		switch p.Name {
+		case Recovery:
+			sp.Recovery = 2 * p.StdError
+			_, forced := f.Get(ForcedFactor)
+			_, load := f.Get(LoadFactor)
+			if !forced {
+				sp.Forced = 0
+			}
+			if !load {
+				sp.CoolShare = 0
+			}
+			sp.Thermal, sp.HeadShare = 0, 0
+		case ForcedFactor:
+			sp.Forced = 2 * p.StdError / p.Value
+		case LoadFactor:
+			sp.CoolShare = 2 * p.StdError / p.Value
+		}
+	}
+	return sp
 }

@@ -8,6 +8,7 @@ import (
 
 	"finmarch/airflow/cylinder"
 	"finmarch/airflow/internal/demotest"
+	"finmarch/airflow/uncertainty"
 )
 
 // demo is the upright demo with its road load (the load rises with speed,
@@ -159,5 +160,47 @@ func BenchmarkCalibrateThreePoints(b *testing.B) {
 		if _, err := Calibrate(d, cylinder.Settings{}, pts); err != nil {
 			b.Fatal(err)
 		}
+	}
+}
+
+// A point outside the plausible ranges is refused before any fit, naming
+// the point and the range.
+func TestRefusesAnImplausiblePoint(t *testing.T) {
+	d := demo(t)
+	good := measure(t, d, 0.35, 90/3.6, 300, 0, 0)
+	for _, c := range []struct {
+		edit func(*Point)
+		want string
+	}{
+		{func(p *Point) { p.Speed = 500 / 3.6 }, "speed"},
+		{func(p *Point) { p.Ambient = 200 }, "ambient"},
+		{func(p *Point) { p.Temp = p.Ambient - 1 }, "between the ambient and 500 C"},
+		{func(p *Point) { p.Sigma = 150 }, "uncertainty"},
+	} {
+		p := good
+		c.edit(&p)
+		if _, err := Calibrate(d, cylinder.Settings{}, []Point{good, p}); err == nil || !strings.Contains(err.Error(), "point 2: ") || !strings.Contains(err.Error(), c.want) {
+			t.Errorf("%v; want point 2 and %q", err, c.want)
+		}
+	}
+}
+
+// Narrow: a fitted recovery takes the place of the scatter it absorbed; a
+// fitted load factor keeps its own half-width on the cooling share; the
+// inputs no fit touches keep theirs.
+func TestNarrow(t *testing.T) {
+	sp := uncertainty.DefaultSpread()
+	f := Fit{Params: []Param{{Name: Recovery, Value: 0.4, StdError: 0.03}}}
+	n := f.Narrow(sp)
+	if n.Recovery != 0.06 || n.Forced != 0 || n.CoolShare != 0 || n.Thermal != 0 || n.HeadShare != 0 ||
+		n.Natural != sp.Natural || n.Conductivity != sp.Conductivity || n.Emissivity != sp.Emissivity {
+		t.Errorf("recovery alone: %+v", n)
+	}
+	f.Params = append(f.Params, Param{Name: LoadFactor, Value: 0.8, StdError: 0.04})
+	if n := f.Narrow(sp); math.Abs(n.CoolShare-0.1) > 1e-12 || n.Forced != 0 {
+		t.Errorf("recovery and load: %+v", n)
+	}
+	if n := (Fit{Params: []Param{{Name: Offset, Value: 12, StdError: 2}}}).Narrow(sp); n != sp {
+		t.Errorf("an offset narrowed the band: %+v", n)
 	}
 }

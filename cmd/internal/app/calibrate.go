@@ -2,11 +2,13 @@ package app
 
 import (
 	"fmt"
+	"strconv"
 	"strings"
 
 	"github.com/spf13/cobra"
 
 	"finmarch/airflow/calibrate"
+	"finmarch/airflow/uncertainty"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
 )
@@ -112,7 +114,7 @@ func (e *env) calibrate(d *design.Design, path string, names []string, write str
 	doc := output.Doc{Title: fmt.Sprintf("%s: calibration against %d measured point(s)", d.Name, len(d.Points)), Grids: []output.Grid{pg, rg}, Caution: true,
 		Notes: []string{"A residual is the model (plus the measuring place's offset) less the measurement; a plug seat runs hotter than the mean fin root the model gives.",
 			"Standard errors come from the fit's covariance, scaled by the residuals when the points outnumber the parameters and by the points' stated uncertainty (5 K unless given) otherwise."}}
-	kvs := calibratedKeys(f)
+	kvs := calibratedKeys(f, d.Band.Spread)
 	if write != "" {
 		src, err := readDesign(path)
 		if err != nil {
@@ -139,39 +141,38 @@ func (e *env) calibrate(d *design.Design, path string, names []string, write str
 }
 
 // calibratedKeys are the design keys a fit sets: each fitted value, and
-// the band's half-width of that input narrowed to two standard errors (the
-// offset belongs to the measuring place, not to the design).
-func calibratedKeys(f calibrate.Fit) []design.KV {
+// the band's half-widths as the fit leaves them (calibrate.Fit.Narrow on
+// the design's spread sp).
+func calibratedKeys(f calibrate.Fit, sp uncertainty.Spread) []design.KV {
 	var kvs []design.KV
+	fittedBy := map[string]string{}
 	for _, p := range f.Params {
-		v, h := output.Num(p.Value, 4), output.Num(2*p.StdError, 4)
+		kv := design.KV{Value: output.Num(p.Value, 4), Note: "fitted by finmarch calibrate"}
 		switch p.Name {
 		case calibrate.Recovery:
-			kvs = append(kvs, design.KV{Key: "air.pressure_recovery", Value: v, Note: "fitted by finmarch calibrate"},
-				design.KV{Key: "uncertainty.pressure_recovery", Value: h, Note: "two standard errors of the fit"})
-			// the fitted recovery absorbs what the measurement saw of the
-			// convection's and the load's scatter: those inputs no longer
-			// vary on their own
-			for _, k := range []string{"forced_convection", "cooling_share", "thermal_efficiency", "head_share"} {
-				if !fitted(f, k) {
-					kvs = append(kvs, design.KV{Key: "uncertainty." + k, Value: "0", Note: "absorbed by the fitted pressure recovery"})
-				}
-			}
+			kv.Key, fittedBy["pressure_recovery"] = "air.pressure_recovery", p.Name
 		case calibrate.ForcedFactor:
-			kvs = append(kvs, design.KV{Key: "calibration.forced_convection_factor", Value: v, Note: "fitted by finmarch calibrate"},
-				design.KV{Key: "uncertainty.forced_convection", Value: output.Num(2*p.StdError/p.Value, 4), Note: "two standard errors of the fit"})
+			kv.Key, fittedBy["forced_convection"] = "calibration.forced_convection_factor", p.Name
 		case calibrate.LoadFactor:
-			kvs = append(kvs, design.KV{Key: "calibration.heat_load_factor", Value: v, Note: "fitted by finmarch calibrate"},
-				design.KV{Key: "uncertainty.cooling_share", Value: output.Num(2*p.StdError/p.Value, 4), Note: "two standard errors of the fit"})
+			kv.Key, fittedBy["cooling_share"] = "calibration.heat_load_factor", p.Name
+		default:
+			continue // the offset belongs to the measuring place
 		}
+		kvs = append(kvs, kv)
+	}
+	after := f.Narrow(sp)
+	for _, h := range []struct {
+		key           string
+		before, after float64
+	}{{"pressure_recovery", sp.Recovery, after.Recovery}, {"forced_convection", sp.Forced, after.Forced},
+		{"cooling_share", sp.CoolShare, after.CoolShare}, {"thermal_efficiency", sp.Thermal, after.Thermal}, {"head_share", sp.HeadShare, after.HeadShare}} {
+		note := "absorbed by the fit"
+		if fittedBy[h.key] != "" {
+			note = "two standard errors of the fit"
+		} else if h.after == h.before {
+			continue
+		}
+		kvs = append(kvs, design.KV{Key: "uncertainty." + h.key, Value: strconv.FormatFloat(h.after, 'g', 4, 64), Note: note})
 	}
 	return kvs
-}
-
-// fitted reports whether the fit carries its own parameter for the band's
-// input k (so that its half-width comes from the fit, not from zero).
-func fitted(f calibrate.Fit, k string) bool {
-	name := map[string]string{"forced_convection": calibrate.ForcedFactor, "cooling_share": calibrate.LoadFactor}[k]
-	_, ok := f.Get(name)
-	return name != "" && ok
 }

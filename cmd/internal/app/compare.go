@@ -7,6 +7,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"finmarch/airflow/cylinder"
 	"finmarch/airflow/uncertainty"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
@@ -159,32 +160,29 @@ func explain(u output.Units, a, b outcome, la, lb rune) string {
 			better = append(better, text)
 		}
 	}
-	ha, hb := a.Result.Head, b.Result.Head
-	if math.Abs(hb.PassageVelocity-ha.PassageVelocity) > 0.05*math.Max(ha.PassageVelocity, 0.1) {
-		w := fmt.Sprintf("head passage air at %s against %s %s", output.Num(u.Of(output.Vel, hb.PassageVelocity), 1), output.Num(u.Of(output.Vel, ha.PassageVelocity), 1), u.Name(output.Vel))
-		if hb.Series && !ha.Series {
-			w += " (only the share of road speed along the axis drives it, through head and barrel passages in series)"
+	for _, df := range cylinder.Differences(a.Result, b.Result) {
+		pair := func(q output.Quantity, dec int) string {
+			return output.Num(u.Of(q, df.B), dec) + " against " + output.Num(u.Of(q, df.A), dec) + " " + u.Name(q)
 		}
-		side(hb.PassageVelocity < ha.PassageVelocity, w)
-	}
-	if math.Abs(hb.MeanH-ha.MeanH) > 0.05*math.Max(ha.MeanH, 1) {
-		side(hb.MeanH < ha.MeanH, fmt.Sprintf("mean h on the head %s against %s %s", output.Num(u.Of(output.H, hb.MeanH), 0), output.Num(u.Of(output.H, ha.MeanH), 0), u.Name(output.H)))
-	}
-	ra, rb := ha.AirOut-ha.AirIn, hb.AirOut-hb.AirIn
-	if math.Abs(rb-ra) > 3 {
-		side(rb > ra, fmt.Sprintf("air warming %s %s along the head fins against %s", output.Num(u.Of(output.TempDiff, rb), 0), u.Name(output.TempDiff), output.Num(u.Of(output.TempDiff, ra), 0)))
-	}
-	if math.Abs(b.Result.Barrel.AirIn-a.Result.Barrel.AirIn) > 1 {
-		side(b.Result.Barrel.AirIn > a.Result.Barrel.AirIn, fmt.Sprintf("air reaching the barrel fins at %s %s against %s (on a series path the head has warmed it)",
-			fmtT(u, b.Result.Barrel.AirIn), u.Name(output.Temp), fmtT(u, a.Result.Barrel.AirIn)))
-	}
-	aa, ab := ha.TotalArea+a.Result.Barrel.TotalArea, hb.TotalArea+b.Result.Barrel.TotalArea
-	if math.Abs(ab-aa) > 0.03*aa {
-		side(ab < aa, fmt.Sprintf("finned surface %s against %s %s", output.Num(u.Of(output.Area, ab), 3), output.Num(u.Of(output.Area, aa), 3), u.Name(output.Area)))
-	}
-	lda, ldb := ha.HeatLoad+a.Result.Barrel.HeatLoad, hb.HeatLoad+b.Result.Barrel.HeatLoad
-	if math.Abs(ldb-lda) > 0.02*math.Max(lda, 1) {
-		side(ldb > lda, fmt.Sprintf("heat load %s against %s W", output.Num(ldb, 0), output.Num(lda, 0)))
+		var w string
+		switch df.Kind {
+		case cylinder.DiffPassageVelocity:
+			w = "head passage air at " + pair(output.Vel, 1)
+			if df.Series {
+				w += " (only the share of road speed along the axis drives it, through head and barrel passages in series)"
+			}
+		case cylinder.DiffMeanH:
+			w = "mean h on the head " + pair(output.H, 0)
+		case cylinder.DiffAirRise:
+			w = fmt.Sprintf("air warming %s %s along the head fins against %s", output.Num(u.Of(output.TempDiff, df.B), 0), u.Name(output.TempDiff), output.Num(u.Of(output.TempDiff, df.A), 0))
+		case cylinder.DiffBarrelInlet:
+			w = fmt.Sprintf("air reaching the barrel fins at %s %s against %s (on a series path the head has warmed it)", fmtT(u, df.B), u.Name(output.Temp), fmtT(u, df.A))
+		case cylinder.DiffArea:
+			w = "finned surface " + pair(output.Area, 3)
+		case cylinder.DiffLoad:
+			w = fmt.Sprintf("heat load %s against %s W", output.Num(df.B, 0), output.Num(df.A, 0))
+		}
+		side(df.Warmer, w)
 	}
 	if len(worse) > 0 {
 		s += fmt.Sprintf(" Against %c: %s.", lb, strings.Join(worse, "; "))

@@ -387,17 +387,7 @@ func measuredPoint(m MeasurementT, alt float64) (calibrate.Point, []string) {
 	default:
 		bad = append(bad, fmt.Sprintf("place %q: fin-root or plug-seat", m.Place))
 	}
-	switch {
-	case !(p.Speed >= 0 && p.Speed <= 400/3.6):
-		bad = append(bad, "speed missing or outside 0 to 400 km/h")
-	case !(p.Ambient > 223 && p.Ambient < 333):
-		bad = append(bad, "ambient missing or outside -50 to 60 C")
-	case !(p.Temp > p.Ambient && p.Temp < 773.15):
-		bad = append(bad, "the measured temperature must lie between the ambient and 500 C")
-	case !(p.Sigma >= 0 && p.Sigma < 100) || !(p.Offset > -100 && p.Offset < 200):
-		bad = append(bad, "uncertainty 0 to 100 K, offset -100 to 200 K")
-	}
-	return p, bad
+	return p, append(bad, p.Check()...)
 }
 
 // limits reads [limits] and [override].
