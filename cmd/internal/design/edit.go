@@ -42,34 +42,15 @@ func SetKeys(src []byte, kvs []KV) []byte {
 // keyLine returns the line of tbl.key and the line of [tbl]'s header, -1
 // where there is none.
 func keyLine(lines []string, tbl, key string) (int, int) {
-	table, inString := "", ""
 	at, header := -1, -1
-	for i, raw := range lines {
-		s := strings.TrimSpace(raw)
-		if inString != "" {
-			if strings.Count(s, inString)%2 == 1 {
-				inString = ""
-			}
-			continue
-		}
-		for _, q := range []string{`"""`, "'''"} {
-			if strings.Count(s, q)%2 == 1 {
-				inString = q
-			}
-		}
-		if strings.HasPrefix(s, "[") {
-			end := strings.Index(s, "]")
-			if end > 0 {
-				table = strings.ReplaceAll(strings.Trim(strings.TrimSpace(s[1:end]), "[] "), " ", "")
-				if table == tbl && !strings.HasPrefix(s, "[[") && header < 0 {
-					header = i
-				}
-			}
-			continue
-		}
-		if eq := strings.Index(s, "="); eq > 0 && table == tbl && strings.TrimSpace(s[:eq]) == key && at < 0 {
+	scanTOML(lines, func(i int, table, k string, array bool) {
+		switch {
+		case table != tbl:
+		case k == "" && !array && header < 0:
+			header = i
+		case k == key && at < 0:
 			at = i
 		}
-	}
+	})
 	return at, header
 }

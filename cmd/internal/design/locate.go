@@ -24,14 +24,46 @@ func (l locator) line(key string) int {
 
 func locate(src string) locator {
 	l := locator{}
-	table, element := "", ""
+	element := ""
 	arrays := map[string]int{} // [[name]] headers seen so far
-	inString := ""             // the delimiter of an open multi-line string
-	for i, raw := range strings.Split(src, "\n") {
+	scanTOML(strings.Split(src, "\n"), func(i int, table, key string, array bool) {
+		if key == "" {
+			if _, ok := l[table]; !ok {
+				l[table] = i + 1
+			}
+			// each element of an array of tables is also name[n]
+			element = ""
+			if array {
+				arrays[table]++
+				element = fmt.Sprintf("%s[%d]", table, arrays[table])
+				l[element] = i + 1
+			}
+			return
+		}
+		full := key
+		if table != "" {
+			full = table + "." + key
+		}
+		if _, ok := l[full]; !ok {
+			l[full] = i + 1
+		}
+		if element != "" {
+			l[element+"."+key] = i + 1
+		}
+	})
+	return l
+}
+
+// scanTOML calls fn for each table header (key "") and each key line of a
+// TOML text, with the table it belongs to (dotted, unquoted, no spaces) and
+// whether the header is an array element ([[name]]); the lines inside a
+// multi-line string are neither, whatever they hold, and comments are
+// skipped.
+func scanTOML(lines []string, fn func(i int, table, key string, array bool)) {
+	table, inString := "", "" // inString: the delimiter of an open multi-line string
+	for i, raw := range lines {
 		s := strings.TrimSpace(raw)
 		if inString != "" {
-			// a line inside a multi-line string is not a key or a header,
-			// whatever it holds
 			if strings.Count(s, inString)%2 == 1 {
 				inString = ""
 			}
@@ -46,37 +78,15 @@ func locate(src string) locator {
 			continue
 		}
 		if strings.HasPrefix(s, "[") {
-			end := strings.Index(s, "]")
-			if end > 0 {
+			if end := strings.Index(s, "]"); end > 0 {
 				table = strings.Trim(strings.TrimSpace(s[1:end]), "[] ")
-				table = strings.ReplaceAll(table, "\"", "")
-				table = strings.ReplaceAll(table, " ", "")
-				if _, ok := l[table]; !ok {
-					l[table] = i + 1
-				}
-				// each element of an array of tables is also name[n]
-				element = ""
-				if strings.HasPrefix(s, "[[") {
-					arrays[table]++
-					element = fmt.Sprintf("%s[%d]", table, arrays[table])
-					l[element] = i + 1
-				}
+				table = strings.ReplaceAll(strings.ReplaceAll(table, "\"", ""), " ", "")
+				fn(i, table, "", strings.HasPrefix(s, "[["))
 			}
 			continue
 		}
 		if eq := strings.Index(s, "="); eq > 0 {
-			key := strings.Trim(strings.TrimSpace(s[:eq]), "\"'")
-			full := key
-			if table != "" {
-				full = table + "." + key
-			}
-			if _, ok := l[full]; !ok {
-				l[full] = i + 1
-			}
-			if element != "" {
-				l[element+"."+key] = i + 1
-			}
+			fn(i, table, strings.Trim(strings.TrimSpace(s[:eq]), "\"'"), false)
 		}
 	}
-	return l
 }
