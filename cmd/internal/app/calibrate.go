@@ -15,10 +15,26 @@ import (
 
 func (e *env) calibrateCmd() *cobra.Command {
 	var fit, write, points string
-	cmd := &cobra.Command{
-		Use:   "calibrate DESIGN.toml [--points READINGS.csv] [--fit recovery[,forced,load,offset]] [--write CALIBRATED.toml]",
-		Short: "Fit the design's pressure recovery (and more) to head or barrel temperatures measured on the engine",
-		Long: `calibrate fits the design's poorly known parameters to the temperatures measured on the
+	cmd := e.oneDesign("calibrate DESIGN.toml [--points READINGS.csv] [--fit recovery[,forced,load,offset]] [--write CALIBRATED.toml]", "Fit the design's pressure recovery (and more) to head or barrel temperatures measured on the engine", func(d *design.Design) error {
+		names, err := fitNames(fit)
+		if err != nil {
+			return err
+		}
+		if points != "" {
+			src, err := readInput(points, "points file")
+			if err != nil {
+				return err
+			}
+			e.inputs = append(e.inputs, points)
+			pts, err := design.ReadPoints(src, points, d.Altitude)
+			if err != nil {
+				return fail(ExitDesign, err)
+			}
+			d.Points = append(d.Points, pts...)
+		}
+		return e.calibrate(d, d.Source, names, write)
+	})
+	cmd.Long = `calibrate fits the design's poorly known parameters to the temperatures measured on the
 running engine, given in the design as [[measurement]] tables (speed, ambient, altitude,
 head or barrel, place fin-root or plug-seat with its offset, uncertainty). It fits the
 pressure recovery; --fit adds the forced convection factor (forced), the heat load factor
@@ -40,33 +56,7 @@ per row; # starts a comment.
 
   speed (km/h),ambient (C),head (C),place,offset (K),uncertainty (K)
   90,28,204,plug-seat,15,5
-  60,24,168,plug-seat,15,5`,
-		Args:              cobra.ExactArgs(1),
-		ValidArgsFunction: tomlArgs,
-		RunE: func(_ *cobra.Command, args []string) error {
-			d, err := e.load(args[0])
-			if err != nil {
-				return err
-			}
-			names, err := fitNames(fit)
-			if err != nil {
-				return err
-			}
-			if points != "" {
-				src, err := readInput(points, "points file")
-				if err != nil {
-					return err
-				}
-				e.inputs = append(e.inputs, points)
-				pts, err := design.ReadPoints(src, points, d.Altitude)
-				if err != nil {
-					return fail(ExitDesign, err)
-				}
-				d.Points = append(d.Points, pts...)
-			}
-			return e.calibrate(d, args[0], names, write)
-		},
-	}
+  60,24,168,plug-seat,15,5`
 	cmd.Flags().StringVar(&fit, "fit", "recovery", "parameters to fit: recovery, forced, load, offset (comma-separated)")
 	cmd.Flags().StringVar(&write, "write", "", "write the calibrated design to this file")
 	cmd.Flags().StringVar(&points, "points", "", "CSV file of measured points, added to the design's [[measurement]] tables")

@@ -13,26 +13,16 @@ import (
 
 func (e *env) speedsCmd() *cobra.Command {
 	var from, to, step string
-	cmd := &cobra.Command{
-		Use:               "speeds DESIGN.toml",
-		Short:             "Sweep road speed: head and barrel temperature and margin at each speed",
-		Args:              cobra.ExactArgs(1),
-		ValidArgsFunction: tomlArgs,
-		RunE: func(_ *cobra.Command, args []string) error {
-			d, err := e.load(args[0])
-			if err != nil {
-				return err
-			}
-			v, err := parseSpeedRange(from, to, step)
-			if err != nil {
-				return err
-			}
-			if !(v[0] >= 0 && v[1] >= v[0] && v[1] <= 400/3.6 && v[2] > 0) || (v[1]-v[0])/v[2] > 1000 {
-				return fail(ExitUsage, fmt.Errorf("speed range %s to %s by %s: need 0 <= from <= to <= 400 km/h, a positive step and at most 1000 rows", from, to, step))
-			}
-			return e.speeds(d, v[0], v[1], v[2])
-		},
-	}
+	cmd := e.oneDesign("speeds DESIGN.toml", "Sweep road speed: head and barrel temperature and margin at each speed", func(d *design.Design) error {
+		v, err := parseSpeedRange(from, to, step)
+		if err != nil {
+			return err
+		}
+		if !(v[0] >= 0 && v[1] >= v[0] && v[1] <= 400/3.6 && v[2] > 0) || (v[1]-v[0])/v[2] > 1000 {
+			return fail(ExitUsage, fmt.Errorf("speed range %s to %s by %s: need 0 <= from <= to <= 400 km/h, a positive step and at most 1000 rows", from, to, step))
+		}
+		return e.speeds(d, v[0], v[1], v[2])
+	})
 	cmd.Flags().StringVar(&from, "from", "0 km/h", "lowest road speed, with unit")
 	cmd.Flags().StringVar(&to, "to", "140 km/h", "highest road speed, with unit")
 	cmd.Flags().StringVar(&step, "step", "10 km/h", "speed step, with unit")

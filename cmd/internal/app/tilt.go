@@ -16,28 +16,18 @@ import (
 
 func (e *env) tiltCmd() *cobra.Command {
 	var step float64
-	cmd := &cobra.Command{
-		Use:   "tilt DESIGN.toml",
-		Short: "Check orientation: the design from upright to laid over, annular against longitudinal fins",
-		Long: `tilt runs the design at its cruise condition with the cylinder axis from 0 (upright)
+	cmd := e.oneDesign("tilt DESIGN.toml", "Check orientation: the design from upright to laid over, annular against longitudinal fins", func(d *design.Design) error {
+		if !(step >= 1 && step <= 90) {
+			return fail(ExitUsage, fmt.Errorf("--step %g deg: allowed 1 to 90", step))
+		}
+		return e.tilt(d, step)
+	})
+	cmd.Long = `tilt runs the design at its cruise condition with the cylinder axis from 0 (upright)
 to 90 degrees (laid over), once with both fin sets annular and once with both
 longitudinal. The other style keeps the fin height, thicknesses and the mean clear
 gap between fins, so the air sees the same fin density (as many fins as the design's
 casting process allows). Beside each head temperature is its uncertainty band, the
-5th to 95th percentile ([uncertainty] in the design; --samples 0 leaves it out).`,
-		Args:              cobra.ExactArgs(1),
-		ValidArgsFunction: tomlArgs,
-		RunE: func(_ *cobra.Command, args []string) error {
-			d, err := e.load(args[0])
-			if err != nil {
-				return err
-			}
-			if !(step >= 1 && step <= 90) {
-				return fail(ExitUsage, fmt.Errorf("--step %g deg: allowed 1 to 90", step))
-			}
-			return e.tilt(d, step)
-		},
-	}
+5th to 95th percentile ([uncertainty] in the design; --samples 0 leaves it out).`
 	cmd.Flags().Float64Var(&step, "step", 15, "tilt step in degrees")
 	return cmd
 }
