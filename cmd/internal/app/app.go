@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"path/filepath"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -108,9 +109,11 @@ upright with annular fins against laid over with longitudinal fins.`,
 		RunE: func(c *cobra.Command, _ []string) error {
 			return e.runDemo()
 		},
+		Version: buildInfo().String(),
 	}
+	root.SetVersionTemplate("{{.Version}}\n")
 	pf := root.PersistentFlags()
-	pf.StringVarP(&e.opt.format, "format", "f", "table", "output format: table, markdown, csv or json")
+	pf.StringVarP(&e.opt.format, "format", "f", "", "output format: table, markdown, csv or json (default: by the --output extension, .md, .csv or .json, else table)")
 	pf.StringVarP(&e.opt.units, "units", "u", "metric", "display units: metric or us")
 	pf.IntVar(&e.opt.segments, "segments", -1, "march segments per air path, 1 to 10000 (overrides the design; default 40)")
 	pf.StringVar(&e.opt.speed, "speed", "", "road speed, overriding the design's air.speed, e.g. \"110 km/h\"")
@@ -128,7 +131,7 @@ upright with annular fins against laid over with longitudinal fins.`,
 		return []string{"metric", "us"}, cobra.ShellCompDirectiveNoFileComp
 	})
 	root.AddCommand(e.demoCmd(), e.estimateCmd(), e.compareCmd(), e.tiltCmd(), e.marchCmd(), e.speedsCmd(),
-		e.sweepCmd(), e.optimiseCmd(), e.calibrateCmd(), e.plotCmd(), e.reportCmd(), e.finCmd(), e.alloysCmd(), e.newCmd())
+		e.sweepCmd(), e.optimiseCmd(), e.calibrateCmd(), e.plotCmd(), e.reportCmd(), e.finCmd(), e.alloysCmd(), e.newCmd(), e.versionCmd())
 	return root
 }
 
@@ -184,7 +187,15 @@ func (e *env) parse(src []byte, name string) (*design.Design, error) {
 }
 
 func (e *env) settings() (output.Format, output.Units, error) {
-	f, err := output.ParseFormat(e.opt.format)
+	name := e.opt.format
+	if name == "" {
+		// the --output extension picks the format unless -f says otherwise
+		name = map[string]string{".md": "markdown", ".markdown": "markdown", ".csv": "csv", ".json": "json", ".jsonl": "json"}[strings.ToLower(filepath.Ext(e.opt.out))]
+		if name == "" {
+			name = "table"
+		}
+	}
+	f, err := output.ParseFormat(name)
 	if err != nil {
 		return "", output.Units{}, fail(ExitUsage, err)
 	}

@@ -1,0 +1,76 @@
+package app
+
+import (
+	"fmt"
+	"runtime"
+	"runtime/debug"
+
+	"github.com/spf13/cobra"
+
+	"finmarch/cmd/internal/output"
+)
+
+// BuildInfo is what the binary knows of its own build: the module version
+// ("(devel)" from a checkout), the commit and whether the tree had
+// uncommitted changes, and the Go version, read from the build information
+// the Go toolchain stamps into every binary.
+type BuildInfo struct {
+	Version  string `json:"version"`
+	Commit   string `json:"commit"`
+	Modified bool   `json:"modified"`
+	Go       string `json:"go_version"`
+}
+
+// commit may be set by the build where the toolchain records no VCS
+// information (GOFLAGS=-buildvcs=false):
+// go build -ldflags "-X finmarch/cmd/internal/app.commit=$(git rev-parse --short=12 HEAD)" ./cmd/finmarch
+var commit = ""
+
+// buildInfo reads the binary's build information.
+func buildInfo() BuildInfo {
+	b := BuildInfo{Version: "(unknown)", Commit: "not recorded", Go: runtime.Version()}
+	if commit != "" {
+		b.Commit = commit
+	}
+	bi, ok := debug.ReadBuildInfo()
+	if !ok {
+		return b
+	}
+	b.Go = bi.GoVersion
+	if bi.Main.Version != "" {
+		b.Version = bi.Main.Version
+	}
+	for _, s := range bi.Settings {
+		switch s.Key {
+		case "vcs.revision":
+			b.Commit = s.Value
+			if len(b.Commit) > 12 {
+				b.Commit = b.Commit[:12]
+			}
+		case "vcs.modified":
+			b.Modified = s.Value == "true"
+		}
+	}
+	return b
+}
+
+// String is the one-line version.
+func (b BuildInfo) String() string {
+	s := fmt.Sprintf("finmarch %s, commit %s", b.Version, b.Commit)
+	if b.Modified {
+		s += " (with uncommitted changes)"
+	}
+	return s + ", " + b.Go
+}
+
+func (e *env) versionCmd() *cobra.Command {
+	return &cobra.Command{
+		Use:   "version",
+		Short: "Print the version, the commit and the Go version this binary was built from",
+		Args:  cobra.NoArgs,
+		RunE: func(*cobra.Command, []string) error {
+			b := buildInfo()
+			return e.emit(output.Doc{Title: b.String(), JSON: b})
+		},
+	}
+}

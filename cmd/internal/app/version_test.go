@@ -1,0 +1,45 @@
+package app
+
+import (
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"runtime"
+	"strings"
+	"testing"
+)
+
+// --version and the version command name the Go version the test binary
+// was built with (from the build information, not a constant), and agree.
+func TestVersion(t *testing.T) {
+	out, errs, code := run(t, "--version")
+	if code != 0 || !strings.HasPrefix(out, "finmarch ") || !strings.Contains(out, runtime.Version()) {
+		t.Fatalf("--version: exit %d %q %s", code, out, errs)
+	}
+	js, _, code := run(t, "version", "-f", "json")
+	var b BuildInfo
+	if err := json.Unmarshal([]byte(js), &b); err != nil || code != 0 || b.Go != runtime.Version() || b.String()+"\n" != out {
+		t.Errorf("version -f json: %v %+v against %q", err, b, out)
+	}
+}
+
+// Without -f the --output extension picks the format; -f overrides it.
+func TestFormatFromOutputExtension(t *testing.T) {
+	up, _ := designs(t)
+	dir := t.TempDir()
+	for _, c := range []struct {
+		name, flag, starts string
+	}{{"e.json", "", "{"}, {"e.csv", "", "quantity,"}, {"e.md", "", "## "}, {"e.txt", "", "demo single"}, {"f.json", "table", "demo single"}} {
+		args := []string{"estimate", up, "-q", "--samples", "0", "-o", filepath.Join(dir, c.name)}
+		if c.flag != "" {
+			args = append(args, "-f", c.flag)
+		}
+		if _, errs, code := run(t, args...); code != 0 {
+			t.Fatalf("%s: exit %d %s", c.name, code, errs)
+		}
+		b, _ := os.ReadFile(filepath.Join(dir, c.name))
+		if !strings.HasPrefix(string(b), c.starts) {
+			t.Errorf("%s (-f %q) starts %q, want %q", c.name, c.flag, string(b[:min(len(b), 40)]), c.starts)
+		}
+	}
+}
