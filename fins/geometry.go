@@ -128,7 +128,7 @@ func (s Set) Geometry() (Geometry, error) {
 	case StyleLongitudinal:
 		circ := math.Pi * s.RootDiameter
 		if n*s.Pitch > circ*(1+1e-9) {
-			return Geometry{}, ferr("count", "%d fins at %s pitch need %s of root circumference, but the barrel has %s", s.Count, mm(s.Pitch), mm(n*s.Pitch), mm(circ))
+			return Geometry{}, ferr("count", "%d fins at %s pitch need %s of root circumference, but the root diameter of %s gives %s", s.Count, mm(s.Pitch), mm(n*s.Pitch), mm(s.RootDiameter), mm(circ))
 		}
 		g.FinAreaEach = 2*H*s.Length + s.TipThickness*s.Length + 2*tm*H
 		g.BaseArea = n * (s.Pitch - s.RootThickness) * s.Length

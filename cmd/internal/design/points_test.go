@@ -80,3 +80,13 @@ func TestMeasurementErrorLine(t *testing.T) {
 		t.Errorf("%v; want %q", err, want)
 	}
 }
+
+// Too many longitudinal fins on the head are blamed on the head, with the
+// head's own diameter (the message once said "the barrel").
+func TestCountErrorNamesItsSet(t *testing.T) {
+	src := strings.Replace(string(demo.LaidOver), "count = 44", "count = 50", 1)
+	_, err := Parse([]byte(src), "lo.toml")
+	if err == nil || !strings.Contains(err.Error(), "head.count") || strings.Contains(err.Error(), "barrel") || !strings.Contains(err.Error(), "root diameter of") {
+		t.Errorf("%v", err)
+	}
+}
