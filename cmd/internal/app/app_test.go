@@ -72,7 +72,7 @@ func TestGoldenOutputs(t *testing.T) {
 		{"estimate.txt", []string{"estimate", up}},
 		{"estimate-us.md", []string{"estimate", "--units", "us", "--format", "markdown", lo}},
 		{"compare.txt", []string{"compare", up, lo}},
-		{"tilt.txt", []string{"tilt", "--step", "30", up}},
+		{"tilt.txt", []string{"tilt", "--step", "30 deg", up}},
 		{"march.csv", []string{"march", "--format", "csv", "--segments", "8", lo}},
 		{"speeds.txt", []string{"speeds", "--from", "30 km/h", "--to", "150 km/h", "--step", "30 km/h", up}},
 		{"fin.txt", []string{"fin", "--profile", "annular-tapered", "--height", "35mm", "--root-thickness", "4mm", "--tip-thickness", "2mm", "--root-diameter", "90mm", "--h", "60 W/m2K"}},

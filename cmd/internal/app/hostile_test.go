@@ -403,7 +403,7 @@ func TestReadmeCalibrationFigures(t *testing.T) {
 // tilt would miss it).
 func TestTiltBand(t *testing.T) {
 	up, _ := designs(t)
-	js, errs, code := run(t, "tilt", up, "--step", "45", "-f", "json", "-q", "--samples", "200")
+	js, errs, code := run(t, "tilt", up, "--step", "45 deg", "-f", "json", "-q", "--samples", "200")
 	if code != 0 {
 		t.Fatalf("exit %d %s", code, errs)
 	}

@@ -15,10 +15,15 @@ import (
 )
 
 func (e *env) tiltCmd() *cobra.Command {
-	var step float64
+	var stepText string
 	cmd := e.oneDesign("tilt DESIGN.toml", "Check orientation: the design from upright to laid over, annular against longitudinal fins", func(d *design.Design) error {
-		if !(step >= 1 && step <= 90) {
-			return fail(ExitUsage, fmt.Errorf("--step %g deg: allowed 1 to 90", step))
+		rad, err := design.ParseValue[design.Angle](stepText)
+		if err != nil {
+			return fail(ExitUsage, fmt.Errorf("--step: %w", err))
+		}
+		step := rad * 180 / math.Pi
+		if !(step >= 1-1e-9 && step <= 90+1e-9) {
+			return fail(ExitUsage, fmt.Errorf("--step %s: allowed 1 to 90 deg", stepText))
 		}
 		return e.tilt(d, step)
 	})
@@ -28,7 +33,7 @@ longitudinal. The other style keeps the fin height, thicknesses and the mean cle
 gap between fins, so the air sees the same fin density (as many fins as the design's
 casting process allows). Beside each head temperature is its uncertainty band, the
 5th to 95th percentile ([uncertainty] in the design; --samples 0 leaves it out).`
-	cmd.Flags().Float64Var(&step, "step", 15, "tilt step in degrees")
+	cmd.Flags().StringVar(&stepText, "step", "15 deg", "tilt step, with its unit")
 	return cmd
 }
 
