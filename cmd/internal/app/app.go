@@ -112,6 +112,15 @@ upright with annular fins against laid over with longitudinal fins.`,
 		Version: buildInfo().String(),
 	}
 	root.SetVersionTemplate("{{.Version}}\n")
+	root.PersistentPreRunE = func(c *cobra.Command, _ []string) error {
+		// a flag the command would silently ignore is refused
+		for _, name := range strings.Split(c.Annotations[ignoredFlags], ",") {
+			if name != "" && c.Flags().Changed(name) {
+				return fail(ExitUsage, fmt.Errorf("--%s: '%s' does not use it", name, c.CommandPath()))
+			}
+		}
+		return nil
+	}
 	pf := root.PersistentFlags()
 	pf.StringVarP(&e.opt.format, "format", "f", "", "output format: table, markdown, csv or json (default: by the --output extension, .md, .csv or .json, else table)")
 	pf.StringVarP(&e.opt.units, "units", "u", "metric", "display units: metric or us")
@@ -130,9 +139,28 @@ upright with annular fins against laid over with longitudinal fins.`,
 	_ = root.RegisterFlagCompletionFunc("units", func(*cobra.Command, []string, string) ([]string, cobra.ShellCompDirective) {
 		return []string{"metric", "us"}, cobra.ShellCompDirectiveNoFileComp
 	})
-	root.AddCommand(e.demoCmd(), e.estimateCmd(), e.compareCmd(), e.tiltCmd(), e.marchCmd(), e.speedsCmd(),
-		e.sweepCmd(), e.optimiseCmd(), e.calibrateCmd(), e.plotCmd(), e.reportCmd(), e.finCmd(), e.alloysCmd(), e.newCmd(), e.versionCmd())
+	operating := []string{"speed", "ambient", "altitude", "segments", "samples"}
+	root.AddCommand(e.demoCmd(), e.estimateCmd(), e.compareCmd(), e.tiltCmd(), e.marchCmd(),
+		ignores(e.speedsCmd(), "speed"), e.sweepCmd(), e.optimiseCmd(),
+		ignores(e.calibrateCmd(), "speed", "ambient", "altitude", "samples"),
+		ignores(e.plotCmd(), "format"), ignores(e.reportCmd(), "format"),
+		ignores(e.finCmd(), operating...), ignores(e.alloysCmd(), append(operating, "strict")...),
+		ignores(e.newCmd(), append(operating, "format", "units", "output", "strict")...),
+		ignores(e.versionCmd(), append(operating, "units", "strict")...))
 	return root
+}
+
+// ignoredFlags is the annotation listing the global flags a command does
+// not use (comma-separated): giving one is an error, not a silent no-op.
+const ignoredFlags = "ignored-flags"
+
+// ignores marks the global flags c does not use.
+func ignores(c *cobra.Command, flags ...string) *cobra.Command {
+	if c.Annotations == nil {
+		c.Annotations = map[string]string{}
+	}
+	c.Annotations[ignoredFlags] = strings.Join(flags, ",")
+	return c
 }
 
 func tomlArgs(_ *cobra.Command, _ []string, _ string) ([]string, cobra.ShellCompDirective) {

@@ -79,6 +79,9 @@ the trade-off front of temperature against fin mass from every design it evaluat
 			if set == "barrel" {
 				lim = d.BarrelLimit
 			}
+			if limit != "" && goal != string(optimise.GoalLight) {
+				return fail(ExitUsage, fmt.Errorf("--limit %q: only --goal light uses it (--goal %s seeks the coolest wall)", limit, goal))
+			}
 			if limit != "" {
 				// checked by the design file's own rules for the limit key
 				// (its range and the alloy's service temperature)

@@ -142,7 +142,7 @@ func TestBareNumbersOnTheCommandLine(t *testing.T) {
 		{[]string{"sweep", up, "--vary", "head.pitch=6mm:14mm:2"}, `"2" has no unit`},
 		{[]string{"estimate", up, "--speed", "110"}, `taken in m/s`},
 		{[]string{"estimate", up, "--ambient", "40"}, `write "35 C"`},
-		{[]string{"optimise", up, "--limit", "200"}, `taken in K`},
+		{[]string{"optimise", up, "--goal", "light", "--limit", "200"}, `taken in K`},
 		{[]string{"optimise", up, "--pitch", "6:14"}, `has no unit`},
 	} {
 		_, errs, code := run(t, c.args...)

@@ -43,3 +43,26 @@ func TestFormatFromOutputExtension(t *testing.T) {
 		}
 	}
 }
+
+// A flag a command would ignore is refused, naming the flag and the
+// command; the flags it uses still pass.
+func TestIgnoredFlagsRefused(t *testing.T) {
+	up, _ := designs(t)
+	for _, args := range [][]string{
+		{"fin", "--speed", "90 km/h", "--profile", "straight-rectangular", "--height", "30mm", "--root-thickness", "3mm", "--h", "50 W/m2K"},
+		{"alloys", "--ambient", "40 C"},
+		{"report", up, "-f", "csv", "-o", filepath.Join(t.TempDir(), "r.html")},
+		{"calibrate", up, "--speed", "90 km/h"},
+		{"speeds", up, "--speed", "90 km/h"},
+		{"optimise", up, "--limit", "200 C"},
+		{"version", "--units", "us"},
+	} {
+		_, errs, code := run(t, args...)
+		if code != ExitUsage || !strings.Contains(errs, "--") {
+			t.Errorf("%v: exit %d %s", args, code, errs)
+		}
+	}
+	if _, errs, code := run(t, "alloys", "-f", "csv", "-q"); code != 0 {
+		t.Errorf("alloys -f csv: exit %d %s", code, errs)
+	}
+}
