@@ -101,7 +101,7 @@ func (e *env) calibrate(d *design.Design, path string, names []string, write str
 		rg.Rows = append(rg.Rows, []string{fmt.Sprint(i + 1), output.Num(u.Of(output.Road, p.Speed), 0), fmtT(u, p.Ambient), set,
 			fmtT(u, p.Temp), fmtDT(u, p.Offset), fmtDT(u, f.Residuals[i])})
 	}
-	doc := output.Doc{Title: fmt.Sprintf("%s: calibration against %d measured point(s)", d.Name, len(d.Points)), Grids: []output.Grid{pg, rg}, Caution: true,
+	doc := output.Doc{Title: fmt.Sprintf("%s: calibration against %s", d.Name, count(len(d.Points), "measured point")), Grids: []output.Grid{pg, rg}, Caution: true,
 		Notes: []string{"A residual is the model (plus the measuring place's offset) less the measurement; a plug seat runs hotter than the mean fin root the model gives.",
 			"Standard errors come from the fit's covariance, scaled by the residuals when the points outnumber the parameters and by the points' stated uncertainty (5 K unless given) otherwise."}}
 	kvs := calibratedKeys(f, d.Band.Spread)

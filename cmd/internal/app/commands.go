@@ -82,3 +82,12 @@ func parseSpeedRange(from, to, step string) ([3]float64, error) {
 	}
 	return v, nil
 }
+
+// count is "1 point" or "3 points": a number with its noun, singular or
+// plural (the plural adds s).
+func count(n int, noun string) string {
+	if n == 1 {
+		return "1 " + noun
+	}
+	return fmt.Sprintf("%d %ss", n, noun)
+}

@@ -185,7 +185,7 @@ func explain(u output.Units, a, b outcome, la, lb rune) string {
 		side(df.Warmer, w)
 	}
 	if len(worse) > 0 {
-		s += fmt.Sprintf(" Against %c: %s.", lb, strings.Join(worse, "; "))
+		s += fmt.Sprintf(" Working against %c: %s.", lb, strings.Join(worse, "; "))
 	}
 	if len(better) > 0 {
 		s += fmt.Sprintf(" In %c's favour: %s.", lb, strings.Join(better, "; "))

@@ -110,9 +110,9 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		doc.Notes = append(doc.Notes, bandNote)
 	}
 	if !o.Fixed && !d.Load.Direct {
-		doc.Notes = append(doc.Notes, fmt.Sprintf("Road load at %s %s: %.2f kW at the wheel, %.2f kW at the crank, %.1f kW of fuel; %.0f%% of the fuel power to the fins of %d cylinder(s), %.0f%% of it through the head.",
+		doc.Notes = append(doc.Notes, fmt.Sprintf("Road load at %s %s: %.2f kW at the wheel, %.2f kW at the crank, %.1f kW of fuel; %.0f%% of the fuel power to the fins of %s, %.0f%% of it through the head.",
 			output.Num(u.Of(output.Road, c.Speed), 0), u.Name(output.Road), o.Load.WheelPower/1e3, o.Load.BrakePower/1e3, o.Load.FuelPower/1e3,
-			100*d.Load.Road.CoolShare, d.Load.Road.Cylinders, 100*d.Load.Road.HeadShare))
+			100*d.Load.Road.CoolShare, count(d.Load.Road.Cylinders, "cylinder"), 100*d.Load.Road.HeadShare))
 	}
 	doc.Notes = append(doc.Notes, orientationNote(d, o.Result), noteWall, noteMixed,
 		energyNote(o.Result, o.Fixed),

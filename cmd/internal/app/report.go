@@ -92,8 +92,8 @@ func inputTable(d *design.Design, u output.Units) output.Grid {
 		both("heat load head / barrel", output.Num(d.Load.Given.Head, 0)+" / "+output.Num(d.Load.Given.Barrel, 0)+" W")
 	} else {
 		r := d.Load.Road
-		both("road load", fmt.Sprintf("%s %s, CdA %.3g m2, Crr %.3g, driveline %.2f, brake thermal %.2f, cooling share %.2f, head share %.2f, %d cylinder(s)",
-			output.Num(u.Of(output.Mass, r.Mass), 0), u.Name(output.Mass), r.CdA, r.Crr, r.Driveline, r.Thermal, r.CoolShare, r.HeadShare, r.Cylinders))
+		both("road load", fmt.Sprintf("%s %s, CdA %.3g m2, Crr %.3g, driveline %.2f, brake thermal %.2f, cooling share %.2f, head share %.2f, %s",
+			output.Num(u.Of(output.Mass, r.Mass), 0), u.Name(output.Mass), r.CdA, r.Crr, r.Driveline, r.Thermal, r.CoolShare, r.HeadShare, count(r.Cylinders, "cylinder")))
 	}
 	both("march segments per path", fmt.Sprint(d.Run.Segments))
 	return t

@@ -378,7 +378,7 @@ func sweepSummary(d *design.Design, axes sweep.Grid, sum *sweep.Summary, total, 
 		keys = append(keys, fmt.Sprintf("%s %d", k, sum.Counts[k]))
 	}
 	sort.Strings(keys)
-	doc := output.Doc{Title: fmt.Sprintf("%s: sweep of %d points on %d workers (%s)", d.Name, total, workers, strings.Join(keys, ", ")),
+	doc := output.Doc{Title: fmt.Sprintf("%s: sweep of %s on %s (%s)", d.Name, count(total, "point"), count(workers, "worker"), strings.Join(keys, ", ")),
 		Grids: []output.Grid{grid(fmt.Sprintf("Coolest heads (best %d)", top), sum.Coolest.Rows()),
 			grid(fmt.Sprintf("Lightest fins within both limits (best %d)", top), sum.Lightest.Rows())},
 		Caution: true}
