@@ -92,6 +92,7 @@ fin width; annular profiles per fin.
 				if !(in.k >= 1 && in.k <= 500) {
 					return fail(ExitUsage, fmt.Errorf("--k %s: allowed 1 to 500 W/mK", k))
 				}
+				in.kGiven = true
 			}
 			return e.fin(in)
 		},
@@ -118,6 +119,7 @@ type finInput struct {
 	L, t0, t1, d float64
 	h, k, tw, ta float64
 	alloy        materials.Alloy
+	kGiven       bool // --k replaced the alloy's conductivity
 }
 
 func (e *env) fin(in finInput) error {
@@ -156,7 +158,11 @@ func (e *env) fin(in finInput) error {
 	g := output.Grid{Header: []string{"quantity", "value", "unit"}, Left: 1}
 	add := func(q, v, unit string) { g.Rows = append(g.Rows, []string{q, v, unit}) }
 	add("profile", in.profile, "")
-	add("conductivity ("+in.alloy.Name+" at the wall temperature)", output.Num(in.k, 1), "W/mK")
+	kFrom := in.alloy.Name + " at the " + fmtT(u, in.tw) + " " + u.Name(output.Temp) + " wall"
+	if in.kGiven {
+		kFrom = "given by --k"
+	}
+	add("conductivity ("+kFrom+")", output.Num(in.k, 1), "W/mK")
 	add("fin parameter m = sqrt(2h/(k t_root))", output.Num(m, 2), "1/m")
 	add("m x height", output.Num(m*in.L, 3), "-")
 	add("Biot number h t_root/(2k)", fmt.Sprintf("%.2g", in.h*in.t0/(2*in.k)), "-")
