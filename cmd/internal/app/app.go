@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"os"
 	"path/filepath"
 	"strings"
 
@@ -61,9 +62,14 @@ type options struct {
 
 type env struct {
 	stdout, stderr io.Writer
+	stdin          io.Reader // the design given as "-"
 	opt            *options
-	inputs         []string // design files read, which no output may replace
+	inputs         []string          // design files read, which no output may replace
+	sources        map[string][]byte // the text of each design read, by its path
 }
+
+// Stdin is where a design named "-" is read from.
+var Stdin io.Reader = os.Stdin
 
 // Run executes finmarch with args and returns the exit code.
 func Run(args []string, stdout, stderr io.Writer) (code int) {
@@ -73,7 +79,7 @@ func Run(args []string, stdout, stderr io.Writer) (code int) {
 			code = ExitInternal
 		}
 	}()
-	e := &env{stdout: stdout, stderr: stderr, opt: &options{}}
+	e := &env{stdout: stdout, stderr: stderr, stdin: Stdin, opt: &options{}, sources: map[string][]byte{}}
 	root := e.rootCmd()
 	if args == nil {
 		args = []string{} // cobra reads os.Args when given nil
@@ -170,11 +176,23 @@ func tomlArgs(_ *cobra.Command, _ []string, _ string) ([]string, cobra.ShellComp
 // load reads and checks a design file, and remembers it as an input that
 // no output may replace.
 func (e *env) load(path string) (*design.Design, error) {
+	if path == "-" {
+		if _, read := e.sources["<stdin>"]; read {
+			return nil, fail(ExitUsage, fmt.Errorf("standard input holds one design: give - once"))
+		}
+		src, err := io.ReadAll(io.LimitReader(e.stdin, design.MaxFileSize+1))
+		if err != nil {
+			return nil, fail(ExitIO, fmt.Errorf("cannot read the design from standard input: %w", err))
+		}
+		e.sources["<stdin>"] = src
+		return e.parse(src, "<stdin>")
+	}
 	src, err := readDesign(path)
 	if err != nil {
 		return nil, err
 	}
 	e.inputs = append(e.inputs, path)
+	e.sources[path] = src
 	return e.parse(src, path)
 }
 

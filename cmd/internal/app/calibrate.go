@@ -106,10 +106,7 @@ func (e *env) calibrate(d *design.Design, path string, names []string, write str
 			"Standard errors come from the fit's covariance, scaled by the residuals when the points outnumber the parameters and by the points' stated uncertainty (5 K unless given) otherwise."}}
 	kvs := calibratedKeys(f, d.Band.Spread)
 	if write != "" {
-		src, err := readDesign(path)
-		if err != nil {
-			return err
-		}
+		src := e.sources[path]
 		out := design.SetKeys(src, kvs)
 		if _, err := design.Parse(out, write); err != nil {
 			return fail(ExitInternal, fmt.Errorf("the calibrated design does not parse: %w", err))

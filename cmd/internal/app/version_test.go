@@ -66,3 +66,26 @@ func TestIgnoredFlagsRefused(t *testing.T) {
 		t.Errorf("alloys -f csv: exit %d %s", code, errs)
 	}
 }
+
+// "-" reads a design from standard input: the same estimate as from its
+// file, errors named <stdin>, and only once per run.
+func TestDesignFromStdin(t *testing.T) {
+	up, _ := designs(t)
+	src, _ := os.ReadFile(up)
+	old := Stdin
+	t.Cleanup(func() { Stdin = old })
+	Stdin = strings.NewReader(string(src))
+	a, errs, code := run(t, "estimate", "-", "-f", "json", "-q", "--samples", "0")
+	b, _, _ := run(t, "estimate", up, "-f", "json", "-q", "--samples", "0")
+	if code != 0 || strings.Replace(a, `"source": "\u003cstdin\u003e"`, `"source": "`+up+`"`, 1) != b {
+		t.Errorf("exit %d %s; stdin and file differ beyond the source's name", code, errs)
+	}
+	Stdin = strings.NewReader("[air]\nspeed = 90\n")
+	if _, errs, code := run(t, "estimate", "-"); code != ExitDesign || !strings.Contains(errs, "<stdin>:") {
+		t.Errorf("bad design on stdin: exit %d %s", code, errs)
+	}
+	Stdin = strings.NewReader(string(src))
+	if _, errs, code := run(t, "compare", "-", "-"); code != ExitUsage || !strings.Contains(errs, "give - once") {
+		t.Errorf("two designs from stdin: exit %d %s", code, errs)
+	}
+}
