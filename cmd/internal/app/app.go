@@ -254,29 +254,35 @@ func (e *env) settings() (output.Format, output.Units, error) {
 
 // emit writes the document to stdout or the --output file, prints the
 // warnings on stderr, and applies --strict.
-func (e *env) emit(doc output.Doc) error {
+func (e *env) emit(doc output.Doc) error { return e.emitAll([]output.Doc{doc}, nil) }
+
+// emitAll is emit for several documents of one kind, one per design
+// (names label them in CSV; output.WriteAll).
+func (e *env) emitAll(docs []output.Doc, names []string) error {
 	f, _, err := e.settings()
 	if err != nil {
 		return err
 	}
 	var buf bytes.Buffer
-	if err := output.Write(&buf, doc, f); err != nil {
+	if err := output.WriteAll(&buf, docs, names, f); err != nil {
 		return fail(ExitInternal, fmt.Errorf("rendering the output: %w", err))
 	}
-	if e.opt.strict && len(doc.Warnings) > 0 {
-		for _, w := range doc.Warnings {
+	var warns, alerts []string
+	caution := false
+	for _, d := range docs {
+		warns, alerts, caution = append(warns, d.Warnings...), append(alerts, d.Alerts...), caution || d.Caution
+	}
+	if e.opt.strict && len(warns) > 0 {
+		for _, w := range warns {
 			fmt.Fprintf(e.stderr, "warning: %s\n", w)
 		}
-		return fail(ExitStrict, fmt.Errorf("--strict: %d warning(s) (correlation ranges, casting limits); no output written", len(doc.Warnings)))
+		return fail(ExitStrict, fmt.Errorf("--strict: %d warning(s) (correlation ranges, casting limits); no output written", len(warns)))
 	}
 	if !e.opt.quiet {
-		for _, w := range doc.Warnings {
+		for _, w := range append(warns, alerts...) {
 			fmt.Fprintf(e.stderr, "warning: %s\n", w)
 		}
-		for _, a := range doc.Alerts {
-			fmt.Fprintf(e.stderr, "warning: %s\n", a)
-		}
-		if doc.Caution && f == output.CSV {
+		if caution && f == output.CSV {
 			fmt.Fprintln(e.stderr, output.Caution)
 		}
 	}

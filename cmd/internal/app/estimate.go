@@ -14,21 +14,47 @@ import (
 )
 
 func (e *env) estimateCmd() *cobra.Command {
-	return e.oneDesign("estimate DESIGN.toml", "Estimate head and barrel temperature (or heat rejected at given walls) at cruise", e.estimate)
+	return &cobra.Command{
+		Use:   "estimate DESIGN.toml [MORE.toml ...]",
+		Short: "Estimate head and barrel temperature (or heat rejected at given walls) at cruise",
+		Long: `estimate evaluates each design at its cruise point: a heat balance per fin set, the
+band, the margins and the notes, one design after another (JSON: an array when there are
+several; CSV: one table with the design in its first column). It exits 1 if any design
+finds no equilibrium, after printing them all.`,
+		Args:              cobra.MinimumNArgs(1),
+		ValidArgsFunction: tomlArgs,
+		RunE: func(_ *cobra.Command, args []string) error {
+			var ds []*design.Design
+			for _, a := range args {
+				d, err := e.load(a)
+				if err != nil {
+					return err
+				}
+				ds = append(ds, d)
+			}
+			return e.estimate(ds...)
+		},
+	}
 }
 
-func (e *env) estimate(d *design.Design) error {
-	doc, o, err := e.estimateDoc(d)
-	if err != nil {
+func (e *env) estimate(ds ...*design.Design) error {
+	var docs []output.Doc
+	var names []string
+	var noEq error
+	for _, d := range ds {
+		doc, o, err := e.estimateDoc(d)
+		if err != nil {
+			return err
+		}
+		docs, names = append(docs, doc), append(names, d.Name)
+		if o.NoEquilibrium != nil && noEq == nil {
+			noEq = modelError(d.Name, o.NoEquilibrium)
+		}
+	}
+	if err := e.emitAll(docs, names); err != nil {
 		return err
 	}
-	if err := e.emit(doc); err != nil {
-		return err
-	}
-	if o.NoEquilibrium != nil {
-		return modelError(d.Name, o.NoEquilibrium)
-	}
-	return nil
+	return noEq
 }
 
 // estimateDoc evaluates the design at cruise and builds the estimate's

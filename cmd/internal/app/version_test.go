@@ -89,3 +89,41 @@ func TestDesignFromStdin(t *testing.T) {
 		t.Errorf("two designs from stdin: exit %d %s", code, errs)
 	}
 }
+
+// estimate takes several designs: JSON is the array of the single runs'
+// documents, CSV one table with the design first, and the caution once.
+func TestEstimateManyDesigns(t *testing.T) {
+	up, lo := designs(t)
+	one := func(p string) any {
+		js, errs, code := run(t, "estimate", p, "-f", "json", "-q", "--samples", "0")
+		if code != 0 {
+			t.Fatal(errs)
+		}
+		var v any
+		if err := json.Unmarshal([]byte(js), &v); err != nil {
+			t.Fatal(err)
+		}
+		return v
+	}
+	js, errs, code := run(t, "estimate", up, lo, "-f", "json", "-q", "--samples", "0")
+	var both []any
+	if err := json.Unmarshal([]byte(js), &both); err != nil || code != 0 || len(both) != 2 {
+		t.Fatalf("exit %d %v %s", code, err, errs)
+	}
+	for i, p := range []string{up, lo} {
+		a, _ := json.Marshal(both[i])
+		b, _ := json.Marshal(one(p))
+		if string(a) != string(b) {
+			t.Errorf("design %d differs from its single run", i+1)
+		}
+	}
+	csvOut, _, _ := run(t, "estimate", up, lo, "-f", "csv", "-q", "--samples", "0")
+	lines := strings.Split(strings.TrimSpace(csvOut), "\n")
+	if !strings.HasPrefix(lines[0], "design,quantity,") || strings.Count(csvOut, "design,") != 1 || !strings.Contains(csvOut, "laid over") {
+		t.Errorf("CSV:\n%s", csvOut)
+	}
+	txt, _, _ := run(t, "estimate", up, lo, "--samples", "0", "-q")
+	if strings.Count(txt, "Caution:") != 1 || strings.Count(txt, "Heat balance per fin set") != 2 {
+		t.Errorf("table: %d cautions, %d balances", strings.Count(txt, "Caution:"), strings.Count(txt, "Heat balance per fin set"))
+	}
+}

@@ -70,6 +70,64 @@ func Write(w io.Writer, d Doc, f Format) error {
 	return err
 }
 
+// WriteAll renders several documents of one kind (one per design) as one
+// output: tables and Markdown one after another with the caution once at
+// the end; JSON an array of the documents; CSV the first grid of each with
+// a leading column naming its document (names[i]), the header once.
+func WriteAll(w io.Writer, docs []Doc, names []string, f Format) error {
+	if len(docs) == 1 {
+		return Write(w, docs[0], f)
+	}
+	ew := &errWriter{w: w}
+	var err error
+	switch f {
+	case JSON:
+		all := make([]any, len(docs))
+		for i, d := range docs {
+			all[i] = d.JSON
+		}
+		enc := json.NewEncoder(ew)
+		enc.SetIndent("", "  ")
+		err = enc.Encode(all)
+	case CSV:
+		cw := csv.NewWriter(ew)
+		for i, d := range docs {
+			if len(d.Grids) == 0 {
+				continue
+			}
+			g := d.Grids[0]
+			if i == 0 {
+				err = cw.Write(append([]string{"design"}, g.Header...))
+			}
+			for _, r := range g.Rows {
+				if err == nil {
+					err = cw.Write(append([]string{names[i]}, r...))
+				}
+			}
+		}
+		cw.Flush()
+		if err == nil {
+			err = cw.Error()
+		}
+	default:
+		caution := false
+		for i, d := range docs {
+			caution = caution || d.Caution
+			d.Caution = caution && i == len(docs)-1
+			if i > 0 {
+				fmt.Fprintln(ew)
+			}
+			if err = write(ew, d, f); err != nil {
+				break
+			}
+		}
+	}
+	if err == nil {
+		err = ew.err
+	}
+	return err
+}
+
 // errWriter keeps the first write error, which the table renderer and
 // fmt.Fprintf would drop (a full disk must not pass for a written result).
 type errWriter struct {
