@@ -101,7 +101,7 @@ func WriteAll(w io.Writer, docs []Doc, names []string, f Format) error {
 			}
 			for _, r := range g.Rows {
 				if err == nil {
-					err = cw.Write(append([]string{names[i]}, r...))
+					err = cw.Write(append([]string{names[i]}, csvCells(r)...))
 				}
 			}
 		}
@@ -126,6 +126,16 @@ func WriteAll(w io.Writer, docs []Doc, names []string, f Format) error {
 		err = ew.err
 	}
 	return err
+}
+
+// csvCells are a row's cells for a spreadsheet: without the padding that
+// indents a label in a table.
+func csvCells(r []string) []string {
+	out := make([]string, len(r))
+	for i, c := range r {
+		out[i] = strings.TrimSpace(c)
+	}
+	return out
 }
 
 // errWriter keeps the first write error, which the table renderer and
@@ -160,7 +170,7 @@ func write(w io.Writer, d Doc, f Format) error {
 			return err
 		}
 		for _, r := range g.Rows {
-			if err := cw.Write(r); err != nil {
+			if err := cw.Write(csvCells(r)); err != nil {
 				return err
 			}
 		}
