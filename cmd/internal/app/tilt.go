@@ -105,8 +105,8 @@ func (e *env) tilt(d *design.Design, step float64) error {
 		return err
 	}
 	if n > 0 {
-		g.Header = []string{"tilt (deg)", "annular head (" + T + ")", "annular head 5 to 95 % (" + T + ")", "annular barrel (" + T + ")",
-			"longitudinal head (" + T + ")", "longitudinal head 5 to 95 % (" + T + ")", "longitudinal barrel (" + T + ")", "cooler style"}
+		g.Header = []string{"tilt (deg)", "annular head (" + T + ")", "annular head 5 % to 95 % (" + T + ")", "annular barrel (" + T + ")",
+			"longitudinal head (" + T + ")", "longitudinal head 5 % to 95 % (" + T + ")", "longitudinal barrel (" + T + ")", "cooler style"}
 	}
 	var warns [][]string
 	var rows []map[string]any

@@ -1,9 +1,11 @@
 package app
 
 import (
+	"encoding/csv"
 	"encoding/json"
 	"os"
 	"path/filepath"
+	"regexp"
 	"runtime"
 	"strings"
 	"testing"
@@ -125,5 +127,34 @@ func TestEstimateManyDesigns(t *testing.T) {
 	txt, _, _ := run(t, "estimate", up, lo, "--samples", "0", "-q")
 	if strings.Count(txt, "Caution:") != 1 || strings.Count(txt, "Heat balance per fin set") != 2 {
 		t.Errorf("table: %d cautions, %d balances", strings.Count(txt, "Caution:"), strings.Count(txt, "Heat balance per fin set"))
+	}
+}
+
+// The CSV of estimate, compare, speeds, tilt and sweep holds one value per
+// cell: no pair "a / b", no range "a to b", no padded label.
+func TestCSVOneValuePerCell(t *testing.T) {
+	up, lo := designs(t)
+	two := regexp.MustCompile(`^-?[0-9.]+ *(/|to) *-?[0-9.]+$`)
+	for _, args := range [][]string{
+		{"estimate", up}, {"estimate", up, lo}, {"compare", up, lo},
+		{"speeds", up, "--from", "60 km/h", "--to", "100 km/h", "--step", "20 km/h"},
+		{"tilt", up, "--step", "45 deg", "--samples", "100"},
+		{"sweep", up, "--vary", "head.pitch=8mm:10mm:2mm"},
+	} {
+		out, errs, code := run(t, append(args, "-f", "csv", "-q")...)
+		if code != 0 && code != ExitModel {
+			t.Fatalf("%v: exit %d %s", args, code, errs)
+		}
+		rows, err := csv.NewReader(strings.NewReader(out)).ReadAll()
+		if err != nil || len(rows) < 2 {
+			t.Fatalf("%v: %v, %d rows", args, err, len(rows))
+		}
+		for _, r := range rows {
+			for _, c := range r {
+				if two.MatchString(c) || c != strings.TrimSpace(c) {
+					t.Errorf("%v: cell %q", args[0], c)
+				}
+			}
+		}
 	}
 }

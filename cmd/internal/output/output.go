@@ -95,13 +95,15 @@ func WriteAll(w io.Writer, docs []Doc, names []string, f Format) error {
 			if len(d.Grids) == 0 {
 				continue
 			}
-			g := d.Grids[0]
+			g := csvColumns(d.Grids[0])
 			if i == 0 {
 				err = cw.Write(append([]string{"design"}, g.Header...))
 			}
 			for _, r := range g.Rows {
-				if err == nil {
-					err = cw.Write(append([]string{names[i]}, csvCells(r)...))
+				for _, c := range csvRows(r) {
+					if err == nil {
+						err = cw.Write(append([]string{names[i]}, c...))
+					}
 				}
 			}
 		}
@@ -128,14 +130,68 @@ func WriteAll(w io.Writer, docs []Doc, names []string, f Format) error {
 	return err
 }
 
-// csvCells are a row's cells for a spreadsheet: without the padding that
-// indents a label in a table.
-func csvCells(r []string) []string {
+// csvColumns splits each column headed "... 5 % to 95 % ..." whose cells
+// are ranges "a to b" into a 5 % column and a 95 % column (a single state,
+// such as "no equilibrium", goes to both).
+func csvColumns(g Grid) Grid {
+	const rng = "5 % to 95 %"
+	var header []string
+	split := map[int]bool{}
+	for i, h := range g.Header {
+		if strings.Contains(h, rng) {
+			split[i] = true
+			header = append(header, strings.Replace(h, rng, "5 %", 1), strings.Replace(h, rng, "95 %", 1))
+			continue
+		}
+		header = append(header, h)
+	}
+	if len(split) == 0 {
+		return g
+	}
+	out := Grid{Title: g.Title, Header: header, Left: g.Left}
+	for _, r := range g.Rows {
+		var row []string
+		for i, c := range r {
+			if !split[i] {
+				row = append(row, c)
+				continue
+			}
+			a, b, ok := strings.Cut(c, " to ")
+			if !ok {
+				a, b = c, c
+			}
+			row = append(row, a, b)
+		}
+		out.Rows = append(out.Rows, row)
+	}
+	return out
+}
+
+// csvRows are a table row as spreadsheet rows: one value per cell, without
+// the padding that indents a label. A row labelled "... head / barrel"
+// whose cells are pairs "a / b" becomes a head row and a barrel row; a row
+// labelled "..., 5 % to 95 %" whose cells are ranges "a to b" becomes a 5 %
+// row and a 95 % row (a single state, such as "no equilibrium", goes to
+// both).
+func csvRows(r []string) [][]string {
 	out := make([]string, len(r))
 	for i, c := range r {
 		out[i] = strings.TrimSpace(c)
 	}
-	return out
+	for _, s := range []struct{ label, sep, a, b string }{{"head / barrel", " / ", "head", "barrel"}, {"5 % to 95 %", " to ", "5 %", "95 %"}} {
+		if len(out) == 0 || !strings.Contains(out[0], s.label) {
+			continue
+		}
+		ra, rb := append([]string(nil), out...), append([]string(nil), out...)
+		ra[0], rb[0] = strings.Replace(out[0], s.label, s.a, 1), strings.Replace(out[0], s.label, s.b, 1)
+		for i := 1; i < len(out); i++ {
+			if x, y, ok := strings.Cut(out[i], s.sep); ok {
+				ra[i], rb[i] = x, y
+			}
+		}
+		return [][]string{ra, rb}
+	}
+	return [][]string{out}
 }
 
 // errWriter keeps the first write error, which the table renderer and
@@ -165,13 +221,15 @@ func write(w io.Writer, d Doc, f Format) error {
 			return nil
 		}
 		cw := csv.NewWriter(w)
-		g := d.Grids[0]
+		g := csvColumns(d.Grids[0])
 		if err := cw.Write(g.Header); err != nil {
 			return err
 		}
 		for _, r := range g.Rows {
-			if err := cw.Write(csvCells(r)); err != nil {
-				return err
+			for _, c := range csvRows(r) {
+				if err := cw.Write(c); err != nil {
+					return err
+				}
 			}
 		}
 		cw.Flush()
