@@ -66,6 +66,7 @@ type env struct {
 	opt            *options
 	inputs         []string          // design files read, which no output may replace
 	sources        map[string][]byte // the text of each design read, by its path
+	args           []string          // the command line, for the report
 }
 
 // Stdin is where a design named "-" is read from.
@@ -79,7 +80,7 @@ func Run(args []string, stdout, stderr io.Writer) (code int) {
 			code = ExitInternal
 		}
 	}()
-	e := &env{stdout: stdout, stderr: stderr, stdin: Stdin, opt: &options{}, sources: map[string][]byte{}}
+	e := &env{stdout: stdout, stderr: stderr, stdin: Stdin, opt: &options{}, sources: map[string][]byte{}, args: args}
 	root := e.rootCmd()
 	if args == nil {
 		args = []string{} // cobra reads os.Args when given nil

@@ -7,6 +7,7 @@ import (
 	"math"
 	"regexp"
 	"strings"
+	"time"
 
 	"github.com/spf13/cobra"
 
@@ -145,8 +146,10 @@ func (e *env) report(ds []*design.Design) ([]byte, error) {
 		}
 		data.Designs = append(data.Designs, hd)
 		warns = append(warns, doc.Warnings)
+		data.Alerts = append(data.Alerts, doc.Alerts...)
 	}
 	data.Warnings = warningsOf(warns...)
+	data.Made = fmt.Sprintf("Written by %s on %s UTC; command: finmarch %s", buildInfo(), time.Now().UTC().Format("2006-01-02 15:04"), strings.Join(e.args, " "))
 	figs := []struct {
 		make    func() (*plots.Figure, error)
 		caption string

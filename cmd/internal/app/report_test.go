@@ -69,6 +69,14 @@ func TestReportContent(t *testing.T) {
 	if !strings.Contains(s, ">"+m[1]+"<") {
 		t.Errorf("report lacks the head temperature %s", m[1])
 	}
+	// the version line, and a design over its limit in the Warnings section
+	// (the section once said nothing was wrong while a design was over it)
+	if !regexp.MustCompile(`id="made">Written by finmarch [^<]*go1\.[^<]* on 20[0-9-]+ [0-9:]+ UTC; command: finmarch report`).MatchString(s) {
+		t.Error("report lacks its version, date and command line")
+	}
+	if w := s[strings.Index(s, `id="warnings"`):]; !strings.Contains(w[:strings.Index(w, "</section>")], "Over a limit:</strong>") {
+		t.Error("the Warnings section does not name the design over its limit")
+	}
 	for _, want := range []string{"not a measurement", "Model and sources", "Warnings", "<svg", "Comparison", "Inputs", "Stephan"} {
 		if !strings.Contains(s, want) {
 			t.Errorf("report lacks %q", want)

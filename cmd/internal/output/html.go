@@ -16,7 +16,9 @@ type Report struct {
 	Figures  []Figure
 	Designs  []ReportDesign
 	Warnings []string
+	Alerts   []string // limits passed: over a temperature limit, past the rated power
 	Sources  []string
+	Made     string // the tool's version, the date and the command line that wrote the report
 }
 
 // Figure is an inline SVG figure with its caption; SVG must come from a
@@ -67,6 +69,7 @@ footer { margin-top: 3rem; font-size: .85rem; color: #555; }
 <header>
 <h1>{{.Title}}</h1>
 <p class="caution" id="caution">{{.Caution}}</p>
+<p class="note" id="made">{{.Made}}</p>
 <p class="note">Units: {{.Units}}. Wall temperatures are the metal at the fin roots; the combustion-side surface and the spark-plug seat run hotter.</p>
 </header>
 {{define "table"}}{{if .Title}}<h3>{{.Title}}</h3>{{end}}
@@ -94,6 +97,7 @@ footer { margin-top: 3rem; font-size: .85rem; color: #555; }
 </section>
 {{end}}<section id="warnings">
 <h2>Warnings</h2>
+{{if .Alerts}}<ul class="warn">{{range .Alerts}}<li><strong>Over a limit:</strong> {{.}}</li>{{end}}</ul>{{end}}
 {{if .Warnings}}<ul class="warn">{{range .Warnings}}<li>{{.}}</li>{{end}}</ul>{{else}}<p>No correlation was used outside its stated range.</p>{{end}}
 </section>
 <section id="sources">
