@@ -31,7 +31,7 @@ type Figure struct {
 // ReportDesign is one design's section: its inputs and result tables.
 type ReportDesign struct {
 	Name, Source string
-	Inputs       Grid
+	Inputs       []Grid
 	Results      []Grid
 	Notes        []string
 	Defaults     []string
@@ -57,7 +57,7 @@ table { border-collapse: collapse; margin: .6rem 0 1rem; font-size: .9rem; }
 th, td { border: 1px solid #c8c8c8; padding: .25rem .55rem; }
 th { background: #eef2f8; text-align: center; }
 td.n { text-align: right; font-variant-numeric: tabular-nums; }
-td.l { text-align: left; }
+td.l { text-align: left; white-space: pre-wrap; }
 figure { margin: 1rem 0 2rem; }
 figcaption { font-size: .9rem; color: #444; }
 .warn li { color: #8a2c00; }
@@ -90,7 +90,7 @@ footer { margin-top: 3rem; font-size: .85rem; color: #555; }
 {{range .Designs}}<section class="design">
 <h2>{{.Name}}</h2>
 <p class="note">Design file: {{.Source}}</p>
-{{template "table" .Inputs}}
+{{range .Inputs}}{{template "table" .}}{{end}}
 {{range .Results}}{{template "table" .}}{{end}}
 {{range .Notes}}<p class="note">{{.}}</p>{{end}}
 {{if .Defaults}}<h3>Defaults applied</h3><ul class="note">{{range .Defaults}}<li>{{.}}</li>{{end}}</ul>{{end}}

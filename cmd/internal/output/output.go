@@ -4,6 +4,7 @@ import (
 	"encoding/csv"
 	"encoding/json"
 	"fmt"
+	"html"
 	"io"
 	"math"
 	"strconv"
@@ -236,7 +237,8 @@ func write(w io.Writer, d Doc, f Format) error {
 		return cw.Error()
 	case Markdown:
 		if d.Title != "" {
-			fmt.Fprintf(w, "## %s\n\n", d.Title)
+			// a design's name is text: markup in it must not render
+			fmt.Fprintf(w, "## %s\n\n", html.EscapeString(d.Title))
 		}
 		for _, g := range d.Grids {
 			if g.Title != "" {

@@ -97,3 +97,14 @@ func TestUnitTable(t *testing.T) {
 		t.Errorf("0 K is %g F", got)
 	}
 }
+
+// A title with markup (a design's name) is escaped in a Markdown heading.
+func TestMarkdownTitleEscaped(t *testing.T) {
+	var b bytes.Buffer
+	if err := Write(&b, Doc{Title: `<img src=x onerror=alert(1)> & co`}, Markdown); err != nil {
+		t.Fatal(err)
+	}
+	if s := b.String(); strings.Contains(s, "<img") || !strings.Contains(s, "&lt;img") || !strings.Contains(s, "&amp; co") {
+		t.Errorf("%q", s)
+	}
+}
