@@ -55,7 +55,7 @@ var (
 		hint: `a bare number is radians; write "90 deg"`, needsUnit: true}
 	dimHCoef = &dimension{name: "heat-transfer coefficient", si: "W/(m2 K)", units: map[string]unitConv{
 		"w/m2k": lin(1), "w/(m2 k)": lin(1), "w/(m2k)": lin(1), "w/m2/k": lin(1), "w/m^2k": lin(1),
-		"btu/(h ft2 f)": lin(5.678263), "btu/hft2f": lin(5.678263)}, hint: `write "80 W/m2K"`}
+		"btu/(h ft2 f)": lin(5.678263), "btu/hft2f": lin(5.678263), "btu/h-ft2-f": lin(5.678263)}, hint: `write "80 W/m2K"`}
 	dimFraction = &dimension{name: "fraction", si: "-", units: map[string]unitConv{
 		"": lin(1), "%": lin(0.01), "percent": lin(0.01)}, hint: `write 0.25 or "25 %"`}
 	dimPercent = &dimension{name: "grade", si: "%", units: map[string]unitConv{
@@ -262,7 +262,7 @@ func (q Q[D]) Or(def float64) float64 {
 // temperature or angle (see flagValue).
 func ParseValue[D Dim](s string) (float64, error) {
 	var d D
-	return flagValue(s, d.dim(), false)
+	return flagValue(s, d.dim(), d.dim().difference)
 }
 
 // flagValue parses a command-line value for dimension d (a difference, such

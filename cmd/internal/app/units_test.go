@@ -1,0 +1,40 @@
+package app
+
+import (
+	"math"
+	"testing"
+
+	"finmarch/cmd/internal/design"
+	"finmarch/cmd/internal/output"
+)
+
+// Every unit the tool prints is accepted as input, and means the same: a
+// value printed in a display unit reads back to the SI value it came from
+// (the quantities a design or a flag can hold; heat flux and heat per mass
+// are outputs only).
+func TestDisplayUnitsRoundTrip(t *testing.T) {
+	for _, c := range []struct {
+		q     output.Quantity
+		si    float64
+		parse func(string) (float64, error)
+	}{
+		{output.Temp, 400, design.ParseValue[design.Temperature]},
+		{output.TempDiff, 15, design.ParseValue[design.TempDiff]},
+		{output.Road, 25, design.ParseValue[design.Speed]},
+		{output.Vel, 12, design.ParseValue[design.Speed]},
+		{output.Len, 0.009, design.ParseValue[design.Length]},
+		{output.H, 60, design.ParseValue[design.HCoef]},
+		{output.Mass, 230, design.ParseValue[design.Mass]},
+		{output.Area, 0.45, design.ParseValue[design.Area]},
+		{output.Alt, 1500, design.ParseValue[design.Length]},
+		{output.Press, 90e3, design.ParseValue[design.Pressure]},
+	} {
+		for _, u := range []output.Units{{}, {US: true}} {
+			text := output.Num(u.Of(c.q, c.si), 9) + " " + u.Name(c.q)
+			v, err := c.parse(text)
+			if err != nil || math.Abs(v-c.si) > 1e-6*math.Abs(c.si) {
+				t.Errorf("%q: %v, %v; want %g (SI)", text, v, err, c.si)
+			}
+		}
+	}
+}
