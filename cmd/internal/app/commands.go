@@ -8,6 +8,7 @@ import (
 	"finmarch/airflow/cylinder"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
+	"finmarch/fins"
 )
 
 const (
@@ -90,4 +91,20 @@ func count(n int, noun string) string {
 		return "1 " + noun
 	}
 	return fmt.Sprintf("%d %ss", n, noun)
+}
+
+// complete offers a fixed list of values for a flag of c.
+func complete(c *cobra.Command, flag string, values func() []string) {
+	_ = c.RegisterFlagCompletionFunc(flag, func(*cobra.Command, []string, string) ([]string, cobra.ShellCompDirective) {
+		return values(), cobra.ShellCompDirectiveNoFileComp
+	})
+}
+
+// processNames are the casting processes' names.
+func processNames() []string {
+	var out []string
+	for _, p := range fins.Processes {
+		out = append(out, p.Name)
+	}
+	return out
 }

@@ -108,9 +108,8 @@ fin width; annular profiles per fin.
 	f.StringVar(&h, "h", "", "heat-transfer coefficient, e.g. \"60 W/m2K\" (required)")
 	f.StringVar(&wall, "wall", "200 C", "fin root temperature, for the heat rate")
 	f.StringVar(&air, "air", "35 C", "air temperature, for the heat rate")
-	_ = cmd.RegisterFlagCompletionFunc("profile", func(*cobra.Command, []string, string) ([]string, cobra.ShellCompDirective) {
-		return profiles, cobra.ShellCompDirectiveNoFileComp
-	})
+	complete(cmd, "profile", func() []string { return profiles })
+	complete(cmd, "alloy", materials.Names)
 	return cmd
 }
 

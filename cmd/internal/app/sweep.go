@@ -139,6 +139,13 @@ diameter vary and the count does not, each set gets as many fins as fit (use
 		},
 	}
 	cmd.Flags().StringArrayVar(&vary, "vary", nil, "KEY=FROM:TO:STEP (units allowed) or KEY=A,B,C; repeat for a grid")
+	_ = cmd.RegisterFlagCompletionFunc("vary", func(*cobra.Command, []string, string) ([]string, cobra.ShellCompDirective) {
+		var keys []string
+		for _, k := range design.VaryKeys() {
+			keys = append(keys, k+"=")
+		}
+		return keys, cobra.ShellCompDirectiveNoFileComp | cobra.ShellCompDirectiveNoSpace
+	})
 	cmd.Flags().IntVar(&workers, "workers", 0, "parallel workers (default: all cores)")
 	cmd.Flags().IntVar(&top, "top", 10, "rows in each summary table")
 	cmd.Flags().BoolVar(&keepCount, "keep-count", false, "keep the fin counts of the design when pitch, thickness or length vary (default: as many fins as fit)")

@@ -2,6 +2,7 @@ package app
 
 import (
 	"math"
+	"strings"
 	"testing"
 
 	"finmarch/cmd/internal/design"
@@ -35,6 +36,28 @@ func TestDisplayUnitsRoundTrip(t *testing.T) {
 			if err != nil || math.Abs(v-c.si) > 1e-6*math.Abs(c.si) {
 				t.Errorf("%q: %v, %v; want %g (SI)", text, v, err, c.si)
 			}
+		}
+	}
+}
+
+// Shell completion offers the values of every enumerated flag and the
+// sweep keys.
+func TestCompletion(t *testing.T) {
+	for _, c := range []struct {
+		args []string
+		want string
+	}{
+		{[]string{"optimise", "x.toml", "--process", ""}, "die-casting"},
+		{[]string{"optimise", "x.toml", "--goal", ""}, "light"},
+		{[]string{"optimise", "x.toml", "--set", ""}, "both"},
+		{[]string{"fin", "--alloy", ""}, "A356-T6"},
+		{[]string{"fin", "--profile", ""}, "annular-tapered"},
+		{[]string{"sweep", "x.toml", "--vary", ""}, "head.pitch="},
+		{[]string{"estimate", "--format", ""}, "json"},
+	} {
+		out, _, _ := run(t, append([]string{"__complete"}, c.args...)...)
+		if !strings.Contains(out, c.want+"\n") {
+			t.Errorf("%v: %q lacks %q", c.args, out, c.want)
 		}
 	}
 }
