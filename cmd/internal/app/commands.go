@@ -2,6 +2,7 @@ package app
 
 import (
 	"fmt"
+	"strings"
 
 	"github.com/spf13/cobra"
 
@@ -107,4 +108,22 @@ func processNames() []string {
 		out = append(out, p.Name)
 	}
 	return out
+}
+
+// wrapList joins items with ", " into lines of at most width characters,
+// each starting with indent.
+func wrapList(items []string, width int, indent string) string {
+	var lines []string
+	line := indent
+	for i, it := range items {
+		if i < len(items)-1 {
+			it += ","
+		}
+		if len(line)+len(it)+1 > width && line != indent {
+			lines = append(lines, strings.TrimRight(line, " "))
+			line = indent
+		}
+		line += it + " "
+	}
+	return strings.Join(append(lines, strings.TrimRight(line, " ")), "\n")
 }

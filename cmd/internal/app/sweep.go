@@ -93,7 +93,9 @@ stream out as they finish (JSON lines for json), in constant memory whatever the
 grid size; each row carries its grid index. A summary of the best rows follows (on
 stderr when the rows go to stdout). When pitch, root thickness, finned length or
 diameter vary and the count does not, each set gets as many fins as fit (use
---keep-count to hold the design's counts). Keys: ` + strings.Join(design.VaryKeys(), ", ") + `.
+--keep-count to hold the design's counts). The keys:
+
+` + wrapList(design.VaryKeys(), 88, "  ") + `
 
   finmarch sweep my.toml --vary head.pitch=6mm:14mm:1mm --vary air.speed=40km/h:120km/h:40km/h`,
 		Args:              cobra.ExactArgs(1),

@@ -61,3 +61,16 @@ func TestCompletion(t *testing.T) {
 		}
 	}
 }
+
+// The sweep help wraps its list of keys (it was one line of 40 keys).
+func TestSweepHelpWrapped(t *testing.T) {
+	out, _, _ := run(t, "sweep", "--help")
+	for _, l := range strings.Split(out, "\n") {
+		if len(l) > 100 && !strings.HasPrefix(strings.TrimSpace(l), "-") {
+			t.Errorf("help line of %d characters: %q", len(l), l)
+		}
+	}
+	if !strings.Contains(out, "head.pitch,") {
+		t.Error("the help lists no keys")
+	}
+}
