@@ -20,13 +20,9 @@ func (e *env) compareCmd() *cobra.Command {
 		Args:              cobra.MinimumNArgs(2),
 		ValidArgsFunction: tomlArgs,
 		RunE: func(_ *cobra.Command, args []string) error {
-			var ds []*design.Design
-			for _, a := range args {
-				d, err := e.load(a)
-				if err != nil {
-					return err
-				}
-				ds = append(ds, d)
+			ds, err := e.loadAll(args)
+			if err != nil {
+				return err
 			}
 			doc, err := e.compareDoc(ds, "Design comparison at cruise")
 			if err != nil {

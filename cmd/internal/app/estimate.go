@@ -24,13 +24,9 @@ finds no equilibrium, after printing them all.`,
 		Args:              cobra.MinimumNArgs(1),
 		ValidArgsFunction: tomlArgs,
 		RunE: func(_ *cobra.Command, args []string) error {
-			var ds []*design.Design
-			for _, a := range args {
-				d, err := e.load(a)
-				if err != nil {
-					return err
-				}
-				ds = append(ds, d)
+			ds, err := e.loadAll(args)
+			if err != nil {
+				return err
 			}
 			return e.estimate(ds...)
 		},

@@ -32,6 +32,12 @@ func (e *env) designsOrDemo(args []string) ([]*design.Design, error) {
 		}
 		return ds, nil
 	}
+	return e.loadAll(args)
+}
+
+// loadAll reads and checks each named design file.
+func (e *env) loadAll(args []string) ([]*design.Design, error) {
+	var ds []*design.Design
 	for _, a := range args {
 		d, err := e.load(a)
 		if err != nil {
