@@ -83,7 +83,7 @@ format. With no design files it uses the built-in demo designs.
 			return e.writeFigure(fig)
 		},
 	}
-	speeds.Flags().StringVar(&from, "from", "20 km/h", "lowest road speed")
+	speeds.Flags().StringVar(&from, "from", "0 km/h", "lowest road speed (0: the engine at idle, as the speeds table starts)")
 	speeds.Flags().StringVar(&to, "to", "140 km/h", "highest road speed")
 	speeds.Flags().StringVar(&step, "step", "5 km/h", "speed step")
 	compare := e.figureCmd("compare [DESIGN.toml ...]", "Head temperature and heat rejected per mass of fin, design by design", e.compareFigure)
@@ -238,6 +238,7 @@ func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.F
 		}
 		lines = append(lines, h, b, lo, hi)
 		limits[fmt.Sprintf("head limit %s %s", output.Num(u.Of(output.Temp, d.HeadLimit), 0), u.Name(output.Temp))] = u.Of(output.Temp, d.HeadLimit)
+		limits[fmt.Sprintf("barrel limit %s %s", output.Num(u.Of(output.Temp, d.BarrelLimit), 0), u.Name(output.Temp))] = u.Of(output.Temp, d.BarrelLimit)
 		names = append(names, letter(i)+": "+short(d.Name))
 	}
 	if len(limits) > 3 { // keep the legend readable
