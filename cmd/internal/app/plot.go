@@ -261,7 +261,7 @@ func (e *env) compareFigure(ds []*design.Design) (*plots.Figure, error) {
 		return nil, err
 	}
 	var names []string
-	var ht, lo, hi, perKg []float64
+	var ht, lo, hi, perKg, lim []float64
 	banded := false
 	for i, d := range ds {
 		o, err := evaluate(d, d.Case.Speed)
@@ -290,6 +290,7 @@ func (e *env) compareFigure(ds []*design.Design) (*plots.Figure, error) {
 		}
 		names = append(names, name)
 		ht, lo, hi = append(ht, head), append(lo, l), append(hi, h)
+		lim = append(lim, u.Of(output.Temp, d.HeadLimit))
 		perKg = append(perKg, u.Of(output.PerMass, o.Result.HeatPerFinMass()))
 	}
 	label := "head temperature (" + u.Name(output.Temp) + ")"
@@ -298,8 +299,12 @@ func (e *env) compareFigure(ds []*design.Design) (*plots.Figure, error) {
 	} else {
 		lo, hi = nil, nil
 	}
-	return plots.Compare("Designs at cruise\n"+strings.Join(names, "    "), names, []plots.Panel{
-		{Label: label, Values: ht, Low: lo, High: hi},
-		{Label: "heat rejected per mass of fin (" + u.Name(output.PerMass) + ")", Values: perKg},
+	sep := "    "
+	if len(names) > 2 {
+		sep = "\n" // one design a line: five names do not fit across
+	}
+	return plots.Compare("Designs at cruise\n"+strings.Join(names, sep), names, []plots.Panel{
+		{Label: label, Values: ht, Low: lo, High: hi, Limits: lim},
+		{Label: "heat per mass of fin (" + u.Name(output.PerMass) + ")", Values: perKg},
 	})
 }

@@ -174,13 +174,34 @@ func Compare(title string, names []string, panels []Panel) (*Figure, error) {
 			}
 			vals[i] = v
 		}
-		bc, err := plotter.NewBarChart(vals, vg.Points(60))
-		if err != nil {
-			return nil, err
+		// one bar per design, in the design's colour (as in the other plots)
+		for i, v := range vals {
+			bc, err := plotter.NewBarChart(plotter.Values{v}, vg.Points(60))
+			if err != nil {
+				return nil, err
+			}
+			bc.XMin = float64(i)
+			bc.Color = colour(i)
+			bc.LineStyle.Width = 0
+			p.Add(bc)
 		}
-		bc.Color = colour(k)
-		bc.LineStyle.Width = 0
-		p.Add(bc)
+		// each design's limit as a dashed line across its bar
+		for i, l := range pn.Limits {
+			if math.IsNaN(l) || l <= 0 {
+				continue
+			}
+			ln, err := plotter.NewLine(plotter.XYs{{X: float64(i) - 0.45, Y: l}, {X: float64(i) + 0.45, Y: l}})
+			if err != nil {
+				return nil, err
+			}
+			ln.Color = color.Gray{Y: 0x33}
+			ln.Dashes = []vg.Length{vg.Points(3), vg.Points(2)}
+			ln.Width = vg.Points(1.5)
+			p.Add(ln)
+			if i == 0 {
+				p.Legend.Add("limit", ln)
+			}
+		}
 		if len(pn.Low) == len(pn.Values) && len(pn.High) == len(pn.Values) {
 			eb, err := whiskers(pn)
 			if err != nil {
@@ -197,6 +218,18 @@ func Compare(title string, names []string, panels []Panel) (*Figure, error) {
 		p.NominalX(short...)
 		p.X.Min, p.X.Max = -0.7, float64(len(names))-0.3
 		p.Y.Min = 0
+		// room above the tallest bar, whisker or limit: nothing clipped
+		top := 0.0
+		for i, v := range vals {
+			top = math.Max(top, v)
+			if i < len(pn.High) && !math.IsNaN(pn.High[i]) {
+				top = math.Max(top, pn.High[i])
+			}
+			if i < len(pn.Limits) && !math.IsNaN(pn.Limits[i]) {
+				top = math.Max(top, pn.Limits[i])
+			}
+		}
+		p.Y.Max = 1.08 * top
 		p.Legend.Top = false
 		ps = append(ps, p)
 	}
@@ -210,6 +243,7 @@ type Panel struct {
 	Label     string
 	Values    []float64
 	Low, High []float64
+	Limits    []float64 // each design's limit, drawn across its bar (optional)
 }
 
 // whiskers are a panel's bands as error bars on its bars.

@@ -22,9 +22,14 @@ func TestWhiskers(t *testing.T) {
 			t.Errorf("bar %d: whisker -%g +%g, want -%g +%g", i, lo, hi, w[0], w[1])
 		}
 	}
+	pn.Limits = []float64{220, 220, 320}
 	f, err := Compare("t", []string{"a", "b", "c"}, []Panel{pn})
 	if err != nil {
 		t.Fatal(err)
+	}
+	// the axis reaches past the tallest of bars, whiskers and limits
+	if y := f.Plots[0].Y.Max; !(y >= 320) {
+		t.Errorf("axis top %g clips the 320 limit", y)
 	}
 	var b bytes.Buffer
 	if err := f.Write(&b, "svg"); err != nil || !strings.Contains(b.String(), "<svg") {
