@@ -19,8 +19,8 @@ func TestPlots(t *testing.T) {
 		want []string
 	}{
 		{"march", []string{"position along the air path (mm)", "air temperature (C)", "local heat flux (kW/m2)", "A head (annular)", "B barrel (longitudinal)"}},
-		{"speeds", []string{"road speed (km/h)", "wall temperature at the fin roots (C)", "head limit 220 C", "B barrel"}},
-		{"compare", []string{"head temperature (C)", "heat rejected per mass of fin (W/kg)"}},
+		{"speeds", []string{"road speed (km/h)", "wall temperature at the fin roots (C)", "head limit 220 C", "barrel limit 250 C", "B barrel"}},
+		{"compare", []string{"head temperature (C)", "heat per mass of fin (W/kg)", "limit"}},
 	} {
 		svg := filepath.Join(dir, c.kind+".svg")
 		if _, errs, code := run(t, "plot", c.kind, up, lo, "-o", svg); code != 0 {
