@@ -115,14 +115,27 @@ func March(title, xLabel, tLabel, qLabel string, temp, flux []Series) (*Figure, 
 			top = math.Max(top, s.Y[i])
 		}
 	}
-	if top > 0 {
+	if peak := maxY(flux); top > 0 && peak > 2*top {
 		b.Y.Max = 2 * top
+		// say so on the axis: the entrance peak runs off the panel
+		b.Y.Label.Text += fmt.Sprintf(", cut at %.3g (entrance peak %.3g)", b.Y.Max, peak)
 	}
 	if b.X.Max < a.X.Max {
 		b.X.Max = a.X.Max
 	}
 	a.X.Max = b.X.Max
 	return &Figure{Plots: []*plot.Plot{a, b}, Width: 18 * vg.Centimeter, Height: 20 * vg.Centimeter}, nil
+}
+
+// maxY is the largest y of the series.
+func maxY(ss []Series) float64 {
+	m := 0.0
+	for _, s := range ss {
+		for _, y := range s.Y {
+			m = math.Max(m, y)
+		}
+	}
+	return m
 }
 
 // Speeds is the figure of head and barrel temperature against road speed,
