@@ -77,7 +77,7 @@ func TestReportContent(t *testing.T) {
 	if w := s[strings.Index(s, `id="warnings"`):]; !strings.Contains(w[:strings.Index(w, "</section>")], "Over a limit:</strong>") {
 		t.Error("the Warnings section does not name the design over its limit")
 	}
-	for _, want := range []string{"not a measurement", "Model and sources", "Warnings", "<svg", "Comparison", "Inputs", "Stephan"} {
+	for _, want := range []string{"not a measurement", "Model and sources", "Warnings", "<svg", "Comparison", "Inputs", "Stephan", "@media print"} {
 		if !strings.Contains(s, want) {
 			t.Errorf("report lacks %q", want)
 		}

@@ -63,6 +63,14 @@ figcaption { font-size: .9rem; color: #444; }
 .warn li { color: #8a2c00; }
 .note { font-size: .92rem; }
 footer { margin-top: 3rem; font-size: .85rem; color: #555; }
+@media print {
+  body { font-size: 10pt; max-width: none; margin: 0; color: #000; }
+  h2 { page-break-after: avoid; }
+  table, figure, .caution { page-break-inside: avoid; }
+  section.design, #warnings, #sources { page-break-before: always; }
+  svg { max-width: 100%; height: auto; }
+  .caution { border: 1.5pt solid #000; }
+}
 </style>
 </head>
 <body>
