@@ -26,7 +26,7 @@ func (e *env) alloysCmd() *cobra.Command {
 					output.Num(a.EmissBare, 2) + " / " + output.Num(a.EmissPaint, 2), fmtT(u, a.MaxService)})
 				notes = append(notes, fmt.Sprintf("%s: %s. Emissivity: %s. Limit: %s.", a.Name, a.Source, a.EmissSource, a.LimitSource))
 			}
-			return e.emit(output.Doc{Title: "Alloy catalogue", Grids: []output.Grid{g}, Notes: notes, JSON: materials.All()})
+			return e.emit(output.Doc{Title: "Alloy catalogue", Grids: []output.Grid{g}, Notes: notes, JSON: map[string]any{"alloys": materials.All()}})
 		},
 	}
 }

@@ -264,6 +264,11 @@ func (e *env) emitAll(docs []output.Doc, names []string) error {
 	if err != nil {
 		return err
 	}
+	if f == output.JSON {
+		for _, d := range docs {
+			stampJSON(d.JSON)
+		}
+	}
 	var buf bytes.Buffer
 	if err := output.WriteAll(&buf, docs, names, f); err != nil {
 		return fail(ExitInternal, fmt.Errorf("rendering the output: %w", err))

@@ -70,7 +70,21 @@ func (e *env) versionCmd() *cobra.Command {
 		Args:  cobra.NoArgs,
 		RunE: func(*cobra.Command, []string) error {
 			b := buildInfo()
-			return e.emit(output.Doc{Title: b.String(), JSON: b})
+			return e.emit(output.Doc{Title: b.String(), JSON: map[string]any{"version": b.Version, "commit": b.Commit, "modified": b.Modified, "go_version": b.Go}})
 		},
+	}
+}
+
+// SchemaVersion is the version of the JSON documents' layout: raised when a
+// key is renamed or removed or changes its meaning or unit (adding a key
+// leaves it).
+const SchemaVersion = 1
+
+// stampJSON adds the schema version and the tool's version to a JSON
+// document that is an object.
+func stampJSON(doc any) {
+	if m, ok := doc.(map[string]any); ok {
+		m["schema_version"] = SchemaVersion
+		m["finmarch_version"] = buildInfo().String()
 	}
 }

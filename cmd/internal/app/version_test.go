@@ -3,6 +3,7 @@ package app
 import (
 	"encoding/csv"
 	"encoding/json"
+	"fmt"
 	"os"
 	"path/filepath"
 	"regexp"
@@ -155,6 +156,35 @@ func TestCSVOneValuePerCell(t *testing.T) {
 					t.Errorf("%v: cell %q", args[0], c)
 				}
 			}
+		}
+	}
+}
+
+// Every command's JSON document is an object carrying the schema version
+// and the tool's version (estimate of several designs: each element).
+func TestJSONStamped(t *testing.T) {
+	up, lo := designs(t)
+	for _, args := range [][]string{
+		{"estimate", up, "--samples", "0"}, {"compare", up, lo, "--samples", "0"}, {"tilt", up, "--step", "45 deg", "--samples", "0"},
+		{"speeds", up, "--from", "60 km/h", "--to", "80 km/h", "--samples", "0"}, {"march", up}, {"calibrate", up, "--points", ""},
+		{"fin", "--height", "30mm", "--root-thickness", "3mm", "--root-diameter", "90mm", "--h", "50 W/m2K"}, {"alloys"}, {"version"},
+		{"optimise", up, "--pitch", "8mm:9mm", "--height", "30mm:32mm", "--levels", "3"},
+	} {
+		if args[0] == "calibrate" {
+			csvPath := filepath.Join(t.TempDir(), "p.csv")
+			if err := os.WriteFile(csvPath, []byte("speed (km/h),ambient (C),head (C)\n90,28,190\n"), 0o644); err != nil {
+				t.Fatal(err)
+			}
+			args[3] = csvPath
+		}
+		out, errs, code := run(t, append(args, "-f", "json", "-q")...)
+		if code != 0 {
+			t.Errorf("%v: exit %d %s", args, code, errs)
+			continue
+		}
+		var v map[string]any
+		if err := json.Unmarshal([]byte(out), &v); err != nil || v["schema_version"] != float64(SchemaVersion) || !strings.HasPrefix(fmt.Sprint(v["finmarch_version"]), "finmarch ") {
+			t.Errorf("%v: %v; schema %v, version %v", args[0], err, v["schema_version"], v["finmarch_version"])
 		}
 	}
 }
