@@ -206,6 +206,8 @@ func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.F
 		b := plots.Series{Label: letter(i) + " barrel", Design: i, Dashed: true}
 		lo := plots.Series{Label: letter(i) + " head, 5 % and 95 %", Design: i, Thin: true}
 		hi := plots.Series{Design: i, Thin: true}
+		end := plots.Series{Label: letter(i) + ": no equilibrium beyond", Design: i, Marks: true}
+		ended := false
 		for k := 0; ; k++ {
 			v := from + float64(k)*step
 			if v > to+1e-9 {
@@ -220,6 +222,11 @@ func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.F
 			}
 			if o.Load.OverRated {
 				break // past the engine's top speed: the curves stop
+			}
+			if o.NoEquilibrium != nil && len(h.X) > 0 && !ended {
+				// the curve ends here: mark its last point
+				ended = true
+				end.X, end.Y = append(end.X, h.X[len(h.X)-1]), append(end.Y, h.Y[len(h.Y)-1])
 			}
 			if o.NoEquilibrium != nil || (!o.Fixed && o.Load.Head+o.Load.Barrel == 0) {
 				continue // no equilibrium or no load at this speed: leave a gap at the end
@@ -236,7 +243,7 @@ func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.F
 				hi.X, hi.Y = append(hi.X, u.Of(output.Road, v)), append(hi.Y, u.Of(output.Temp, band.Head.P95))
 			}
 		}
-		lines = append(lines, h, b, lo, hi)
+		lines = append(lines, h, b, lo, hi, end)
 		limits[fmt.Sprintf("head limit %s %s", output.Num(u.Of(output.Temp, d.HeadLimit), 0), u.Name(output.Temp))] = u.Of(output.Temp, d.HeadLimit)
 		limits[fmt.Sprintf("barrel limit %s %s", output.Num(u.Of(output.Temp, d.BarrelLimit), 0), u.Name(output.Temp))] = u.Of(output.Temp, d.BarrelLimit)
 		names = append(names, letter(i)+": "+short(d.Name))

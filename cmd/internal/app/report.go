@@ -157,7 +157,7 @@ func (e *env) report(ds []*design.Design) ([]byte, error) {
 		caption string
 	}{
 		{func() (*plots.Figure, error) { return e.marchFigure(ds) }, "Air temperature and local heat flux along the fin passages at cruise; on a series path the barrel line continues where the head ends. The flux axis is cut above the entrance peak, where the boundary layers start."},
-		{func() (*plots.Figure, error) { return e.speedFigure(ds, 0, 140/3.6, 5/3.6) }, "Wall temperature at the fin roots against road speed from idle (0 km/h), with the head and barrel limits dotted and each head's uncertainty band (5th and 95th percentiles) in thin dots. Lines end where no equilibrium exists below 500 C."},
+		{func() (*plots.Figure, error) { return e.speedFigure(ds, 0, 140/3.6, 5/3.6) }, "Wall temperature at the fin roots against road speed from idle (0 km/h), with the head and barrel limits dotted and each head's uncertainty band (5th and 95th percentiles) in thin dots. A cross marks where a curve ends because no equilibrium exists below 500 C at the next speed."},
 	}
 	if len(ds) > 1 {
 		figs = append(figs, struct {

@@ -22,6 +22,9 @@ type Series struct {
 	Design int  // colour index
 	Dashed bool // second fin set of a design
 	Thin   bool // a band's edge: thin and dotted
+	// Marks are points drawn as crosses (no line), such as where a curve
+	// ends because no equilibrium exists beyond it.
+	Marks bool
 }
 
 // palette: dark, print-safe colours that stay distinct in grey.
@@ -67,6 +70,18 @@ func addLines(p *plot.Plot, ss []Series) error {
 				return fmt.Errorf("plots: %s has a non-finite point", s.Label)
 			}
 			xy[i].X, xy[i].Y = s.X[i], s.Y[i]
+		}
+		if s.Marks {
+			sc, err := plotter.NewScatter(xy)
+			if err != nil {
+				return err
+			}
+			sc.GlyphStyle = draw.GlyphStyle{Color: colour(s.Design), Radius: vg.Points(4.5), Shape: draw.CrossGlyph{}}
+			p.Add(sc)
+			if s.Label != "" {
+				p.Legend.Add(s.Label, sc)
+			}
+			continue
 		}
 		l, err := plotter.NewLine(xy)
 		if err != nil {
