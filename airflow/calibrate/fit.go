@@ -201,16 +201,7 @@ func apply(d cylinder.Design, s cylinder.Settings, ps []Param, x []float64) (cyl
 		case ForcedFactor:
 			s.ForcedFactor = x[i]
 		case LoadFactor:
-			if d.Load.Direct {
-				d.Load.Given.Head *= x[i]
-				d.Load.Given.Barrel *= x[i]
-			} else {
-				cs := d.Load.Road.CoolShare
-				if cs == 0 {
-					cs = cylinder.DefaultCoolShare
-				}
-				d.Load.Road.CoolShare = cs * x[i]
-			}
+			d.Load = d.Load.Scaled(x[i])
 		}
 	}
 	return d, s

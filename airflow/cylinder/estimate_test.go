@@ -534,3 +534,19 @@ func TestTopSpeed(t *testing.T) {
 		t.Errorf("top-gear speed alone: %.3f %v", top, ok)
 	}
 }
+
+// Load.Scaled scales the given heats, or the road load's cooling share
+// (its default when unset), and leaves the rest of the load alone.
+func TestLoadScaled(t *testing.T) {
+	g := Load{Direct: true, Given: HeatLoad{Head: 2000, Barrel: 1000}}.Scaled(1.5)
+	if g.Given.Head != 3000 || g.Given.Barrel != 1500 {
+		t.Errorf("given: %+v", g.Given)
+	}
+	r := Load{Road: RoadLoad{Mass: 200, CdA: 0.5}}.Scaled(0.5)
+	if r.Road.CoolShare != 0.5*DefaultCoolShare || r.Road.Mass != 200 {
+		t.Errorf("road, default share: %+v", r.Road)
+	}
+	if r = (Load{Road: RoadLoad{CoolShare: 0.3}}).Scaled(2); r.Road.CoolShare != 0.6 {
+		t.Errorf("road, stated share: %g", r.Road.CoolShare)
+	}
+}

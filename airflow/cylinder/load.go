@@ -181,6 +181,23 @@ type Load struct {
 
 // At returns the heat load of the case: Given, or the road load at the
 // case's road speed and the density of its ambient air.
+// Scaled returns the load with its heat scaled by k: the given heats, or
+// the road load's cooling share (its default when unset), so that a
+// calibration factor or a sampled scatter acts the same on either kind.
+func (l Load) Scaled(k float64) Load {
+	if l.Direct {
+		l.Given.Head *= k
+		l.Given.Barrel *= k
+		return l
+	}
+	cs := l.Road.CoolShare
+	if cs == 0 {
+		cs = DefaultCoolShare
+	}
+	l.Road.CoolShare = cs * k
+	return l
+}
+
 func (l Load) At(c Case) (HeatLoad, error) {
 	if l.Direct {
 		return HeatLoad{Head: l.Given.Head, Barrel: l.Given.Barrel}, nil

@@ -160,19 +160,15 @@ func draw(d cylinder.Design, s cylinder.Settings, sp Spread, x [dims]float64) (c
 		rec = cylinder.DefaultRecovery
 	}
 	c.Recovery = clamp(rec+at(3, sp.Recovery), 0.05, 1)
-	r := &d.Load.Road
-	cool := 1 + at(1, sp.CoolShare)
-	if d.Load.Direct {
-		d.Load.Given.Head *= cool
-		d.Load.Given.Barrel *= cool
-	} else {
+	d.Load = d.Load.Scaled(1 + at(1, sp.CoolShare))
+	if r := &d.Load.Road; !d.Load.Direct {
 		def := func(v, dflt float64) float64 {
 			if v == 0 {
 				return dflt
 			}
 			return v
 		}
-		r.CoolShare = clamp(def(r.CoolShare, cylinder.DefaultCoolShare)*cool, 0.01, 0.9)
+		r.CoolShare = clamp(r.CoolShare, 0.01, 0.9)
 		r.Thermal = clamp(def(r.Thermal, cylinder.DefaultThermal)*(1+at(2, sp.Thermal)), 0.05, 0.6)
 		r.HeadShare = clamp(def(r.HeadShare, cylinder.DefaultHeadShare)+at(5, sp.HeadShare), 0.05, 1)
 	}

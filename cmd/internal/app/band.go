@@ -39,16 +39,19 @@ func (e *env) band(d *design.Design, v float64) (*uncertainty.Band, error) {
 
 // bandText is a 5th-95th percentile range in display units.
 func bandText(u output.Units, p uncertainty.Percentiles) string {
-	t := func(k float64) string {
-		if k > cylinder.SaneWallLimit {
-			return noEquilibrium
-		}
-		return fmtT(u, k)
-	}
 	if p.P5 > cylinder.SaneWallLimit {
 		return noEquilibrium
 	}
-	return t(p.P5) + " to " + t(p.P95)
+	return percentileText(u, p.P5) + " to " + percentileText(u, p.P95)
+}
+
+// percentileText is one percentile of the band in display units, or the
+// state where its samples found no equilibrium.
+func percentileText(u output.Units, k float64) string {
+	if k > cylinder.SaneWallLimit {
+		return noEquilibrium
+	}
+	return fmtT(u, k)
 }
 
 // bandGrid is the band as a table: each set's percentiles and the
@@ -57,12 +60,7 @@ func bandGrid(u output.Units, d *design.Design, b *uncertainty.Band) output.Grid
 	T := u.Name(output.Temp)
 	g := output.Grid{Title: fmt.Sprintf("Uncertainty band (%d samples, seed %d; [uncertainty] in the design)", b.Samples, b.Seed),
 		Header: []string{"set", "5 % (" + T + ")", "50 % (" + T + ")", "95 % (" + T + ")", "limit (" + T + ")", "chance over the limit"}, Left: 1}
-	t := func(k float64) string {
-		if k > cylinder.SaneWallLimit {
-			return noEquilibrium
-		}
-		return fmtT(u, k)
-	}
+	t := func(k float64) string { return percentileText(u, k) }
 	for _, r := range []struct {
 		name  string
 		p     uncertainty.Percentiles

@@ -339,17 +339,7 @@ func (b *builder) calibration() {
 		d.Run.ForcedFactor = b.opt("calibration.forced_convection_factor", cal.ForcedConvectionFactor.raw(), true, 1, 0.3, 3, "", 1, 0, "")
 	}
 	if cal.HeatLoadFactor.Set {
-		k := b.opt("calibration.heat_load_factor", cal.HeatLoadFactor.raw(), true, 1, 0.3, 3, "", 1, 0, "")
-		if d.Load.Direct {
-			d.Load.Given.Head *= k
-			d.Load.Given.Barrel *= k
-		} else {
-			cs := d.Load.Road.CoolShare
-			if cs == 0 {
-				cs = cylinder.DefaultCoolShare
-			}
-			d.Load.Road.CoolShare = cs * k
-		}
+		d.Load = d.Load.Scaled(b.opt("calibration.heat_load_factor", cal.HeatLoadFactor.raw(), true, 1, 0.3, 3, "", 1, 0, ""))
 	}
 	for i, m := range f.Measurement {
 		key := fmt.Sprintf("measurement[%d]", i+1)
