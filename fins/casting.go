@@ -12,11 +12,11 @@ import (
 // published standard: foundries quote their own, and the command line
 // lets a user override each.
 type Process struct {
-	Name         string
-	MinThickness float64 // m, thinnest section anywhere on the fin (the tip)
-	MaxAspect    float64 // -, fin height over the clear gap at the root
-	MinDraft     float64 // rad, taper of each fin face from the pull direction
-	Source       string
+	Name         string  `json:"name"`
+	MinThickness float64 `json:"min_thickness_m"`   // m, thinnest section anywhere on the fin (the tip)
+	MaxAspect    float64 `json:"max_height_to_gap"` // -, fin height over the clear gap at the root
+	MinDraft     float64 `json:"min_draft_rad"`     // rad, taper of each fin face from the pull direction
+	Source       string  `json:"source"`
 }
 
 // Processes lists the built-in processes.

@@ -27,16 +27,19 @@ func (s Style) String() string {
 	return "annular"
 }
 
+// MarshalText writes the style as the design file spells it (for JSON).
+func (s Style) MarshalText() ([]byte, error) { return []byte(s.String()), nil }
+
 // Set is one fin set: the head's or the barrel's fins. Lengths in m.
 type Set struct {
-	Style         Style
-	Count         int     // number of fins
-	Pitch         float64 // m: axial centre-to-centre spacing (annular) or circumferential spacing at the root (longitudinal)
-	Height        float64 // m, root to tip, radial
-	RootThickness float64 // m
-	TipThickness  float64 // m, not more than RootThickness (as-cast taper)
-	RootDiameter  float64 // m, diameter of the cylinder at the fin roots
-	Length        float64 // m, finned length along the cylinder axis
+	Style         Style   `json:"style"`
+	Count         int     `json:"count"`            // number of fins
+	Pitch         float64 `json:"pitch_m"`          // m: axial centre-to-centre spacing (annular) or circumferential spacing at the root (longitudinal)
+	Height        float64 `json:"height_m"`         // m, root to tip, radial
+	RootThickness float64 `json:"root_thickness_m"` // m
+	TipThickness  float64 `json:"tip_thickness_m"`  // m, not more than RootThickness (as-cast taper)
+	RootDiameter  float64 `json:"root_diameter_m"`  // m, diameter of the cylinder at the fin roots
+	Length        float64 `json:"length_m"`         // m, finned length along the cylinder axis
 }
 
 // FieldError names the fin-set value that makes a geometry impossible.

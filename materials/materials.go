@@ -1,6 +1,7 @@
 package materials
 
 import (
+	"encoding/json"
 	"errors"
 	"fmt"
 	"math"
@@ -28,26 +29,39 @@ func (f Finish) String() string {
 
 // Point is one conductivity value at one temperature.
 type Point struct {
-	T float64 // K
-	K float64 // W/(m K)
+	T float64 `json:"temperature_K"`     // K
+	K float64 `json:"conductivity_W_mK"` // W/(m K)
 }
 
 // Alloy is one catalogue entry.
 type Alloy struct {
-	Name        string   // catalogue name, e.g. "A356-T6"
-	Aliases     []string // other spellings accepted by Lookup
-	Kind        string   // e.g. "sand / permanent-mould casting"
-	K300        float64  // thermal conductivity at 300 K, W/(m K)
-	KTable      []Point  // conductivity against temperature, sorted by T; may be empty
-	Density     float64  // kg/m3
-	Cp          float64  // specific heat at 300 K, J/(kg K)
-	EmissBare   float64  // hemispherical emissivity, bare as-cast surface, -
-	EmissPaint  float64  // hemispherical emissivity, black paint, -
-	MaxService  float64  // sensible maximum metal temperature, K
-	Source      string   // where K300, Density and Cp come from
-	EmissSource string   // where the emissivities come from
-	LimitSource string   // where MaxService comes from
-	Custom      bool     // defined by the user, not in the catalogue
+	Name        string   `json:"name"`                   // catalogue name, e.g. "A356-T6"
+	Aliases     []string `json:"aliases"`                // other spellings accepted by Lookup
+	Kind        string   `json:"kind"`                   // e.g. "sand / permanent-mould casting"
+	K300        float64  `json:"conductivity_300K_W_mK"` // thermal conductivity at 300 K, W/(m K)
+	KTable      []Point  `json:"conductivity_table"`     // conductivity against temperature, sorted by T; may be empty
+	Density     float64  `json:"density_kg_m3"`          // kg/m3
+	Cp          float64  `json:"specific_heat_J_kgK"`    // specific heat at 300 K, J/(kg K)
+	EmissBare   float64  `json:"emissivity_bare"`        // hemispherical emissivity, bare as-cast surface, -
+	EmissPaint  float64  `json:"emissivity_painted"`     // hemispherical emissivity, black paint, -
+	MaxService  float64  `json:"max_service_K"`          // sensible maximum metal temperature, K
+	Source      string   `json:"source"`                 // where K300, Density and Cp come from
+	EmissSource string   `json:"emissivity_source"`      // where the emissivities come from
+	LimitSource string   `json:"limit_source"`           // where MaxService comes from
+	Custom      bool     `json:"custom"`                 // defined by the user, not in the catalogue
+}
+
+// MarshalJSON writes the alloy with its aliases and conductivity table as
+// lists, empty rather than null when it has none.
+func (a Alloy) MarshalJSON() ([]byte, error) {
+	type plain Alloy
+	if a.Aliases == nil {
+		a.Aliases = []string{}
+	}
+	if a.KTable == nil {
+		a.KTable = []Point{}
+	}
+	return json.Marshal(plain(a))
 }
 
 // Conductivity returns k(T) in W/(m K) at temperature T in K. Between table

@@ -46,24 +46,24 @@ const (
 
 // FinSet is one fin set with its material and finish.
 type FinSet struct {
-	Name       string // "head" or "barrel"
-	Set        fins.Set
-	Alloy      materials.Alloy
-	Emissivity float64 // -, of the finish
+	Name       string          `json:"name"` // "head" or "barrel"
+	Set        fins.Set        `json:"fins"`
+	Alloy      materials.Alloy `json:"alloy"`
+	Emissivity float64         `json:"emissivity"` // -, of the finish
 }
 
 // Case is one cylinder in one operating condition: the physics inputs.
 // How the estimate is computed (segments, loss coefficients, correlations,
 // caches) is in Settings.
 type Case struct {
-	Tilt     float64 // rad, cylinder axis from vertical: 0 upright, pi/2 laid over
-	Head     FinSet
-	Barrel   FinSet
-	Speed    float64 // m/s, road speed (air speed relative to the cylinder)
-	Recovery float64 // -, share of the dynamic pressure available across the fins; 0 means DefaultRecovery
-	Ambient  float64 // K
-	Pressure float64 // Pa
-	FixedH   float64 // W/(m2 K), a measured forced-convection coefficient; 0 uses the correlations
+	Tilt     float64 `json:"tilt_rad"` // rad, cylinder axis from vertical: 0 upright, pi/2 laid over
+	Head     FinSet  `json:"head"`
+	Barrel   FinSet  `json:"barrel"`
+	Speed    float64 `json:"speed_m_s"`         // m/s, road speed (air speed relative to the cylinder)
+	Recovery float64 `json:"pressure_recovery"` // -, share of the dynamic pressure available across the fins; 0 means DefaultRecovery
+	Ambient  float64 `json:"ambient_K"`         // K
+	Pressure float64 `json:"pressure_Pa"`       // Pa
+	FixedH   float64 `json:"fixed_h_W_m2K"`     // W/(m2 K), a measured forced-convection coefficient; 0 uses the correlations
 }
 
 // Settings are the run settings of an estimate. The zero value is the

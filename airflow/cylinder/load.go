@@ -11,26 +11,24 @@ import (
 // must reject. SI units. A zero coefficient, efficiency, share or count
 // means its sourced default (the Default constants below).
 type RoadLoad struct {
-	Mass        float64 // kg, vehicle with rider and load
-	CdA         float64 // m2, drag area
-	Crr         float64 // rolling-resistance coefficient, -; 0 means DefaultCrr
-	Driveline   float64 // drivetrain efficiency, wheel power / brake power, -; 0 means DefaultDriveline
-	Thermal     float64 // brake thermal efficiency, brake power / fuel power, -; 0 means DefaultThermal
-	CoolShare   float64 // share of fuel power rejected through the fins, -; 0 means DefaultCoolShare
-	Cylinders   int     // number of cylinders sharing the load; 0 means 1
-	HeadShare   float64 // share of one cylinder's fin heat through the head fins, -; 0 means DefaultHeadShare
-	GradePct    float64 // road grade, per cent (0 on the level)
-	ExtraPowerW float64 // W at the wheel, e.g. a towed load or headwind allowance
+	Mass        float64 `json:"mass_kg"`              // kg, vehicle with rider and load
+	CdA         float64 `json:"drag_area_m2"`         // m2, drag area
+	Crr         float64 `json:"rolling_resistance"`   // rolling-resistance coefficient, -; 0 means DefaultCrr
+	Driveline   float64 `json:"driveline_efficiency"` // drivetrain efficiency, wheel power / brake power, -; 0 means DefaultDriveline
+	Thermal     float64 `json:"thermal_efficiency"`   // brake thermal efficiency, brake power / fuel power, -; 0 means DefaultThermal
+	CoolShare   float64 `json:"cooling_share"`        // share of fuel power rejected through the fins, -; 0 means DefaultCoolShare
+	Cylinders   int     `json:"cylinders"`            // number of cylinders sharing the load; 0 means 1
+	HeadShare   float64 `json:"head_share"`           // share of one cylinder's fin heat through the head fins, -; 0 means DefaultHeadShare
+	GradePct    float64 `json:"grade_percent"`        // road grade, per cent (0 on the level)
+	ExtraPowerW float64 `json:"extra_power_W"`        // W at the wheel, e.g. a towed load or headwind allowance
 	// IdleHeat is the heat one cylinder's fins reject at idle, W: the
 	// least the road load gives (0: no floor).
-	IdleHeat float64
-	// RatedPower is the engine's rated power at the crank, W (0: not
+	IdleHeat float64 `json:"idle_heat_W"` // RatedPower is the engine's rated power at the crank, W (0: not
 	// given): a road load past it is a speed the engine cannot hold.
-	RatedPower float64
-	// TopGearSpeed is the road speed in top gear at the engine's rated
+	RatedPower float64 `json:"rated_power_W"` // TopGearSpeed is the road speed in top gear at the engine's rated
 	// (highest allowed) crankshaft speed, m/s (0: not given): a faster
 	// road speed is one the engine cannot hold either.
-	TopGearSpeed float64
+	TopGearSpeed float64 `json:"top_gear_speed_m_s"`
 }
 
 // withDefaults returns r with every zero that has a default replaced by it.
@@ -75,18 +73,18 @@ const (
 
 // HeatLoad is the heat each fin set of one cylinder must reject.
 type HeatLoad struct {
-	Head, Barrel float64 // W
-	WheelPower   float64 // W at the wheel (0 when given directly)
-	BrakePower   float64 // W at the crank (0 when given directly)
-	FuelPower    float64 // W (0 when given directly)
+	Head       float64 `json:"head_W"`        // W
+	Barrel     float64 `json:"barrel_W"`      // W
+	WheelPower float64 `json:"wheel_power_W"` // W at the wheel (0 when given directly)
+	BrakePower float64 `json:"brake_power_W"` // W at the crank (0 when given directly)
+	FuelPower  float64 `json:"fuel_power_W"`  // W (0 when given directly)
 	// OverRated is set when the crank power the road asks exceeds the
 	// engine's rated power, or the road speed is past its top-gear speed:
 	// the engine cannot hold this speed (the heat is what that speed would
 	// need, not what the engine can make).
-	OverRated bool
-	// PastRatedSpeed is set when the road speed is past TopGearSpeed (and
+	OverRated bool `json:"over_rated"` // PastRatedSpeed is set when the road speed is past TopGearSpeed (and
 	// then OverRated too).
-	PastRatedSpeed bool
+	PastRatedSpeed bool `json:"past_rated_speed"`
 }
 
 // Heat returns the heat load per fin set at road speed v (m/s) and air
@@ -174,9 +172,9 @@ func (r RoadLoad) powerTopSpeed(rho float64) (float64, bool) {
 // Load is the heat load of one cylinder as a design gives it: the heats
 // directly, or the road load at the operating point.
 type Load struct {
-	Direct bool     // Given holds the heats; otherwise Road gives them
-	Given  HeatLoad // W, when Direct
-	Road   RoadLoad
+	Direct bool     `json:"direct"` // Given holds the heats; otherwise Road gives them
+	Given  HeatLoad `json:"given"`  // W, when Direct
+	Road   RoadLoad `json:"road"`
 }
 
 // At returns the heat load of the case: Given, or the road load at the

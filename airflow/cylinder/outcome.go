@@ -10,7 +10,10 @@ import (
 
 // Limits are the wall temperatures the head and the barrel must stay at or
 // below, K.
-type Limits struct{ Head, Barrel float64 }
+type Limits struct {
+	Head   float64 `json:"head_K"`
+	Barrel float64 `json:"barrel_K"`
+}
 
 // MarginalBand is the margin to a limit below which a design is called
 // marginal, 15 K (common practice: about the spread between cylinders of
@@ -32,15 +35,30 @@ const (
 // Design is a cylinder with its heat load and limits, at the operating
 // point of its Case: what a design file describes.
 type Design struct {
-	Case   Case
-	Load   Load
-	Limits Limits
+	Case   Case   `json:"case"`
+	Load   Load   `json:"load"`
+	Limits Limits `json:"limits"`
 	// Walls, when set, fixes the wall temperatures of head and barrel (K):
 	// the estimate then gives the heat each set rejects there.
-	Walls *[2]float64
+	Walls *[2]float64 `json:"fixed_walls_K,omitempty"`
 	// Process is how the fins are made; Castability checks them against
 	// its limits (a zero Process checks nothing).
-	Process fins.Process
+	Process fins.Process `json:"process"`
+}
+
+// Resolved returns the design with every zero that stands for a sourced
+// default (the pressure recovery; the road load's coefficients, shares,
+// efficiencies and cylinder count) replaced by that default, so that it
+// reads as the estimate uses it. Evaluating it gives the same result as
+// evaluating d.
+func (d Design) Resolved() Design {
+	if d.Case.Recovery == 0 {
+		d.Case.Recovery = DefaultRecovery
+	}
+	if !d.Load.Direct {
+		d.Load.Road = d.Load.Road.withDefaults()
+	}
+	return d
 }
 
 // Castability describes each casting limit of Process that a fin set

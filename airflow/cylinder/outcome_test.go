@@ -127,3 +127,39 @@ func TestCastability(t *testing.T) {
 		t.Errorf("die casting: %q", c)
 	}
 }
+
+// Resolved fills each zero that stands for a default, and only those: the
+// resolved design evaluates exactly as the original, carries no zero where
+// a default exists, and keeps every value that was given.
+func TestResolved(t *testing.T) {
+	c := demoCase(t, false)
+	c.Recovery = 0
+	d := Design{Case: c, Load: Load{Road: RoadLoad{Mass: 230, CdA: 0.45, CoolShare: 0.2}}, Limits: Limits{Head: 493.15, Barrel: 523.15}}
+	r := d.Resolved()
+	rl := r.Load.Road
+	if r.Case.Recovery != DefaultRecovery || rl.Crr != DefaultCrr || rl.Driveline != DefaultDriveline || rl.Thermal != DefaultThermal ||
+		rl.HeadShare != DefaultHeadShare || rl.Cylinders != 1 || rl.CoolShare != 0.2 || rl.Mass != 230 {
+		t.Errorf("resolved %+v, recovery %g", rl, r.Case.Recovery)
+	}
+	a, err := d.Evaluate(Settings{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := r.Evaluate(Settings{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if a.Result.Head.WallTemp != b.Result.Head.WallTemp || a.Load != b.Load {
+		t.Errorf("resolved design evaluates to %g K (%+v), the original to %g K (%+v)", b.Result.Head.WallTemp, b.Load, a.Result.Head.WallTemp, a.Load)
+	}
+	// the JSON names of the echo: snake_case with SI suffixes
+	js, err := json.Marshal(r)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, k := range []string{`"pressure_recovery":0.5`, `"rolling_resistance":0.02`, `"pitch_m":0.009`, `"style":"annular"`, `"head_K":493.15`} {
+		if !strings.Contains(string(js), k) {
+			t.Errorf("design JSON lacks %s", k)
+		}
+	}
+}

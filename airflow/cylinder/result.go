@@ -60,7 +60,7 @@ type SetResult struct {
 	EnthalpyRise      float64   `json:"air_enthalpy_rise_W"` // mass flow times H(outlet) - H(inlet), apart from the segment sums
 	AirImbalance      float64   `json:"air_imbalance"`       // |enthalpy rise - passage heat| / passage heat
 	LoadImbalance     float64   `json:"load_imbalance"`      // |heat rejected - load| / load; 0 at fixed walls or no load
-	March             []Segment `json:"march"`
+	March             []Segment `json:"march,omitempty"`     // omitted when TotalsOnly
 }
 
 // MarshalJSON writes the set with a null wall temperature when it has no
@@ -87,6 +87,16 @@ type Result struct {
 	TiltDeg   float64            `json:"tilt_deg"`
 	MaxImbal  float64            `json:"energy_imbalance_max"` // the largest air or load imbalance of the two sets
 	Converged bool               `json:"converged"`
+}
+
+// MarshalJSON writes the result with its warnings as a list, empty rather
+// than null when there are none.
+func (r Result) MarshalJSON() ([]byte, error) {
+	type plain Result
+	if r.Warnings == nil {
+		r.Warnings = []validity.Warning{}
+	}
+	return json.Marshal(plain(r))
 }
 
 // FinMass is the fin mass of both sets, kg.

@@ -67,6 +67,7 @@ type env struct {
 	inputs         []string          // design files read, which no output may replace
 	sources        map[string][]byte // the text of each design read, by its path
 	args           []string          // the command line, for the report
+	command        string            // the command running, named in its JSON
 }
 
 // Stdin is where a design named "-" is read from.
@@ -120,6 +121,10 @@ upright with annular fins against laid over with longitudinal fins.`,
 	}
 	root.SetVersionTemplate("{{.Version}}\n")
 	root.PersistentPreRunE = func(c *cobra.Command, _ []string) error {
+		e.command = c.Name()
+		if c == root {
+			e.command = "demo"
+		}
 		// a flag the command would silently ignore is refused
 		for _, name := range strings.Split(c.Annotations[ignoredFlags], ",") {
 			if name != "" && c.Flags().Changed(name) {
@@ -266,7 +271,7 @@ func (e *env) emitAll(docs []output.Doc, names []string) error {
 	}
 	if f == output.JSON {
 		for _, d := range docs {
-			stampJSON(d.JSON)
+			stampJSON(d.JSON, e.command)
 		}
 	}
 	var buf bytes.Buffer

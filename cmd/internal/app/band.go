@@ -77,11 +77,18 @@ const bandNote = "The band samples the poorly known inputs within stated half-wi
 	"forced and natural convection scatter, conductivity, emissivity; defaults and sources in 'go doc finmarch/airflow/uncertainty'); " +
 	"to narrow it, measure the head on the running engine, add the reading as a [[measurement]] table and run 'finmarch calibrate DESIGN --write CALIBRATED.toml'."
 
-// bandJSON is the band for the JSON (null when off).
-func bandJSON(b *uncertainty.Band) any {
-	if b == nil {
-		return nil
+// putBand puts the band into the JSON object m under key, and leaves the
+// key out when the band is off; it returns m.
+func putBand(m map[string]any, key string, b *uncertainty.Band) map[string]any {
+	if b != nil {
+		m[key] = bandJSON(b)
 	}
+	return m
+}
+
+// bandJSON is the band for the JSON: each percentile null where that
+// share of the samples found no equilibrium.
+func bandJSON(b *uncertainty.Band) map[string]any {
 	pj := func(p uncertainty.Percentiles) map[string]any {
 		v := func(k float64) any {
 			if k > cylinder.SaneWallLimit {

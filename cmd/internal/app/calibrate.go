@@ -122,7 +122,7 @@ func (e *env) calibrate(d *design.Design, path string, names []string, write str
 		}
 		doc.Notes = append(doc.Notes, "To use the fit, set in the design: "+strings.Join(keys, "; ")+" (or run with --write FILE).")
 	}
-	doc.JSON = map[string]any{"design": d.Name, "parameters": f.Params, "residuals_K": f.Residuals, "chi2": f.Chi2, "warnings": f.Warnings, "caution": output.Caution}
+	doc.JSON = map[string]any{"design": d.Name, "inputs": d.Cylinder().Resolved(), "parameters": f.Params, "residuals_K": f.Residuals, "chi2": f.Chi2, "warnings": f.Warnings, "caution": output.Caution}
 	doc.Warnings = f.Warnings
 	return e.emit(doc)
 }

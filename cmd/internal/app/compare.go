@@ -125,9 +125,9 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 	}
 	var js []map[string]any
 	for _, o := range os {
-		js = append(js, map[string]any{"design": o.d.Name, "source": o.d.Source, "load": o.Load, "result": o.Result, "band": bandJSON(bands[o.d]),
+		js = append(js, putBand(map[string]any{"design": o.d.Name, "source": o.d.Source, "inputs": o.d.Cylinder().Resolved(), "load": o.Load, "result": o.Result,
 			"head_margin_K": marginJSON(o.Result.Head, o.HeadMargin()), "barrel_margin_K": marginJSON(o.Result.Barrel, o.BarrelMargin()), "status": o.Status(),
-			"equilibrium": o.NoEquilibrium == nil, "energy_imbalance": o.Result.MaxImbal})
+			"equilibrium": o.NoEquilibrium == nil, "energy_imbalance": o.Result.MaxImbal}, "band", bands[o.d]))
 	}
 	doc.JSON = map[string]any{"designs": js, "notes": doc.Notes, "warnings": doc.Warnings, "caution": output.Caution}
 	return doc, nil

@@ -154,9 +154,10 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		"ambient_K": c.Ambient, "pressure_Pa": c.Pressure, "altitude_m": d.Altitude,
 		"load": o.Load, "result": o.Result, "head_limit_K": d.HeadLimit, "barrel_limit_K": d.BarrelLimit,
 		"head_margin_K": marginJSON(h, o.HeadMargin()), "barrel_margin_K": marginJSON(b, o.BarrelMargin()), "status": o.Status(),
-		"fixed_walls": o.Fixed, "equilibrium": o.NoEquilibrium == nil, "energy_imbalance": o.Result.MaxImbal, "band": bandJSON(band),
+		"fixed_walls": o.Fixed, "equilibrium": o.NoEquilibrium == nil, "energy_imbalance": o.Result.MaxImbal, "inputs": d.Cylinder().Resolved(),
 		"warnings": doc.Warnings, "defaults_applied": d.Defaults, "caution": output.Caution,
 	}
+	putBand(doc.JSON.(map[string]any), "band", band)
 	return doc, o, nil
 }
 

@@ -179,6 +179,9 @@ func (e *env) fin(in finInput) error {
 		doc.Warnings = append(doc.Warnings, w.String())
 	}
 	doc.JSON = map[string]any{"profile": in.profile, "efficiency": eta, "solver_efficiency": sol.Efficiency, "heat_rate_W": q,
-		"area_m2": area, "m_per_m": m, "mL": m * in.L, "biot": in.h * in.t0 / (2 * in.k), "per": per, "warnings": doc.Warnings, "caution": output.Caution}
+		"area_m2": area, "fin_parameter_per_m": m, "fin_parameter_times_height": m * in.L,
+		"inputs": map[string]any{"height_m": in.L, "root_thickness_m": in.t0, "tip_thickness_m": in.t1, "root_diameter_m": in.d, "h_W_m2K": in.h,
+			"conductivity_W_mK": in.k, "alloy": in.alloy.Name, "wall_K": in.tw, "air_K": in.ta},
+		"biot": in.h * in.t0 / (2 * in.k), "per": per, "warnings": doc.Warnings, "caution": output.Caution}
 	return e.emit(doc)
 }

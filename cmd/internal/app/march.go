@@ -50,7 +50,7 @@ func (e *env) march(d *design.Design) error {
 	}
 	doc.Notes = append(doc.Notes, energyNote(o.Result, o.Fixed))
 	doc.Warnings = o.warnings()
-	doc.JSON = map[string]any{"design": d.Name, "head": o.Result.Head, "barrel": o.Result.Barrel, "energy_imbalance": o.Result.MaxImbal,
+	doc.JSON = map[string]any{"design": d.Name, "inputs": d.Cylinder().Resolved(), "head": o.Result.Head, "barrel": o.Result.Barrel, "energy_imbalance": o.Result.MaxImbal,
 		"equilibrium": o.NoEquilibrium == nil, "warnings": doc.Warnings, "caution": output.Caution}
 	if err := e.emit(doc); err != nil {
 		return err

@@ -278,7 +278,8 @@ func (e *env) optimumDoc(d *design.Design, pr optimise.Problem, sol optimise.Sol
 	if goal == "light" {
 		g.Rows = append(g.Rows, []string{"limit", u.Name(output.Temp), "", fmtT(u, pr.Limit), ""})
 	}
-	c, checks := constraintGrid(pr, sol, u, label)
+	checks := constraints(pr, sol, label)
+	c := constraintGrid(checks, u)
 	fg := frontGrid(pr, sol, u, label)
 	keepNote := "The other fin set and everything else stay as the design has them; check the result with 'finmarch estimate' after editing the design."
 	if both {
@@ -296,9 +297,9 @@ func (e *env) optimumDoc(d *design.Design, pr optimise.Problem, sol optimise.Sol
 		y := x[5*k : 5*k+5]
 		return map[string]any{"pitch_m": y[0], "height_m": y[1], "root_thickness_m": y[2], "tip_thickness_m": y[3], "count": int(y[4])}
 	}
-	optimum := map[string]any{"wall_K": bt, "fin_mass_kg": bm, "other_set_wall_K": bo}
+	optimum := map[string]any{"wall_temperature_K": bt, "fin_mass_kg": bm, "other_set_wall_temperature_K": bo}
 	if both {
-		optimum = map[string]any{"head": setJSON(0, opt.X), "barrel": setJSON(1, opt.X), "head_wall_K": bt, "barrel_wall_K": bo, "fin_mass_kg": bm}
+		optimum = map[string]any{"head": setJSON(0, opt.X), "barrel": setJSON(1, opt.X), "head_wall_temperature_K": bt, "barrel_wall_temperature_K": bo, "fin_mass_kg": bm}
 	} else {
 		for k, v := range setJSON(0, opt.X) {
 			optimum[k] = v
@@ -308,11 +309,11 @@ func (e *env) optimumDoc(d *design.Design, pr optimise.Problem, sol optimise.Sol
 	if both {
 		setName = "both"
 	}
-	js := map[string]any{"design": d.Name, "set": setName, "goal": goal, "process": p, "optimum": optimum,
+	js := map[string]any{"design": d.Name, "inputs": d.Cylinder().Resolved(), "set": setName, "goal": goal, "process": p, "optimum": optimum,
 		"constraints": checks, "front": frontJSON(sol.Front, pr), "evaluations": sol.Evals, "caution": output.Caution,
 		"speed_m_s": d.Case.Speed, "ambient_K": d.Case.Ambient, "pressure_Pa": d.Case.Pressure}
 	if ad.Feasible {
-		js["as_designed"] = map[string]any{"wall_K": ad.Wall, "fin_mass_kg": ad.Mass, "other_set_wall_K": ad.Other}
+		js["as_designed"] = map[string]any{"wall_temperature_K": ad.Wall, "fin_mass_kg": ad.Mass, "other_set_wall_temperature_K": ad.Other}
 	}
 	if goal == "light" {
 		js["limit_K"] = pr.Limit
@@ -321,65 +322,105 @@ func (e *env) optimumDoc(d *design.Design, pr optimise.Problem, sol optimise.Sol
 	return doc
 }
 
-// constraintGrid lists the casting limits, the bounds the optimum sits on
-// and the temperature limits, each with its slack in its own unit, and
-// returns the casting checks for the JSON.
-func constraintGrid(pr optimise.Problem, sol optimise.Solution, u output.Units, label func(int, string) string) (output.Grid, []fins.Violation) {
+// constraint is one row of the constraints at the optimum, in SI: a
+// casting limit, a bound the optimum sits on, or a temperature limit.
+type constraint struct {
+	Name   string      `json:"name"`
+	Kind   string      `json:"kind"` // casting, bound or temperature
+	Unit   string      `json:"unit"` // m, rad, K, - (a ratio) or count
+	Limit  float64     `json:"limit"`
+	Value  float64     `json:"value"`
+	Slack  float64     `json:"slack"` // in Unit; 0 or less is active or broken
+	Active bool        `json:"active"`
+	Range  *[2]float64 `json:"range,omitempty"` // a bound's variable range
+}
+
+// constraints lists the casting limits, the bounds the optimum sits on
+// and the temperature limits at the optimum, each in its own SI unit.
+func constraints(pr optimise.Problem, sol optimise.Solution, label func(int, string) string) []constraint {
 	p, opt := pr.Process, sol.Optimum
-	L := func(v float64) string { return output.Num(u.Of(output.Len, v), u.Dec(output.Len)+1) }
-	c := output.Grid{Title: "Constraints at the optimum (slack 0 = active)", Header: []string{"constraint", "limit", "value", "slack", "active"}, Left: 1}
-	var checks []fins.Violation
+	out := []constraint{}
 	for k, vs := range pr.Vars {
 		s := pr.Set(k, opt.X)
-		cs := p.Check(s)
-		checks = append(checks, cs...)
-		for _, v := range cs {
-			// the slack in the constraint's own unit
-			var lim, val, slack string
+		for _, v := range p.Check(s) {
+			c := constraint{Name: label(k, v.Constraint), Kind: "casting"}
 			switch v.Constraint {
 			case "minimum thickness":
-				lim, val, slack = L(p.MinThickness)+" "+u.Name(output.Len), L(s.TipThickness)+" "+u.Name(output.Len), L(v.Slack)+" "+u.Name(output.Len)
+				c.Unit, c.Limit, c.Value = "m", p.MinThickness, s.TipThickness
 			case "height to gap":
-				lim, val, slack = output.Num(p.MaxAspect, 2), output.Num(s.Height/(s.Pitch-s.RootThickness), 2), output.Num(v.Slack, 2)
+				c.Unit, c.Limit, c.Value = "-", p.MaxAspect, s.Height/(s.Pitch-s.RootThickness)
 			case "draft":
-				d := math.Atan((s.RootThickness - s.TipThickness) / (2 * s.Height))
-				lim, val, slack = output.Num(p.MinDraft*180/math.Pi, 2)+" deg", output.Num(d*180/math.Pi, 2)+" deg", output.Num((d-p.MinDraft)*180/math.Pi, 2)+" deg"
-			default:
-				slack = fmt.Sprintf("%.3g", v.Slack)
+				c.Unit, c.Limit, c.Value = "rad", p.MinDraft, math.Atan((s.RootThickness-s.TipThickness)/(2*s.Height))
 			}
-			// active: within 2% of the limit's own size
+			c.Slack = c.Value - c.Limit
+			if c.Unit == "-" {
+				c.Slack = -c.Slack // a most, not a least
+			}
+			// active: within 2% of the limit's own size (the check's slack)
 			scale := map[string]float64{"minimum thickness": p.MinThickness, "height to gap": p.MaxAspect, "draft": math.Tan(p.MinDraft)}[v.Constraint]
-			active := "no"
-			if v.Slack <= 0.02*scale+1e-9 {
-				active = "yes"
-			}
-			c.Rows = append(c.Rows, []string{label(k, v.Constraint), lim, val, slack, active})
+			c.Active = v.Slack <= 0.02*scale+1e-9
+			out = append(out, c)
 		}
 		for i, v := range vs {
 			xi := opt.X[5*k+i]
 			span := v.Hi - v.Lo
 			if span > 0 && (xi-v.Lo <= 1e-3*span || v.Hi-xi <= 1e-3*span) {
-				row := []string{label(k, v.Name+" bound"), L(v.Lo) + " to " + L(v.Hi), L(xi), "0", "yes"}
-				if v.Integer {
-					row = []string{label(k, v.Name+" bound"), fmt.Sprintf("%d to %d", int(v.Lo), int(v.Hi)), fmt.Sprint(int(xi)), "0", "yes"}
+				c := constraint{Name: label(k, v.Name+" bound"), Kind: "bound", Unit: "m", Limit: v.Lo, Value: xi, Active: true, Range: &[2]float64{v.Lo, v.Hi}}
+				if v.Hi-xi < xi-v.Lo {
+					c.Limit = v.Hi
 				}
-				c.Rows = append(c.Rows, row)
+				if v.Integer {
+					c.Unit = "count"
+				}
+				out = append(out, c)
 			}
 		}
 	}
-	yes := map[bool]string{true: "yes", false: "no"}
 	primary, other := optimise.SetNames[pr.Primary()], optimise.SetNames[pr.Other()]
 	if pr.Goal == optimise.GoalLight {
-		c.Rows = append(c.Rows, []string{primary + " temperature limit", fmtT(u, pr.Limit) + " " + u.Name(output.Temp), fmtT(u, opt.Wall) + " " + u.Name(output.Temp), fmtDT(u, pr.Limit-opt.Wall), yes[pr.Limit-opt.Wall < 1]})
+		out = append(out, constraint{Name: primary + " temperature limit", Kind: "temperature", Unit: "K", Limit: pr.Limit, Value: opt.Wall, Slack: pr.Limit - opt.Wall, Active: pr.Limit-opt.Wall < 1})
 	}
 	if sol.GuardOther {
 		name := other + " temperature limit"
 		if !pr.Both() {
 			name += " (series air)"
 		}
-		c.Rows = append(c.Rows, []string{name, fmtT(u, sol.OtherLimit) + " " + u.Name(output.Temp), fmtT(u, opt.Other) + " " + u.Name(output.Temp), fmtDT(u, sol.OtherLimit-opt.Other), yes[sol.OtherLimit-opt.Other < 1]})
+		out = append(out, constraint{Name: name, Kind: "temperature", Unit: "K", Limit: sol.OtherLimit, Value: opt.Other, Slack: sol.OtherLimit - opt.Other, Active: sol.OtherLimit-opt.Other < 1})
 	}
-	return c, checks
+	return out
+}
+
+// constraintGrid shows the constraints in the display units.
+func constraintGrid(cs []constraint, u output.Units) output.Grid {
+	L := func(v float64) string {
+		return output.Num(u.Of(output.Len, v), u.Dec(output.Len)+1) + " " + u.Name(output.Len)
+	}
+	deg := func(v float64) string { return output.Num(v*180/math.Pi, 2) + " deg" }
+	yes := map[bool]string{true: "yes", false: "no"}
+	g := output.Grid{Title: "Constraints at the optimum (slack 0 = active)", Header: []string{"constraint", "limit", "value", "slack", "active"}, Left: 1}
+	for _, c := range cs {
+		var lim, val, slack string
+		switch c.Unit {
+		case "m":
+			lim, val, slack = L(c.Limit), L(c.Value), L(c.Slack)
+			if c.Range != nil {
+				lim = strings.TrimSuffix(L(c.Range[0]), " "+u.Name(output.Len)) + " to " + L(c.Range[1])
+			}
+		case "count":
+			lim, val, slack = fmt.Sprintf("%d to %d", int(c.Range[0]), int(c.Range[1])), fmt.Sprint(int(c.Value)), "0"
+		case "rad":
+			lim, val, slack = deg(c.Limit), deg(c.Value), deg(c.Slack)
+		case "K":
+			lim, val, slack = fmtT(u, c.Limit)+" "+u.Name(output.Temp), fmtT(u, c.Value)+" "+u.Name(output.Temp), fmtDT(u, c.Slack)
+		default:
+			lim, val, slack = output.Num(c.Limit, 2), output.Num(c.Value, 2), output.Num(c.Slack, 2)
+		}
+		if c.Kind == "bound" {
+			slack = "0"
+		}
+		g.Rows = append(g.Rows, []string{c.Name, lim, val, slack, yes[c.Active]})
+	}
+	return g
 }
 
 // frontGrid is the trade-off front, the optimum marked.
@@ -431,7 +472,7 @@ func processSource(p fins.Process) string {
 func frontJSON(f []optimise.Point, pr optimise.Problem) []map[string]float64 {
 	var out []map[string]float64
 	for _, p := range f {
-		m := map[string]float64{"fin_mass_kg": p.Mass, "wall_K": p.Wall}
+		m := map[string]float64{"fin_mass_kg": p.Mass, "wall_temperature_K": p.Wall}
 		for k, i := range pr.Sets {
 			pre := ""
 			if pr.Both() {

@@ -35,7 +35,7 @@ func TestOptimiserAgainstFineGrid(t *testing.T) {
 				Root   float64 `json:"root_thickness_m"`
 				Tip    float64 `json:"tip_thickness_m"`
 				Count  int     `json:"count"`
-				Wall   float64 `json:"wall_K"`
+				Wall   float64 `json:"wall_temperature_K"`
 				Mass   float64 `json:"fin_mass_kg"`
 			} `json:"optimum"`
 		}
@@ -113,7 +113,7 @@ func TestOptimiseOperatingPoint(t *testing.T) {
 		Speed      float64 `json:"speed_m_s"`
 		Ambient    float64 `json:"ambient_K"`
 		AsDesigned struct {
-			Wall float64 `json:"wall_K"`
+			Wall float64 `json:"wall_temperature_K"`
 		} `json:"as_designed"`
 	}
 	if err := json.Unmarshal([]byte(js), &o); err != nil {
@@ -127,7 +127,7 @@ func TestOptimiseOperatingPoint(t *testing.T) {
 		t.Fatalf("sweep exit %d: %s", code, errs)
 	}
 	var row struct {
-		Head float64 `json:"head_K"`
+		Head float64 `json:"head_wall_temperature_K"`
 	}
 	if err := json.Unmarshal([]byte(strings.SplitN(sw, "\n", 2)[0]), &row); err != nil {
 		t.Fatal(err)
@@ -166,7 +166,7 @@ func TestOptimiseSeriesKeepsOtherLimit(t *testing.T) {
 	}
 	var o struct {
 		Optimum struct {
-			Wall  float64 `json:"wall_K"`
+			Wall  float64 `json:"wall_temperature_K"`
 			Other float64 `json:"other_set_wall_K"`
 		} `json:"optimum"`
 	}

@@ -77,9 +77,8 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 			row = append(row, bandText(u, band.Head), output.Num(100*band.HeadOver, 0))
 		}
 		g.Rows = append(g.Rows, row)
-		rows = append(rows, map[string]any{"speed_m_s": v, "load": o.Load, "head": summary(o.Result.Head), "barrel": summary(o.Result.Barrel),
-			"head_margin_K": marginJSON(o.Result.Head, o.HeadMargin()), "status": o.Status(), "equilibrium": o.NoEquilibrium == nil,
-			"band": bandJSON(band)})
+		rows = append(rows, putBand(map[string]any{"speed_m_s": v, "load": o.Load, "head": summary(o.Result.Head), "barrel": summary(o.Result.Barrel),
+			"head_margin_K": marginJSON(o.Result.Head, o.HeadMargin()), "status": o.Status(), "equilibrium": o.NoEquilibrium == nil}, "band", band))
 	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: road-speed sweep, ambient %s %s, tilt %.0f deg", d.Name, fmtT(u, d.Case.Ambient), T, d.Case.Tilt*180/math.Pi),
 		Grids: []output.Grid{g}, Caution: true}
@@ -99,7 +98,7 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 	}
 	doc.Notes = append(doc.Notes, noteWall)
 	doc.Warnings = warningsOf(warns...)
-	doc.JSON = map[string]any{"design": d.Name, "rows": rows, "warnings": doc.Warnings, "caution": output.Caution}
+	doc.JSON = map[string]any{"design": d.Name, "inputs": d.Cylinder().Resolved(), "rows": rows, "warnings": doc.Warnings, "caution": output.Caution}
 	return e.emit(doc)
 }
 

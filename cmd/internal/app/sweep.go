@@ -345,31 +345,41 @@ func sweepCells(r sweep.Row, axes sweep.Grid, u output.Units) []string {
 		output.Num(u.Of(output.Mass, r.FinMass), 3), output.Num(u.Of(output.PerMass, r.HeatPerFinMass), 0), status, note)
 }
 
-// sweepJSON is a row as a JSON-lines object (SI).
+// sweepJSON is a row as a JSON-lines object (SI), stamped like every JSON
+// document (stampJSON): each line stands alone. A varied key carries its
+// SI unit as a suffix ("head.pitch_m").
 func sweepJSON(r sweep.Row, axes sweep.Grid) map[string]any {
 	m := map[string]any{"index": r.Index, "status": r.Status}
 	for k, a := range axes {
-		m[a.Key] = r.Values[k]
+		m[a.Key+unitSuffix(design.SIUnit(a.Key))] = r.Values[k]
 	}
 	if r.Evaluated {
-		m["head_K"], m["barrel_K"], m["head_margin_K"], m["barrel_margin_K"] = r.HeadWall, r.BarrelWall, r.HeadMargin, r.BarrelMargin
+		m["head_wall_temperature_K"], m["barrel_wall_temperature_K"], m["head_margin_K"], m["barrel_margin_K"] = r.HeadWall, r.BarrelWall, r.HeadMargin, r.BarrelMargin
 		// a state, not a temperature, where a set has no equilibrium
 		if !r.HeadEquilibrium {
-			m["head_K"], m["head_margin_K"] = nil, nil
+			m["head_wall_temperature_K"], m["head_margin_K"] = nil, nil
 		}
 		if !r.BarrelEquilibrium {
-			m["barrel_K"], m["barrel_margin_K"] = nil, nil
+			m["barrel_wall_temperature_K"], m["barrel_margin_K"] = nil, nil
 		}
-		m["fin_mass_kg"], m["heat_per_kg_W"], m["equilibrium"] = r.FinMass, r.HeatPerFinMass, r.Equilibrium
+		m["fin_mass_kg"], m["heat_per_fin_mass_W_kg"], m["equilibrium"] = r.FinMass, r.HeatPerFinMass, r.Equilibrium
 		m["head_fins"], m["barrel_fins"] = r.HeadFins, r.BarrelFins
 	}
 	if r.Note != "" {
 		m["note"] = r.Note
 	}
-	if len(r.Uncastable) > 0 {
-		m["uncastable"] = r.Uncastable
-	}
+	m["uncastable"] = r.Uncastable
+	stampJSON(m, "sweep")
 	return m
+}
+
+// unitSuffix is the JSON key suffix of an SI unit: "_m" for m, "_W_m2K" for
+// W/(m2 K), "" for none.
+func unitSuffix(unit string) string {
+	if unit == "" {
+		return ""
+	}
+	return "_" + strings.NewReplacer("/(", "_", "/", "_", "(", "", ")", "", " ", "").Replace(unit)
 }
 
 // sweepSummary is the document of the best rows.

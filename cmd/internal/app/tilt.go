@@ -142,9 +142,11 @@ func (e *env) tilt(d *design.Design, step float64) error {
 			row = []string{row[0], row[1], bandText(u, bands[0].Head), row[2], row[3], bandText(u, bands[1].Head), row[4], row[5]}
 		}
 		g.Rows = append(g.Rows, row)
-		rows = append(rows, map[string]any{"tilt_deg": t, "annular": a.Result, "longitudinal": l.Result,
+		js := map[string]any{"tilt_deg": t, "annular": a.Result, "longitudinal": l.Result,
 			"annular_equilibrium": a.NoEquilibrium == nil, "longitudinal_equilibrium": l.NoEquilibrium == nil,
-			"annular_band": bandJSON(bands[0]), "longitudinal_band": bandJSON(bands[1])})
+		}
+		putBand(js, "annular_band", bands[0])
+		rows = append(rows, putBand(js, "longitudinal_band", bands[1]))
 	}
 	hs, bs := an.Case.Head.Set, an.Case.Barrel.Set
 	hl, bl := lo.Case.Head.Set, lo.Case.Barrel.Set
@@ -161,6 +163,6 @@ func (e *env) tilt(d *design.Design, step float64) error {
 			"The rest of the road air is credited over the fin envelope only (a lower bound), so at its unfavourable extreme each style is cooled little more than in still air.",
 		noteWall)
 	doc.Warnings = warningsOf(warns...)
-	doc.JSON = map[string]any{"design": d.Name, "rows": rows, "warnings": doc.Warnings, "caution": output.Caution}
+	doc.JSON = map[string]any{"design": d.Name, "inputs": d.Cylinder().Resolved(), "rows": rows, "warnings": doc.Warnings, "caution": output.Caution}
 	return e.emit(doc)
 }

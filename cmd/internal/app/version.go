@@ -2,8 +2,10 @@ package app
 
 import (
 	"fmt"
+	"reflect"
 	"runtime"
 	"runtime/debug"
+	"sync"
 
 	"github.com/spf13/cobra"
 
@@ -77,14 +79,39 @@ func (e *env) versionCmd() *cobra.Command {
 
 // SchemaVersion is the version of the JSON documents' layout: raised when a
 // key is renamed or removed or changes its meaning or unit (adding a key
-// leaves it).
-const SchemaVersion = 1
+// leaves it). 2: every key snake_case with its SI unit, lists never null,
+// the design echoed under "inputs", each document naming its command.
+const SchemaVersion = 2
 
-// stampJSON adds the schema version and the tool's version to a JSON
-// document that is an object.
-func stampJSON(doc any) {
+// versionString is buildInfo's line, read once (a sweep stamps every row).
+var versionString = sync.OnceValue(func() string { return buildInfo().String() })
+
+// stampJSON adds the command, the schema version and the tool's version to
+// a JSON document that is an object, and writes every nil list in it as an
+// empty one ([] rather than null: a script can always iterate a list).
+func stampJSON(doc any, command string) {
 	if m, ok := doc.(map[string]any); ok {
+		emptyLists(m)
+		m["command"] = command
 		m["schema_version"] = SchemaVersion
-		m["finmarch_version"] = buildInfo().String()
+		m["finmarch_version"] = versionString()
+	}
+}
+
+// emptyLists replaces each nil slice among the values of m, and of the
+// maps and slices of maps below it, by an empty slice of its type.
+func emptyLists(m map[string]any) {
+	for k, v := range m {
+		switch x := v.(type) {
+		case map[string]any:
+			emptyLists(x)
+		case []map[string]any:
+			for _, y := range x {
+				emptyLists(y)
+			}
+		}
+		if r := reflect.ValueOf(v); r.Kind() == reflect.Slice && r.IsNil() {
+			m[k] = reflect.MakeSlice(r.Type(), 0, 0).Interface()
+		}
 	}
 }
