@@ -49,10 +49,11 @@ const DefaultSigma = 5.0
 
 // Param is one fitted parameter.
 type Param struct {
-	Name     string
-	Value    float64
-	StdError float64
-	Lo, Hi   float64
+	Name     string  `json:"name"`
+	Value    float64 `json:"value"`
+	StdError float64 `json:"standard_error"`
+	Lo       float64 `json:"plausible_low"`
+	Hi       float64 `json:"plausible_high"`
 }
 
 // Fit is the result.

@@ -371,7 +371,10 @@ func TestReadmeCalibrationFigures(t *testing.T) {
 		t.Fatalf("exit %d %s", code, errs)
 	}
 	var fit struct {
-		Parameters []struct{ Value, StdError float64 }
+		Parameters []struct {
+			Value    float64 `json:"value"`
+			StdError float64 `json:"standard_error"`
+		}
 	}
 	if err := json.Unmarshal([]byte(js), &fit); err != nil || len(fit.Parameters) != 1 {
 		t.Fatalf("%v %s", err, js)
