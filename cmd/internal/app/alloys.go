@@ -22,8 +22,8 @@ func (e *env) alloysCmd() *cobra.Command {
 			g := output.Grid{Header: []string{"name", "kind", "k at 300 K (W/mK)", "density (kg/m3)", "cp (J/kgK)", "emissivity bare / painted", "max service (" + u.Name(output.Temp) + ")"}, Left: 2}
 			var notes []string
 			for _, a := range materials.All() {
-				g.Rows = append(g.Rows, []string{a.Name, a.Kind, output.Num(a.K300, 1), output.Num(a.Density, 0), output.Num(a.Cp, 0),
-					output.Num(a.EmissBare, 2) + " / " + output.Num(a.EmissPaint, 2), fmtT(u, a.MaxService)})
+				g.Rows = append(g.Rows, []string{a.Name, a.Kind, u.N(a.K300, 1), u.N(a.Density, 0), u.N(a.Cp, 0),
+					u.N(a.EmissBare, 2) + " / " + u.N(a.EmissPaint, 2), fmtT(u, a.MaxService)})
 				notes = append(notes, fmt.Sprintf("%s: %s. Emissivity: %s. Limit: %s.", a.Name, a.Source, a.EmissSource, a.LimitSource))
 			}
 			return e.emit(output.Doc{Title: "Alloy catalogue", Grids: []output.Grid{g}, Notes: notes, JSON: map[string]any{"alloys": materials.All()}})

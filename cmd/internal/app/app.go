@@ -255,6 +255,7 @@ func (e *env) settings() (output.Format, output.Units, error) {
 	if err != nil {
 		return "", output.Units{}, fail(ExitUsage, err)
 	}
+	u.Full = f == output.CSV
 	return f, u, nil
 }
 

@@ -40,7 +40,7 @@ func (e *env) band(d *design.Design, v float64) (*uncertainty.Band, error) {
 // bandText is a 5th-95th percentile range in display units.
 func bandText(u output.Units, p uncertainty.Percentiles) string {
 	if p.P5 > cylinder.SaneWallLimit {
-		return noEquilibrium
+		return noValue(u, noEquilibrium)
 	}
 	return percentileText(u, p.P5) + " to " + percentileText(u, p.P95)
 }
@@ -49,7 +49,7 @@ func bandText(u output.Units, p uncertainty.Percentiles) string {
 // state where its samples found no equilibrium.
 func percentileText(u output.Units, k float64) string {
 	if k > cylinder.SaneWallLimit {
-		return noEquilibrium
+		return noValue(u, noEquilibrium)
 	}
 	return fmtT(u, k)
 }
@@ -67,7 +67,7 @@ func bandGrid(u output.Units, d *design.Design, b *uncertainty.Band) output.Grid
 		limit float64
 		over  float64
 	}{{"head", b.Head, d.HeadLimit, b.HeadOver}, {"barrel", b.Barrel, d.BarrelLimit, b.BarrelOver}} {
-		g.Rows = append(g.Rows, []string{r.name, t(r.p.P5), t(r.p.P50), t(r.p.P95), fmtT(u, r.limit), output.Num(100*r.over, 0) + " %"})
+		g.Rows = append(g.Rows, []string{r.name, t(r.p.P5), t(r.p.P50), t(r.p.P95), fmtT(u, r.limit), u.N(100*r.over, 0) + " %"})
 	}
 	return g
 }

@@ -90,7 +90,7 @@ func (e *env) calibrate(d *design.Design, path string, names []string, write str
 	T := u.Name(output.Temp)
 	pg := output.Grid{Title: "Fitted parameters", Header: []string{"parameter", "value", "standard error", "plausible range"}, Left: 1}
 	for _, p := range f.Params {
-		pg.Rows = append(pg.Rows, []string{p.Name, output.Num(p.Value, 4), output.Num(p.StdError, 4), output.Num(p.Lo, 2) + " to " + output.Num(p.Hi, 2)})
+		pg.Rows = append(pg.Rows, []string{p.Name, u.N(p.Value, 4), u.N(p.StdError, 4), u.N(p.Lo, 2) + " to " + u.N(p.Hi, 2)})
 	}
 	rg := output.Grid{Title: "Measured points", Header: []string{"point", "speed (" + u.Name(output.Road) + ")", "ambient (" + T + ")", "set", "measured (" + T + ")", "offset (" + u.Name(output.TempDiff) + ")", "residual (" + u.Name(output.TempDiff) + ")"}, Left: 1}
 	for i, p := range d.Points {
@@ -98,7 +98,7 @@ func (e *env) calibrate(d *design.Design, path string, names []string, write str
 		if p.Barrel {
 			set = "barrel"
 		}
-		rg.Rows = append(rg.Rows, []string{fmt.Sprint(i + 1), output.Num(u.Of(output.Road, p.Speed), 0), fmtT(u, p.Ambient), set,
+		rg.Rows = append(rg.Rows, []string{fmt.Sprint(i + 1), u.N(u.Of(output.Road, p.Speed), 0), fmtT(u, p.Ambient), set,
 			fmtT(u, p.Temp), fmtDT(u, p.Offset), fmtDT(u, f.Residuals[i])})
 	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: calibration against %s", d.Name, count(len(d.Points), "measured point")), Grids: []output.Grid{pg, rg}, Caution: true,

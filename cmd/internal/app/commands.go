@@ -20,17 +20,27 @@ const (
 		"spark-plug seat run hotter."
 )
 
-func fmtT(u output.Units, k float64) string  { return output.Num(u.Of(output.Temp, k), 1) }
-func fmtDT(u output.Units, k float64) string { return output.Num(u.Of(output.TempDiff, k), 1) }
+func fmtT(u output.Units, k float64) string  { return u.N(u.Of(output.Temp, k), 1) }
+func fmtDT(u output.Units, k float64) string { return u.N(u.Of(output.TempDiff, k), 1) }
 
 // noEquilibrium is what the tables show for a set's wall temperature when
 // it has none below the search's cap: a state, never a temperature.
 const noEquilibrium = "no equilibrium"
 
+// noValue is the cell of a number that has no value: noEquilibrium (or
+// "-" for what follows from it) for a reader, an empty cell in CSV, where a
+// numeric column holds numbers only and the state is in a status column.
+func noValue(u output.Units, text string) string {
+	if u.Full {
+		return ""
+	}
+	return text
+}
+
 // wallText is a set's wall temperature, or noEquilibrium.
 func wallText(u output.Units, r cylinder.SetResult) string {
 	if !r.Equilibrium {
-		return noEquilibrium
+		return noValue(u, noEquilibrium)
 	}
 	return fmtT(u, r.WallTemp)
 }
@@ -38,7 +48,7 @@ func wallText(u output.Units, r cylinder.SetResult) string {
 // marginText is a set's margin to its limit, or "-" without an equilibrium.
 func marginText(u output.Units, r cylinder.SetResult, margin float64) string {
 	if !r.Equilibrium {
-		return "-"
+		return noValue(u, "-")
 	}
 	return fmtDT(u, margin)
 }

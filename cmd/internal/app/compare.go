@@ -63,12 +63,12 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 		}
 		g.Rows = append(g.Rows, r)
 	}
-	add("tilt from vertical", "deg", func(o outcome) string { return output.Num(o.d.Case.Tilt*180/math.Pi, 0) })
+	add("tilt from vertical", "deg", func(o outcome) string { return u.N(o.d.Case.Tilt*180/math.Pi, 0) })
 	add("fin style head / barrel", "", func(o outcome) string { return o.Result.Head.Style + " / " + o.Result.Barrel.Style })
-	add("road speed", u.Name(output.Road), func(o outcome) string { return output.Num(u.Of(output.Road, o.speed), 0) })
+	add("road speed", u.Name(output.Road), func(o outcome) string { return u.N(u.Of(output.Road, o.speed), 0) })
 	add("ambient", u.Name(output.Temp), func(o outcome) string { return fmtT(u, o.d.Case.Ambient) })
 	add("heat load head / barrel", "W", func(o outcome) string {
-		return output.Num(o.Result.Head.HeatLoad, 0) + " / " + output.Num(o.Result.Barrel.HeatLoad, 0)
+		return u.N(o.Result.Head.HeatLoad, 0) + " / " + u.N(o.Result.Barrel.HeatLoad, 0)
 	})
 	add("head temperature", u.Name(output.Temp), func(o outcome) string { return wallText(u, o.Result.Head) })
 	add("barrel temperature", u.Name(output.Temp), func(o outcome) string { return wallText(u, o.Result.Barrel) })
@@ -80,31 +80,31 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 			if b := bands[o.d]; b != nil {
 				return f(b)
 			}
-			return "-"
+			return noValue(u, "-")
 		}
 	}
 	if bands[ds[0]] != nil {
 		add("head, 5 % to 95 %", u.Name(output.Temp), withBand(func(b *uncertainty.Band) string { return bandText(u, b.Head) }))
-		add("chance the head passes its limit", "%", withBand(func(b *uncertainty.Band) string { return output.Num(100*b.HeadOver, 0) }))
+		add("chance the head passes its limit", "%", withBand(func(b *uncertainty.Band) string { return u.N(100*b.HeadOver, 0) }))
 	}
 	add("passage velocity head / barrel", u.Name(output.Vel), func(o outcome) string {
-		return output.Num(u.Of(output.Vel, o.Result.Head.PassageVelocity), 1) + " / " + output.Num(u.Of(output.Vel, o.Result.Barrel.PassageVelocity), 1)
+		return u.N(u.Of(output.Vel, o.Result.Head.PassageVelocity), 1) + " / " + u.N(u.Of(output.Vel, o.Result.Barrel.PassageVelocity), 1)
 	})
 	add("air rise head / barrel", u.Name(output.TempDiff), func(o outcome) string {
 		return fmtDT(u, o.Result.Head.AirOut-o.Result.Head.AirIn) + " / " + fmtDT(u, o.Result.Barrel.AirOut-o.Result.Barrel.AirIn)
 	})
 	add("air reaching barrel fins", u.Name(output.Temp), func(o outcome) string { return fmtT(u, o.Result.Barrel.AirIn) })
 	add("mean h head / barrel", u.Name(output.H), func(o outcome) string {
-		return output.Num(u.Of(output.H, o.Result.Head.MeanH), 1) + " / " + output.Num(u.Of(output.H, o.Result.Barrel.MeanH), 1)
+		return u.N(u.Of(output.H, o.Result.Head.MeanH), 1) + " / " + u.N(u.Of(output.H, o.Result.Barrel.MeanH), 1)
 	})
 	add("finned surface", u.Name(output.Area), func(o outcome) string {
-		return output.Num(u.Of(output.Area, o.Result.Head.TotalArea+o.Result.Barrel.TotalArea), 3)
+		return u.N(u.Of(output.Area, o.Result.Head.TotalArea+o.Result.Barrel.TotalArea), 3)
 	})
 	add("fin mass", u.Name(output.Mass), func(o outcome) string {
-		return output.Num(u.Of(output.Mass, o.Result.FinMass()), 2)
+		return u.N(u.Of(output.Mass, o.Result.FinMass()), 2)
 	})
 	add("heat rejected per mass of fin", u.Name(output.PerMass), func(o outcome) string {
-		return output.Num(u.Of(output.PerMass, o.Result.HeatPerFinMass()), 0)
+		return u.N(u.Of(output.PerMass, o.Result.HeatPerFinMass()), 0)
 	})
 	doc := output.Doc{Title: heading, Grids: []output.Grid{g}, Caution: true}
 	for i := 1; i < len(os); i++ {
@@ -143,9 +143,9 @@ func explain(u output.Units, a, b outcome, la, lb rune) string {
 			// no difference of temperatures where one is the search's cap
 			return "with no equilibrium on one side, no difference to give"
 		case d >= 0:
-			return fmt.Sprintf("%s %s hotter", output.Num(u.Of(output.TempDiff, d), 0), u.Name(output.TempDiff))
+			return fmt.Sprintf("%s %s hotter", u.N(u.Of(output.TempDiff, d), 0), u.Name(output.TempDiff))
 		}
-		return fmt.Sprintf("%s %s cooler", output.Num(u.Of(output.TempDiff, -d), 0), u.Name(output.TempDiff))
+		return fmt.Sprintf("%s %s cooler", u.N(u.Of(output.TempDiff, -d), 0), u.Name(output.TempDiff))
 	}
 	s := fmt.Sprintf("%c against %c: the head runs %s and the barrel %s.", lb, la, word(dh), word(db))
 	var worse, better []string // what makes b hotter, what makes it cooler
@@ -158,7 +158,7 @@ func explain(u output.Units, a, b outcome, la, lb rune) string {
 	}
 	for _, df := range cylinder.Differences(a.Result, b.Result) {
 		pair := func(q output.Quantity, dec int) string {
-			return output.Num(u.Of(q, df.B), dec) + " against " + output.Num(u.Of(q, df.A), dec) + " " + u.Name(q)
+			return u.N(u.Of(q, df.B), dec) + " against " + u.N(u.Of(q, df.A), dec) + " " + u.Name(q)
 		}
 		var w string
 		switch df.Kind {
@@ -170,13 +170,13 @@ func explain(u output.Units, a, b outcome, la, lb rune) string {
 		case cylinder.DiffMeanH:
 			w = "mean h on the head " + pair(output.H, 0)
 		case cylinder.DiffAirRise:
-			w = fmt.Sprintf("air warming %s %s along the head fins against %s", output.Num(u.Of(output.TempDiff, df.B), 0), u.Name(output.TempDiff), output.Num(u.Of(output.TempDiff, df.A), 0))
+			w = fmt.Sprintf("air warming %s %s along the head fins against %s", u.N(u.Of(output.TempDiff, df.B), 0), u.Name(output.TempDiff), u.N(u.Of(output.TempDiff, df.A), 0))
 		case cylinder.DiffBarrelInlet:
 			w = fmt.Sprintf("air reaching the barrel fins at %s %s against %s (on a series path the head has warmed it)", fmtT(u, df.B), u.Name(output.Temp), fmtT(u, df.A))
 		case cylinder.DiffArea:
 			w = "finned surface " + pair(output.Area, 3)
 		case cylinder.DiffLoad:
-			w = fmt.Sprintf("heat load %s against %s W", output.Num(df.B, 0), output.Num(df.A, 0))
+			w = fmt.Sprintf("heat load %s against %s W", u.N(df.B, 0), u.N(df.A, 0))
 		}
 		side(df.Warmer, w)
 	}

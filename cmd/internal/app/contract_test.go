@@ -8,6 +8,7 @@ import (
 	"path/filepath"
 	"regexp"
 	"runtime"
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -131,16 +132,21 @@ func TestEstimateManyDesigns(t *testing.T) {
 	}
 }
 
-// The CSV of estimate, compare, speeds, tilt and sweep holds one value per
-// cell: no pair "a / b", no range "a to b", no padded label.
+// The CSV of estimate, compare, speeds, tilt, march and sweep holds one
+// value per cell: no pair "a / b", no range "a to b", no padded label; a
+// column whose header names a unit holds numbers or nothing (a state such
+// as "no equilibrium" goes to a status column); and the numbers are at full
+// precision: the head's wall temperature reads back to the JSON's value.
 func TestCSVOneValuePerCell(t *testing.T) {
 	up, lo := designs(t)
-	two := regexp.MustCompile(`^-?[0-9.]+ *(/|to) *-?[0-9.]+$`)
+	two := regexp.MustCompile(`^-?[0-9.]+ *(/|to|x) *-?[0-9.]+$`)
+	unitCol := regexp.MustCompile(`\((C|K|W|km/h|mm|kg|W/kg|W/m2|W/m2K|m/s|deg)\)$`)
 	for _, args := range [][]string{
 		{"estimate", up}, {"estimate", up, lo}, {"compare", up, lo},
 		{"speeds", up, "--from", "60 km/h", "--to", "100 km/h", "--step", "20 km/h"},
 		{"tilt", up, "--step", "45 deg", "--samples", "100"},
-		{"sweep", up, "--vary", "head.pitch=8mm:10mm:2mm"},
+		{"march", lo},
+		{"sweep", up, "--vary", "head.pitch=4mm:10mm:2mm", "--vary", "air.speed=30km/h,150km/h"},
 	} {
 		out, errs, code := run(t, append(args, "-f", "csv", "-q")...)
 		if code != 0 && code != ExitModel {
@@ -150,13 +156,35 @@ func TestCSVOneValuePerCell(t *testing.T) {
 		if err != nil || len(rows) < 2 {
 			t.Fatalf("%v: %v, %d rows", args, err, len(rows))
 		}
-		for _, r := range rows {
-			for _, c := range r {
-				if two.MatchString(c) || c != strings.TrimSpace(c) {
+		for i, r := range rows {
+			for j, c := range r {
+				if two.MatchString(c) || c != strings.TrimSpace(c) || c == noEquilibrium || c == "-" && rows[0][j] != "unit" {
 					t.Errorf("%v: cell %q", args[0], c)
+				}
+				if _, err := strconv.ParseFloat(c, 64); i > 0 && unitCol.MatchString(rows[0][j]) && c != "" && err != nil {
+					t.Errorf("%v: %q in the numeric column %q", args[0], c, rows[0][j])
 				}
 			}
 		}
+		if args[0] == "tilt" && !strings.Contains(out, "NO EQUILIBRIUM") {
+			t.Errorf("tilt CSV without its status columns:\n%s", out)
+		}
+	}
+	out, _, _ := run(t, "estimate", up, "-f", "csv", "-q", "--samples", "0")
+	js, _, _ := run(t, "estimate", up, "-f", "json", "-q", "--samples", "0")
+	var v struct {
+		Result struct {
+			Head struct {
+				Wall float64 `json:"wall_temperature_K"`
+			} `json:"head"`
+		} `json:"result"`
+	}
+	if err := json.Unmarshal([]byte(js), &v); err != nil {
+		t.Fatal(err)
+	}
+	want := strconv.FormatFloat(v.Result.Head.Wall-273.15, 'g', -1, 64)
+	if !strings.Contains(out, "wall temperature at fin roots,C,"+want+",") {
+		t.Errorf("CSV head wall is not %s C at full precision:\n%s", want, out)
 	}
 }
 

@@ -3,6 +3,7 @@ package app
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -68,8 +69,8 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 	c := d.Case
 	doc := output.Doc{
 		Title: fmt.Sprintf("%s: %s %s, ambient %s %s, altitude %s %s (%s %s), tilt %.0f deg", d.Name,
-			output.Num(u.Of(output.Road, c.Speed), 0), u.Name(output.Road), fmtT(u, c.Ambient), u.Name(output.Temp),
-			output.Num(u.Of(output.Alt, d.Altitude), 0), u.Name(output.Alt), output.Num(u.Of(output.Press, c.Pressure), 1), u.Name(output.Press), c.Tilt*180/math.Pi),
+			u.N(u.Of(output.Road, c.Speed), 0), u.Name(output.Road), fmtT(u, c.Ambient), u.Name(output.Temp),
+			u.N(u.Of(output.Alt, d.Altitude), 0), u.Name(output.Alt), u.N(u.Of(output.Press, c.Pressure), 1), u.Name(output.Press), c.Tilt*180/math.Pi),
 		Caution: true,
 	}
 	pair := func(f func(r cylinder.SetResult) string) []string { return []string{f(h), f(b)} }
@@ -79,16 +80,16 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		g.Rows = append(g.Rows, row("wall temperature (given)", u.Name(output.Temp), pair(func(r cylinder.SetResult) string { return fmtT(u, r.WallTemp) })))
 	} else {
 		g.Rows = append(g.Rows,
-			row("heat load", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.HeatLoad, 0) })))
+			row("heat load", "W", pair(func(r cylinder.SetResult) string { return u.N(r.HeatLoad, 0) })))
 	}
 	g.Rows = append(g.Rows,
-		row("heat rejected", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.HeatRejected, 0) })),
-		row("  by convection", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.ConvectionHeat, 0) })),
-		row("    forced alone", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.ForcedHeat, 0) })),
-		row("      through the passages", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.PassageHeat, 0) })),
-		row("      over the fin envelope", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.EnvelopeHeat, 0) })),
-		row("    natural alone", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.NaturalHeat, 0) })),
-		row("  by radiation", "W", pair(func(r cylinder.SetResult) string { return output.Num(r.RadiationHeat, 0) })),
+		row("heat rejected", "W", pair(func(r cylinder.SetResult) string { return u.N(r.HeatRejected, 0) })),
+		row("  by convection", "W", pair(func(r cylinder.SetResult) string { return u.N(r.ConvectionHeat, 0) })),
+		row("    forced alone", "W", pair(func(r cylinder.SetResult) string { return u.N(r.ForcedHeat, 0) })),
+		row("      through the passages", "W", pair(func(r cylinder.SetResult) string { return u.N(r.PassageHeat, 0) })),
+		row("      over the fin envelope", "W", pair(func(r cylinder.SetResult) string { return u.N(r.EnvelopeHeat, 0) })),
+		row("    natural alone", "W", pair(func(r cylinder.SetResult) string { return u.N(r.NaturalHeat, 0) })),
+		row("  by radiation", "W", pair(func(r cylinder.SetResult) string { return u.N(r.RadiationHeat, 0) })),
 	)
 	if !o.Fixed {
 		g.Rows = append(g.Rows,
@@ -102,24 +103,19 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		row("air at inlet", u.Name(output.Temp), pair(func(r cylinder.SetResult) string { return fmtT(u, r.AirIn) })),
 		row("air at outlet", u.Name(output.Temp), pair(func(r cylinder.SetResult) string { return fmtT(u, r.AirOut) })),
 		row("air rise along the path", u.Name(output.TempDiff), pair(func(r cylinder.SetResult) string { return fmtDT(u, r.AirOut-r.AirIn) })),
-		row("road speed along the fins", u.Name(output.Road), pair(func(r cylinder.SetResult) string { return output.Num(u.Of(output.Road, r.ApproachComponent), 0) })),
-		row("passage velocity", u.Name(output.Vel), pair(func(r cylinder.SetResult) string { return output.Num(u.Of(output.Vel, r.PassageVelocity), 2) })),
-		row("Reynolds number (2 x gap)", "-", pair(func(r cylinder.SetResult) string { return output.Num(r.Reynolds, 0) })),
+		row("road speed along the fins", u.Name(output.Road), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Road, r.ApproachComponent), 0) })),
+		row("passage velocity", u.Name(output.Vel), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Vel, r.PassageVelocity), 2) })),
+		row("Reynolds number (2 x gap)", "-", pair(func(r cylinder.SetResult) string { return u.N(r.Reynolds, 0) })),
 		row("flow regime", "", pair(func(r cylinder.SetResult) string { return r.Regime })),
-		row("air paths x path length", u.Name(output.Len), pair(func(r cylinder.SetResult) string {
-			dec := 0
-			if u.US {
-				dec = 1
-			}
-			return fmt.Sprintf("%d x %s", r.Paths, output.Num(u.Of(output.Len, r.PathLength), dec))
-		})),
-		row("mean h (forced)", u.Name(output.H), pair(func(r cylinder.SetResult) string { return output.Num(u.Of(output.H, r.MeanH), 1) })),
-		row("fin efficiency", "-", pair(func(r cylinder.SetResult) string { return output.Num(r.FinEfficiency, 3) })),
-		row("surface efficiency", "-", pair(func(r cylinder.SetResult) string { return output.Num(r.SurfaceEfficiency, 3) })),
-		row("finned surface (fins + base)", u.Name(output.Area), pair(func(r cylinder.SetResult) string { return output.Num(u.Of(output.Area, r.TotalArea), 3) })),
-		row("fin mass", u.Name(output.Mass), pair(func(r cylinder.SetResult) string { return output.Num(u.Of(output.Mass, r.FinMass), 2) })),
+		row("parallel air paths", "", pair(func(r cylinder.SetResult) string { return strconv.Itoa(r.Paths) })),
+		row("path length", u.Name(output.Len), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Len, r.PathLength), u.Dec(output.Len)) })),
+		row("mean h (forced)", u.Name(output.H), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.H, r.MeanH), 1) })),
+		row("fin efficiency", "-", pair(func(r cylinder.SetResult) string { return u.N(r.FinEfficiency, 3) })),
+		row("surface efficiency", "-", pair(func(r cylinder.SetResult) string { return u.N(r.SurfaceEfficiency, 3) })),
+		row("finned surface (fins + base)", u.Name(output.Area), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Area, r.TotalArea), 3) })),
+		row("fin mass", u.Name(output.Mass), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Mass, r.FinMass), 2) })),
 		row("heat per mass of fin", u.Name(output.PerMass), pair(func(r cylinder.SetResult) string {
-			return output.Num(u.Of(output.PerMass, r.HeatRejected/r.FinMass), 0)
+			return u.N(u.Of(output.PerMass, r.HeatRejected/r.FinMass), 0)
 		})),
 	)
 	doc.Grids = append(doc.Grids, g)
@@ -133,7 +129,7 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 	}
 	if !o.Fixed && !d.Load.Direct {
 		doc.Notes = append(doc.Notes, fmt.Sprintf("Road load at %s %s: %.2f kW at the wheel, %.2f kW at the crank, %.1f kW of fuel; %.0f%% of the fuel power to the fins of %s, %.0f%% of it through the head.",
-			output.Num(u.Of(output.Road, c.Speed), 0), u.Name(output.Road), o.Load.WheelPower/1e3, o.Load.BrakePower/1e3, o.Load.FuelPower/1e3,
+			u.N(u.Of(output.Road, c.Speed), 0), u.Name(output.Road), o.Load.WheelPower/1e3, o.Load.BrakePower/1e3, o.Load.FuelPower/1e3,
 			100*d.Load.Road.CoolShare, count(d.Load.Road.Cylinders, "cylinder"), 100*d.Load.Road.HeadShare))
 	}
 	doc.Notes = append(doc.Notes, orientationNote(d, o.Result), noteWall, noteMixed,
@@ -195,17 +191,17 @@ func overRated(u output.Units, d *design.Design, o outcome) string {
 		return ""
 	}
 	r := d.Load.Road
-	at := output.Num(u.Of(output.Road, o.speed), 0) + " " + u.Name(output.Road)
+	at := u.N(u.Of(output.Road, o.speed), 0) + " " + u.Name(output.Road)
 	var s string
 	if o.Load.PastRatedSpeed {
 		s = fmt.Sprintf("%s: %s is past the road speed in top gear at the engine's rated speed, %s %s (load.top_gear_speed): the engine cannot hold this speed, and these temperatures are what it would need",
-			d.Name, at, output.Num(u.Of(output.Road, r.TopGearSpeed), 0), u.Name(output.Road))
+			d.Name, at, u.N(u.Of(output.Road, r.TopGearSpeed), 0), u.Name(output.Road))
 	} else {
 		s = fmt.Sprintf("%s: at %s the road asks %.1f kW at the crank, more than the rated %.1f kW (load.rated_power): the engine cannot hold this speed, and these temperatures are what it would need",
 			d.Name, at, o.Load.BrakePower/1e3, r.RatedPower/1e3)
 	}
 	if v, ok := r.TopSpeed(d.Case.Pressure / (airflow.RAir * d.Case.Ambient)); ok {
-		s += fmt.Sprintf("; its top speed here is %s %s", output.Num(u.Of(output.Road, v), 0), u.Name(output.Road))
+		s += fmt.Sprintf("; its top speed here is %s %s", u.N(u.Of(output.Road, v), 0), u.Name(output.Road))
 	}
 	return s
 }
@@ -218,7 +214,7 @@ func topSpeedNote(u output.Units, d *design.Design) string {
 	if r.TopSpeedByGear(rho) {
 		why = "past it the engine would turn faster than its rated speed in top gear (load.top_gear_speed)"
 	}
-	return fmt.Sprintf("The table stops at the engine's top speed, %s %s: %s.", output.Num(u.Of(output.Road, top), 0), u.Name(output.Road), why)
+	return fmt.Sprintf("The table stops at the engine's top speed, %s %s: %s.", u.N(u.Of(output.Road, top), 0), u.Name(output.Road), why)
 }
 
 // noteMixed explains why the forced and natural rows do not add up.

@@ -131,7 +131,7 @@ func (e *env) fin(in finInput) error {
 		return fail(ExitUsage, fmt.Errorf("--height and --root-thickness must be positive"))
 	}
 	if in.t1 > in.t0 {
-		return fail(ExitUsage, fmt.Errorf("--tip-thickness %s %s is thicker than the root %s %s", output.Num(u.Of(output.Len, in.t1), 2), u.Name(output.Len), output.Num(u.Of(output.Len, in.t0), 2), u.Name(output.Len)))
+		return fail(ExitUsage, fmt.Errorf("--tip-thickness %s %s is thicker than the root %s %s", u.N(u.Of(output.Len, in.t1), 2), u.Name(output.Len), u.N(u.Of(output.Len, in.t0), 2), u.Name(output.Len)))
 	}
 	prof, err := fins.ParseProfile(in.profile)
 	if err != nil {
@@ -161,18 +161,18 @@ func (e *env) fin(in finInput) error {
 	if in.kGiven {
 		kFrom = "given by --k"
 	}
-	add("conductivity ("+kFrom+")", output.Num(in.k, 1), "W/mK")
-	add("fin parameter m = sqrt(2h/(k t_root))", output.Num(m, 2), "1/m")
-	add("m x height", output.Num(m*in.L, 3), "-")
+	add("conductivity ("+kFrom+")", u.N(in.k, 1), "W/mK")
+	add("fin parameter m = sqrt(2h/(k t_root))", u.N(m, 2), "1/m")
+	add("m x height", u.N(m*in.L, 3), "-")
 	add("Biot number h t_root/(2k)", fmt.Sprintf("%.2g", in.h*in.t0/(2*in.k)), "-")
 	method := "closed form"
 	if in.profile == "annular-tapered" {
 		method = "16/32-cell solve with Richardson extrapolation"
 	}
-	add("fin efficiency ("+method+")", output.Num(eta, 4), "-")
-	add("fin efficiency (finite-volume check, 400 cells)", output.Num(sol.Efficiency, 4), "-")
-	add("heated area "+per, output.Num(u.Of(output.Area, area)*map[bool]float64{true: 1e4, false: 1}[!u.US && annular], 2), map[bool]string{true: "cm2", false: u.Name(output.Area)}[!u.US && annular])
-	add("heat rate "+per+" at "+fmtT(u, in.tw)+" wall, "+fmtT(u, in.ta)+" air ("+u.Name(output.Temp)+")", output.Num(q, 1), "W")
+	add("fin efficiency ("+method+")", u.N(eta, 4), "-")
+	add("fin efficiency (finite-volume check, 400 cells)", u.N(sol.Efficiency, 4), "-")
+	add("heated area "+per, u.N(u.Of(output.Area, area)*map[bool]float64{true: 1e4, false: 1}[!u.US && annular], 2), map[bool]string{true: "cm2", false: u.Name(output.Area)}[!u.US && annular])
+	add("heat rate "+per+" at "+fmtT(u, in.tw)+" wall, "+fmtT(u, in.ta)+" air ("+u.Name(output.Temp)+")", u.N(q, 1), "W")
 	doc := output.Doc{Title: "Single fin", Grids: []output.Grid{g}, Caution: true,
 		Notes: []string{"Efficiency is heat over the heat of the whole fin at the root temperature; sources in 'go doc finmarch/fins'."}}
 	for _, w := range log.Warnings() {

@@ -28,12 +28,12 @@ func (e *env) march(d *design.Design) error {
 		Header: []string{"set", "segment", "x (" + L + ")", "air in (" + T + ")", "air out (" + T + ")", "h (" + u.Name(output.H) + ")", "fin eff", "flux (" + u.Name(output.Flux) + ")", "heat (W)"}, Left: 1}
 	for _, s := range []cylinder.SetResult{o.Result.Head, o.Result.Barrel} {
 		for i, sg := range s.March {
-			g.Rows = append(g.Rows, []string{s.Name, fmt.Sprint(i + 1), output.Num(u.Of(output.Len, sg.X), u.Dec(output.Len)), fmtT(u, sg.AirIn), fmtT(u, sg.AirOut),
-				output.Num(u.Of(output.H, sg.H), 1), output.Num(sg.FinEff, 3), output.Num(u.Of(output.Flux, sg.Flux), 0), output.Num(sg.Heat, 1)})
+			g.Rows = append(g.Rows, []string{s.Name, fmt.Sprint(i + 1), u.N(u.Of(output.Len, sg.X), u.Dec(output.Len)), fmtT(u, sg.AirIn), fmtT(u, sg.AirOut),
+				u.N(u.Of(output.H, sg.H), 1), u.N(sg.FinEff, 3), u.N(u.Of(output.Flux, sg.Flux), 0), u.N(sg.Heat, 1)})
 		}
 	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: march at %s %s (head wall %s %s, barrel wall %s %s)", d.Name,
-		output.Num(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), fmtT(u, o.Result.Head.WallTemp), T, fmtT(u, o.Result.Barrel.WallTemp), T),
+		u.N(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), fmtT(u, o.Result.Head.WallTemp), T, fmtT(u, o.Result.Barrel.WallTemp), T),
 		Grids: []output.Grid{g}, Caution: true}
 	for _, s := range []cylinder.SetResult{o.Result.Head, o.Result.Barrel} {
 		if len(s.March) == 0 {
@@ -42,8 +42,8 @@ func (e *env) march(d *design.Design) error {
 		}
 		first, last := s.March[0], s.March[len(s.March)-1]
 		doc.Notes = append(doc.Notes, fmt.Sprintf("%s: the air warms from %s to %s %s along %s %s; the local heat flux falls from %s to %s %s (%s%% of its entry value).",
-			title(s.Name), fmtT(u, s.AirIn), fmtT(u, s.AirOut), T, output.Num(u.Of(output.Len, s.PathLength), 0), L,
-			output.Num(u.Of(output.Flux, first.Flux), 0), output.Num(u.Of(output.Flux, last.Flux), 0), u.Name(output.Flux), output.Num(100*last.Flux/first.Flux, 0)))
+			title(s.Name), fmtT(u, s.AirIn), fmtT(u, s.AirOut), T, u.N(u.Of(output.Len, s.PathLength), 0), L,
+			u.N(u.Of(output.Flux, first.Flux), 0), u.N(u.Of(output.Flux, last.Flux), 0), u.Name(output.Flux), u.N(100*last.Flux/first.Flux, 0)))
 	}
 	if o.NoEquilibrium != nil {
 		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.NoEquilibrium.Error()+"; the march is shown at the search limit.")

@@ -207,7 +207,7 @@ func (e *env) optimise(d *design.Design, names []string, goal string, p fins.Pro
 // came, and what to change.
 func (e *env) noOptimum(pr optimise.Problem, sol optimise.Solution, u output.Units) string {
 	primary, other := optimise.SetNames[pr.Primary()], optimise.SetNames[pr.Other()]
-	L := func(v float64) string { return output.Num(u.Of(output.Len, v), u.Dec(output.Len)+1) }
+	L := func(v float64) string { return u.N(u.Of(output.Len, v), u.Dec(output.Len)+1) }
 	why := "no design within the bounds and casting limits reaches an equilibrium"
 	if pr.Goal == optimise.GoalLight {
 		why = fmt.Sprintf("no design within the bounds and casting limits keeps the %s at or below %s %s", primary, fmtT(u, pr.Limit), u.Name(output.Temp))
@@ -235,7 +235,7 @@ func (e *env) noOptimum(pr optimise.Problem, sol optimise.Solution, u output.Uni
 func (e *env) optimumDoc(d *design.Design, pr optimise.Problem, sol optimise.Solution, u output.Units) output.Doc {
 	both, p, goal := pr.Both(), pr.Process, string(pr.Goal)
 	primary, other := optimise.SetNames[pr.Primary()], optimise.SetNames[pr.Other()]
-	L := func(v float64) string { return output.Num(u.Of(output.Len, v), u.Dec(output.Len)+1) }
+	L := func(v float64) string { return u.N(u.Of(output.Len, v), u.Dec(output.Len)+1) }
 	opt := sol.Optimum
 	bt, bm, bo := opt.Wall, opt.Mass, opt.Other
 	// label prefixes a row with the set's name when both sets vary
@@ -264,15 +264,15 @@ func (e *env) optimumDoc(d *design.Design, pr optimise.Problem, sol optimise.Sol
 	ad := sol.AsDesigned
 	dT, dM, dO := "n/a", "n/a", "n/a"
 	if ad.Feasible {
-		dT, dM, dO = fmtT(u, ad.Wall), output.Num(u.Of(output.Mass, ad.Mass), 3), fmtT(u, ad.Other)
+		dT, dM, dO = fmtT(u, ad.Wall), u.N(u.Of(output.Mass, ad.Mass), 3), fmtT(u, ad.Other)
 	}
 	if both {
 		g.Rows = append(g.Rows, []string{"head wall temperature", u.Name(output.Temp), dT, fmtT(u, bt), ""},
 			[]string{"barrel wall temperature", u.Name(output.Temp), dO, fmtT(u, bo), ""},
-			[]string{"fin mass, both sets", u.Name(output.Mass), dM, output.Num(u.Of(output.Mass, bm), 3), ""})
+			[]string{"fin mass, both sets", u.Name(output.Mass), dM, u.N(u.Of(output.Mass, bm), 3), ""})
 	} else {
 		g.Rows = append(g.Rows, []string{primary + " wall temperature", u.Name(output.Temp), dT, fmtT(u, bt), ""},
-			[]string{primary + " fin mass", u.Name(output.Mass), dM, output.Num(u.Of(output.Mass, bm), 3), ""},
+			[]string{primary + " fin mass", u.Name(output.Mass), dM, u.N(u.Of(output.Mass, bm), 3), ""},
 			[]string{other + " wall temperature (fins as designed)", u.Name(output.Temp), dO, fmtT(u, bo), ""})
 	}
 	if goal == "light" {
@@ -285,7 +285,7 @@ func (e *env) optimumDoc(d *design.Design, pr optimise.Problem, sol optimise.Sol
 	if both {
 		keepNote = "Everything but the two fin sets stays as the design has it; check the result with 'finmarch estimate' after editing the design."
 	}
-	doc := output.Doc{Title: fmt.Sprintf("%s: fin optimisation at %s %s, ambient %s %s", d.Name, output.Num(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), fmtT(u, d.Case.Ambient), u.Name(output.Temp)),
+	doc := output.Doc{Title: fmt.Sprintf("%s: fin optimisation at %s %s, ambient %s %s", d.Name, u.N(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), fmtT(u, d.Case.Ambient), u.Name(output.Temp)),
 		Grids: []output.Grid{g, c, fg}, Caution: true,
 		Notes: []string{
 			fmt.Sprintf("Casting limits (%s): %s.", p.Name, processSource(p)),
@@ -393,9 +393,9 @@ func constraints(pr optimise.Problem, sol optimise.Solution, label func(int, str
 // constraintGrid shows the constraints in the display units.
 func constraintGrid(cs []constraint, u output.Units) output.Grid {
 	L := func(v float64) string {
-		return output.Num(u.Of(output.Len, v), u.Dec(output.Len)+1) + " " + u.Name(output.Len)
+		return u.N(u.Of(output.Len, v), u.Dec(output.Len)+1) + " " + u.Name(output.Len)
 	}
-	deg := func(v float64) string { return output.Num(v*180/math.Pi, 2) + " deg" }
+	deg := func(v float64) string { return u.N(v*180/math.Pi, 2) + " deg" }
 	yes := map[bool]string{true: "yes", false: "no"}
 	g := output.Grid{Title: "Constraints at the optimum (slack 0 = active)", Header: []string{"constraint", "limit", "value", "slack", "active"}, Left: 1}
 	for _, c := range cs {
@@ -413,7 +413,7 @@ func constraintGrid(cs []constraint, u output.Units) output.Grid {
 		case "K":
 			lim, val, slack = fmtT(u, c.Limit)+" "+u.Name(output.Temp), fmtT(u, c.Value)+" "+u.Name(output.Temp), fmtDT(u, c.Slack)
 		default:
-			lim, val, slack = output.Num(c.Limit, 2), output.Num(c.Value, 2), output.Num(c.Slack, 2)
+			lim, val, slack = u.N(c.Limit, 2), u.N(c.Value, 2), u.N(c.Slack, 2)
 		}
 		if c.Kind == "bound" {
 			slack = "0"
@@ -425,7 +425,7 @@ func constraintGrid(cs []constraint, u output.Units) output.Grid {
 
 // frontGrid is the trade-off front, the optimum marked.
 func frontGrid(pr optimise.Problem, sol optimise.Solution, u output.Units, label func(int, string) string) output.Grid {
-	L := func(v float64) string { return output.Num(u.Of(output.Len, v), u.Dec(output.Len)+1) }
+	L := func(v float64) string { return u.N(u.Of(output.Len, v), u.Dec(output.Len)+1) }
 	massHead := "fin mass (" + u.Name(output.Mass) + ")"
 	if pr.Both() {
 		massHead = "fin mass, both (" + u.Name(output.Mass) + ")"
@@ -439,7 +439,7 @@ func frontGrid(pr optimise.Problem, sol optimise.Solution, u output.Units, label
 	}
 	fg := output.Grid{Title: "Trade-off front: wall temperature against fin mass (evaluated designs that no other beats on both)", Header: append(hdr, "")}
 	for _, q := range sol.Front {
-		row := []string{output.Num(u.Of(output.Mass, q.Mass), 3), fmtT(u, q.Wall)}
+		row := []string{u.N(u.Of(output.Mass, q.Mass), 3), fmtT(u, q.Wall)}
 		for k := range pr.Sets {
 			y := q.X[5*k : 5*k+5]
 			row = append(row, L(y[0]), L(y[1]), L(y[2]), L(y[3]), fmt.Sprint(int(y[4])))

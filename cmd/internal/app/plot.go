@@ -244,8 +244,8 @@ func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.F
 			}
 		}
 		lines = append(lines, h, b, lo, hi, end)
-		limits[fmt.Sprintf("head limit %s %s", output.Num(u.Of(output.Temp, d.HeadLimit), 0), u.Name(output.Temp))] = u.Of(output.Temp, d.HeadLimit)
-		limits[fmt.Sprintf("barrel limit %s %s", output.Num(u.Of(output.Temp, d.BarrelLimit), 0), u.Name(output.Temp))] = u.Of(output.Temp, d.BarrelLimit)
+		limits[fmt.Sprintf("head limit %s %s", u.N(u.Of(output.Temp, d.HeadLimit), 0), u.Name(output.Temp))] = u.Of(output.Temp, d.HeadLimit)
+		limits[fmt.Sprintf("barrel limit %s %s", u.N(u.Of(output.Temp, d.BarrelLimit), 0), u.Name(output.Temp))] = u.Of(output.Temp, d.BarrelLimit)
 		names = append(names, letter(i)+": "+short(d.Name))
 	}
 	if len(limits) > 3 { // keep the legend readable

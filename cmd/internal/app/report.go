@@ -68,7 +68,7 @@ func inlineSVG(f *plots.Figure) (template.HTML, error) {
 func inputTable(d *design.Design, u output.Units) []output.Grid {
 	c := d.Case
 	L := func(v float64) string {
-		return output.Num(u.Of(output.Len, v), u.Dec(output.Len)) + " " + u.Name(output.Len)
+		return u.N(u.Of(output.Len, v), u.Dec(output.Len)) + " " + u.Name(output.Len)
 	}
 	t := output.Grid{Title: "Inputs: the fins", Header: []string{"quantity", "head", "barrel"}, Left: 1}
 	add := func(q, h, b string) { t.Rows = append(t.Rows, []string{q, h, b}) }
@@ -81,22 +81,22 @@ func inputTable(d *design.Design, u output.Units) []output.Grid {
 	add("root diameter", L(hs.RootDiameter), L(bs.RootDiameter))
 	add("finned length", L(hs.Length), L(bs.Length))
 	add("alloy", c.Head.Alloy.Name, c.Barrel.Alloy.Name)
-	add("emissivity", output.Num(c.Head.Emissivity, 2), output.Num(c.Barrel.Emissivity, 2))
+	add("emissivity", u.N(c.Head.Emissivity, 2), u.N(c.Barrel.Emissivity, 2))
 	add("limit", fmtT(u, d.HeadLimit)+" "+u.Name(output.Temp), fmtT(u, d.BarrelLimit)+" "+u.Name(output.Temp))
 	op := output.Grid{Title: "Inputs: the operating point and the load", Header: []string{"quantity", "value"}, Left: 1}
 	both := func(q, v string) { op.Rows = append(op.Rows, []string{q, v}) }
-	both("tilt from vertical", output.Num(c.Tilt*180/math.Pi, 0)+" deg")
-	both("road speed", output.Num(u.Of(output.Road, c.Speed), 0)+" "+u.Name(output.Road))
-	both("pressure recovery", output.Num(c.Recovery, 2))
+	both("tilt from vertical", u.N(c.Tilt*180/math.Pi, 0)+" deg")
+	both("road speed", u.N(u.Of(output.Road, c.Speed), 0)+" "+u.Name(output.Road))
+	both("pressure recovery", u.N(c.Recovery, 2))
 	both("ambient", fmtT(u, c.Ambient)+" "+u.Name(output.Temp))
-	both("air pressure", output.Num(u.Of(output.Press, c.Pressure), 1)+" "+u.Name(output.Press))
+	both("air pressure", u.N(u.Of(output.Press, c.Pressure), 1)+" "+u.Name(output.Press))
 	if d.Load.Direct {
-		both("heat load, head", output.Num(d.Load.Given.Head, 0)+" W")
-		both("heat load, barrel", output.Num(d.Load.Given.Barrel, 0)+" W")
+		both("heat load, head", u.N(d.Load.Given.Head, 0)+" W")
+		both("heat load, barrel", u.N(d.Load.Given.Barrel, 0)+" W")
 	} else {
 		r := d.Load.Road
 		both("road load", fmt.Sprintf("%s %s, CdA %.3g m2, Crr %.3g, driveline %.2f, brake thermal %.2f, cooling share %.2f, head share %.2f, %s",
-			output.Num(u.Of(output.Mass, r.Mass), 0), u.Name(output.Mass), r.CdA, r.Crr, r.Driveline, r.Thermal, r.CoolShare, r.HeadShare, count(r.Cylinders, "cylinder")))
+			u.N(u.Of(output.Mass, r.Mass), 0), u.Name(output.Mass), r.CdA, r.Crr, r.Driveline, r.Thermal, r.CoolShare, r.HeadShare, count(r.Cylinders, "cylinder")))
 	}
 	both("march segments per path", fmt.Sprint(d.Run.Segments))
 	return []output.Grid{t, op}

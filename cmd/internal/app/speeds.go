@@ -67,14 +67,14 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 		if !o.Fixed && o.Load.Head == 0 && o.Load.Barrel == 0 {
 			st, margin, ht, bt = "no load", "-", "-", "-"
 		}
-		row := []string{output.Num(u.Of(output.Road, v), 0), output.Num(o.Result.Head.HeatLoad, 0), output.Num(o.Result.Barrel.HeatLoad, 0),
+		row := []string{u.N(u.Of(output.Road, v), 0), u.N(o.Result.Head.HeatLoad, 0), u.N(o.Result.Barrel.HeatLoad, 0),
 			ht, bt, margin, st}
 		band, err := e.band(d, v)
 		if err != nil {
 			return err
 		}
 		if band != nil {
-			row = append(row, bandText(u, band.Head), output.Num(100*band.HeadOver, 0))
+			row = append(row, bandText(u, band.Head), u.N(100*band.HeadOver, 0))
 		}
 		g.Rows = append(g.Rows, row)
 		rows = append(rows, putBand(map[string]any{"speed_m_s": v, "load": o.Load, "head": summary(o.Result.Head), "barrel": summary(o.Result.Barrel),

@@ -216,19 +216,19 @@ func displayFor(u output.Units, key string, v float64) (string, string) {
 	case strings.HasSuffix(key, ".count") || key == "segments":
 		return strconv.Itoa(int(v)), ""
 	case strings.HasSuffix(key, "speed"):
-		return output.Num(u.Of(output.Road, v), 2), u.Name(output.Road)
+		return u.N(u.Of(output.Road, v), 2), u.Name(output.Road)
 	case strings.HasSuffix(key, "ambient") || strings.HasPrefix(key, "limits.") || strings.HasSuffix(key, "_wall"):
-		return output.Num(u.Of(output.Temp, v), 2), u.Name(output.Temp)
+		return u.N(u.Of(output.Temp, v), 2), u.Name(output.Temp)
 	case key == "cylinder.tilt":
-		return output.Num(v*180/math.Pi, 2), "deg"
+		return u.N(v*180/math.Pi, 2), "deg"
 	case key == "air.altitude":
-		return output.Num(u.Of(output.Alt, v), 1), u.Name(output.Alt)
+		return u.N(u.Of(output.Alt, v), 1), u.Name(output.Alt)
 	case strings.HasPrefix(key, "head.") || strings.HasPrefix(key, "barrel.") && !strings.HasSuffix(key, "emissivity") ||
 		strings.HasPrefix(key, "cylinder."):
 		if strings.HasSuffix(key, "emissivity") {
-			return output.Num(v, 3), ""
+			return u.N(v, 3), ""
 		}
-		return output.Num(u.Of(output.Len, v), u.Dec(output.Len)+2), u.Name(output.Len)
+		return u.N(u.Of(output.Len, v), u.Dec(output.Len)+2), u.Name(output.Len)
 	}
 	return strconv.FormatFloat(v, 'g', 6, 64), design.SIUnit(key)
 }
@@ -329,7 +329,7 @@ func sweepCells(r sweep.Row, axes sweep.Grid, u output.Units) []string {
 	}
 	wall := func(ok bool, t, m float64) (string, string) {
 		if !ok {
-			return noEquilibrium, "-"
+			return noValue(u, noEquilibrium), noValue(u, "-")
 		}
 		return fmtT(u, t), fmtDT(u, m)
 	}
@@ -342,7 +342,7 @@ func sweepCells(r sweep.Row, axes sweep.Grid, u output.Units) []string {
 		note = strings.TrimPrefix(note+"; "+strings.Join(r.Uncastable, "; "), "; ")
 	}
 	return append(c, strconv.Itoa(r.HeadFins), strconv.Itoa(r.BarrelFins), ht, bt, hm, bm,
-		output.Num(u.Of(output.Mass, r.FinMass), 3), output.Num(u.Of(output.PerMass, r.HeatPerFinMass), 0), status, note)
+		u.N(u.Of(output.Mass, r.FinMass), 3), u.N(u.Of(output.PerMass, r.HeatPerFinMass), 0), status, note)
 }
 
 // sweepJSON is a row as a JSON-lines object (SI), stamped like every JSON

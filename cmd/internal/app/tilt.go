@@ -108,12 +108,16 @@ func (e *env) tilt(d *design.Design, step float64) error {
 		g.Header = []string{"tilt (deg)", "annular head (" + T + ")", "annular head 5 % to 95 % (" + T + ")", "annular barrel (" + T + ")",
 			"longitudinal head (" + T + ")", "longitudinal head 5 % to 95 % (" + T + ")", "longitudinal barrel (" + T + ")", "cooler style"}
 	}
+	if u.Full {
+		// CSV: the states in columns of their own, the temperatures numbers
+		g.Header = append(g.Header, "annular status", "longitudinal status")
+	}
 	var warns [][]string
 	var rows []map[string]any
 	cell := func(_ outcome, r cylinder.SetResult) string { return wallText(u, r) }
 	var tilts []float64
-	for t := 0.0; t < 90-1e-9; t += step {
-		tilts = append(tilts, t)
+	for i := 0; float64(i)*step < 90-1e-9; i++ {
+		tilts = append(tilts, float64(i)*step) // not a running sum: 15, not 14.999999999999998
 	}
 	tilts = append(tilts, 90)
 	for _, t := range tilts {
@@ -137,9 +141,12 @@ func (e *env) tilt(d *design.Design, step float64) error {
 		if math.Max(l.Result.Head.WallTemp, l.Result.Barrel.WallTemp) < math.Max(a.Result.Head.WallTemp, a.Result.Barrel.WallTemp) {
 			better = "longitudinal"
 		}
-		row := []string{output.Num(t, 0), cell(a, a.Result.Head), cell(a, a.Result.Barrel), cell(l, l.Result.Head), cell(l, l.Result.Barrel), better}
+		row := []string{u.N(t, 0), cell(a, a.Result.Head), cell(a, a.Result.Barrel), cell(l, l.Result.Head), cell(l, l.Result.Barrel), better}
 		if n > 0 {
 			row = []string{row[0], row[1], bandText(u, bands[0].Head), row[2], row[3], bandText(u, bands[1].Head), row[4], row[5]}
+		}
+		if u.Full {
+			row = append(row, string(a.Status()), string(l.Status()))
 		}
 		g.Rows = append(g.Rows, row)
 		js := map[string]any{"tilt_deg": t, "annular": a.Result, "longitudinal": l.Result,
@@ -151,10 +158,10 @@ func (e *env) tilt(d *design.Design, step float64) error {
 	hs, bs := an.Case.Head.Set, an.Case.Barrel.Set
 	hl, bl := lo.Case.Head.Set, lo.Case.Barrel.Set
 	lu := func(v float64) string {
-		return output.Num(u.Of(output.Len, v), u.Dec(output.Len)) + " " + u.Name(output.Len)
+		return u.N(u.Of(output.Len, v), u.Dec(output.Len)) + " " + u.Name(output.Len)
 	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: orientation check at %s %s, ambient %s %s", d.Name,
-		output.Num(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), fmtT(u, d.Case.Ambient), u.Name(output.Temp)), Grids: []output.Grid{g}, Caution: true}
+		u.N(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), fmtT(u, d.Case.Ambient), u.Name(output.Temp)), Grids: []output.Grid{g}, Caution: true}
 	doc.Notes = append(doc.Notes,
 		fmt.Sprintf("Annular variant: head %d fins at %s pitch, barrel %d fins at %s pitch. Longitudinal variant: head %d fins at %s root pitch, barrel %d fins at %s root pitch. Same heights, thicknesses and mean gap.",
 			hs.Count, lu(hs.Pitch), bs.Count, lu(bs.Pitch), hl.Count, lu(hl.Pitch), bl.Count, lu(bl.Pitch)),

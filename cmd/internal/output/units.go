@@ -1,9 +1,31 @@
 package output
 
-import "strings"
+import (
+	"math"
+	"strconv"
+	"strings"
+)
 
 // Units converts SI values to display values and names the units.
-type Units struct{ US bool }
+type Units struct {
+	US bool
+	// Full writes every number at full precision (the shortest text that
+	// reads back to the same float64) instead of the display's decimals:
+	// set for CSV, where a spreadsheet takes the values, not a reader.
+	Full bool
+}
+
+// N formats v (already in display units) with dec decimals, or at full
+// precision when u.Full.
+func (u Units) N(v float64, dec int) string {
+	if u.Full && !math.IsNaN(v) && !math.IsInf(v, 0) {
+		if v == 0 {
+			return "0" // not "-0"
+		}
+		return strconv.FormatFloat(v, 'g', -1, 64)
+	}
+	return Num(v, dec)
+}
 
 // ParseUnits checks a --units value.
 func ParseUnits(s string) (Units, error) {
