@@ -67,8 +67,8 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 	add("fin style head / barrel", "", func(o outcome) string { return o.Result.Head.Style + " / " + o.Result.Barrel.Style })
 	add("road speed", u.Name(output.Road), func(o outcome) string { return u.N(u.Of(output.Road, o.speed), 0) })
 	add("ambient", u.Name(output.Temp), func(o outcome) string { return fmtT(u, o.d.Case.Ambient) })
-	add("heat load head / barrel", "W", func(o outcome) string {
-		return u.N(o.Result.Head.HeatLoad, 0) + " / " + u.N(o.Result.Barrel.HeatLoad, 0)
+	add("heat load head / barrel", u.Name(output.Power), func(o outcome) string {
+		return u.N(u.Of(output.Power, o.Result.Head.HeatLoad), 0) + " / " + u.N(u.Of(output.Power, o.Result.Barrel.HeatLoad), 0)
 	})
 	add("head temperature", u.Name(output.Temp), func(o outcome) string { return wallText(u, o.Result.Head) })
 	add("barrel temperature", u.Name(output.Temp), func(o outcome) string { return wallText(u, o.Result.Barrel) })
@@ -176,7 +176,7 @@ func explain(u output.Units, a, b outcome, la, lb rune) string {
 		case cylinder.DiffArea:
 			w = "finned surface " + pair(output.Area, 3)
 		case cylinder.DiffLoad:
-			w = fmt.Sprintf("heat load %s against %s W", u.N(df.B, 0), u.N(df.A, 0))
+			w = fmt.Sprintf("heat load %s against %s %s", u.N(u.Of(output.Power, df.B), 0), u.N(u.Of(output.Power, df.A), 0), u.Name(output.Power))
 		}
 		side(df.Warmer, w)
 	}

@@ -80,16 +80,16 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		g.Rows = append(g.Rows, row("wall temperature (given)", u.Name(output.Temp), pair(func(r cylinder.SetResult) string { return fmtT(u, r.WallTemp) })))
 	} else {
 		g.Rows = append(g.Rows,
-			row("heat load", "W", pair(func(r cylinder.SetResult) string { return u.N(r.HeatLoad, 0) })))
+			row("heat load", u.Name(output.Power), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Power, r.HeatLoad), 0) })))
 	}
 	g.Rows = append(g.Rows,
-		row("heat rejected", "W", pair(func(r cylinder.SetResult) string { return u.N(r.HeatRejected, 0) })),
-		row("  by convection", "W", pair(func(r cylinder.SetResult) string { return u.N(r.ConvectionHeat, 0) })),
-		row("    forced alone", "W", pair(func(r cylinder.SetResult) string { return u.N(r.ForcedHeat, 0) })),
-		row("      through the passages", "W", pair(func(r cylinder.SetResult) string { return u.N(r.PassageHeat, 0) })),
-		row("      over the fin envelope", "W", pair(func(r cylinder.SetResult) string { return u.N(r.EnvelopeHeat, 0) })),
-		row("    natural alone", "W", pair(func(r cylinder.SetResult) string { return u.N(r.NaturalHeat, 0) })),
-		row("  by radiation", "W", pair(func(r cylinder.SetResult) string { return u.N(r.RadiationHeat, 0) })),
+		row("heat rejected", u.Name(output.Power), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Power, r.HeatRejected), 0) })),
+		row("  by convection", u.Name(output.Power), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Power, r.ConvectionHeat), 0) })),
+		row("    forced alone", u.Name(output.Power), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Power, r.ForcedHeat), 0) })),
+		row("      through the passages", u.Name(output.Power), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Power, r.PassageHeat), 0) })),
+		row("      over the fin envelope", u.Name(output.Power), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Power, r.EnvelopeHeat), 0) })),
+		row("    natural alone", u.Name(output.Power), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Power, r.NaturalHeat), 0) })),
+		row("  by radiation", u.Name(output.Power), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Power, r.RadiationHeat), 0) })),
 	)
 	if !o.Fixed {
 		g.Rows = append(g.Rows,
@@ -128,8 +128,9 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		doc.Notes = append(doc.Notes, bandNote)
 	}
 	if !o.Fixed && !d.Load.Direct {
-		doc.Notes = append(doc.Notes, fmt.Sprintf("Road load at %s %s: %.2f kW at the wheel, %.2f kW at the crank, %.1f kW of fuel; %.0f%% of the fuel power to the fins of %s, %.0f%% of it through the head.",
-			u.N(u.Of(output.Road, c.Speed), 0), u.Name(output.Road), o.Load.WheelPower/1e3, o.Load.BrakePower/1e3, o.Load.FuelPower/1e3,
+		doc.Notes = append(doc.Notes, fmt.Sprintf("Road load at %s %s: %s %s at the wheel, %s %s at the crank, %s %s of fuel; %.0f%% of the fuel power to the fins of %s, %.0f%% of it through the head.",
+			u.N(u.Of(output.Road, c.Speed), 0), u.Name(output.Road), u.N(u.Of(output.Engine, o.Load.WheelPower), 2), u.Name(output.Engine),
+			u.N(u.Of(output.Engine, o.Load.BrakePower), 2), u.Name(output.Engine), u.N(u.Of(output.Engine, o.Load.FuelPower), 1), u.Name(output.Engine),
 			100*d.Load.Road.CoolShare, count(d.Load.Road.Cylinders, "cylinder"), 100*d.Load.Road.HeadShare))
 	}
 	doc.Notes = append(doc.Notes, orientationNote(d, o.Result), noteWall, noteMixed,
@@ -197,8 +198,8 @@ func overRated(u output.Units, d *design.Design, o outcome) string {
 		s = fmt.Sprintf("%s: %s is past the road speed in top gear at the engine's rated speed, %s %s (load.top_gear_speed): the engine cannot hold this speed, and these temperatures are what it would need",
 			d.Name, at, u.N(u.Of(output.Road, r.TopGearSpeed), 0), u.Name(output.Road))
 	} else {
-		s = fmt.Sprintf("%s: at %s the road asks %.1f kW at the crank, more than the rated %.1f kW (load.rated_power): the engine cannot hold this speed, and these temperatures are what it would need",
-			d.Name, at, o.Load.BrakePower/1e3, r.RatedPower/1e3)
+		s = fmt.Sprintf("%s: at %s the road asks %s %s at the crank, more than the rated %s %s (load.rated_power): the engine cannot hold this speed, and these temperatures are what it would need",
+			d.Name, at, u.N(u.Of(output.Engine, o.Load.BrakePower), 1), u.Name(output.Engine), u.N(u.Of(output.Engine, r.RatedPower), 1), u.Name(output.Engine))
 	}
 	if v, ok := r.TopSpeed(d.Case.Pressure / (airflow.RAir * d.Case.Ambient)); ok {
 		s += fmt.Sprintf("; its top speed here is %s %s", u.N(u.Of(output.Road, v), 0), u.Name(output.Road))
@@ -210,7 +211,7 @@ func overRated(u output.Units, d *design.Design, o outcome) string {
 func topSpeedNote(u output.Units, d *design.Design) string {
 	r, rho := d.Load.Road, d.Case.Pressure/(airflow.RAir*d.Case.Ambient)
 	top, _ := r.TopSpeed(rho)
-	why := fmt.Sprintf("past it the road asks more than the rated %.1f kW (load.rated_power)", r.RatedPower/1e3)
+	why := fmt.Sprintf("past it the road asks more than the rated %s %s (load.rated_power)", u.N(u.Of(output.Engine, r.RatedPower), 1), u.Name(output.Engine))
 	if r.TopSpeedByGear(rho) {
 		why = "past it the engine would turn faster than its rated speed in top gear (load.top_gear_speed)"
 	}

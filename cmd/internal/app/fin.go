@@ -143,9 +143,15 @@ func (e *env) fin(in finInput) error {
 	}
 	one := fins.Single{Profile: prof, Height: in.L, RootThickness: in.t0, TipThickness: in.t1, RootRadius: in.d / 2}
 	eta, area, fin := one.Efficiency(in.h, in.k, &log), one.Area(), one.Fin()
-	per := "per metre of width"
+	// straight fins are per width of fin: per metre (the JSON's unit), or
+	// per foot with --units us; annular fins are per fin
+	per, qUnit, width := "per metre of width", output.PerWidth, 1.0
+	jsonPer := per
+	if u.US {
+		per, width = "per foot of width", 0.3048
+	}
 	if annular {
-		per = "per fin"
+		per, jsonPer, qUnit, width = "per fin", "per fin", output.Power, 1
 	}
 	sol, err := fins.Solve(fin, in.k, fins.Uniform(in.h), in.tw-in.ta, fins.SolveOptions{Cells: 400})
 	if err != nil {
@@ -161,8 +167,8 @@ func (e *env) fin(in finInput) error {
 	if in.kGiven {
 		kFrom = "given by --k"
 	}
-	add("conductivity ("+kFrom+")", u.N(in.k, 1), "W/mK")
-	add("fin parameter m = sqrt(2h/(k t_root))", u.N(m, 2), "1/m")
+	add("conductivity ("+kFrom+")", u.N(u.Of(output.Cond, in.k), 1), u.Name(output.Cond))
+	add("fin parameter m = sqrt(2h/(k t_root))", u.N(u.Of(output.PerLen, m), 2), u.Name(output.PerLen))
 	add("m x height", u.N(m*in.L, 3), "-")
 	add("Biot number h t_root/(2k)", fmt.Sprintf("%.2g", in.h*in.t0/(2*in.k)), "-")
 	method := "closed form"
@@ -171,8 +177,8 @@ func (e *env) fin(in finInput) error {
 	}
 	add("fin efficiency ("+method+")", u.N(eta, 4), "-")
 	add("fin efficiency (finite-volume check, 400 cells)", u.N(sol.Efficiency, 4), "-")
-	add("heated area "+per, u.N(u.Of(output.Area, area)*map[bool]float64{true: 1e4, false: 1}[!u.US && annular], 2), map[bool]string{true: "cm2", false: u.Name(output.Area)}[!u.US && annular])
-	add("heat rate "+per+" at "+fmtT(u, in.tw)+" wall, "+fmtT(u, in.ta)+" air ("+u.Name(output.Temp)+")", u.N(q, 1), "W")
+	add("heated area "+per, u.N(u.Of(output.Area, area*width)*map[bool]float64{true: 1e4, false: 1}[!u.US && annular], 2), map[bool]string{true: "cm2", false: u.Name(output.Area)}[!u.US && annular])
+	add("heat rate "+per+" at "+fmtT(u, in.tw)+" wall, "+fmtT(u, in.ta)+" air ("+u.Name(output.Temp)+")", u.N(u.Of(qUnit, q), 1), u.Name(qUnit))
 	doc := output.Doc{Title: "Single fin", Grids: []output.Grid{g}, Caution: true,
 		Notes: []string{"Efficiency is heat over the heat of the whole fin at the root temperature; sources in 'go doc finmarch/fins'."}}
 	for _, w := range log.Warnings() {
@@ -182,6 +188,6 @@ func (e *env) fin(in finInput) error {
 		"area_m2": area, "fin_parameter_per_m": m, "fin_parameter_times_height": m * in.L,
 		"inputs": map[string]any{"height_m": in.L, "root_thickness_m": in.t0, "tip_thickness_m": in.t1, "root_diameter_m": in.d, "h_W_m2K": in.h,
 			"conductivity_W_mK": in.k, "alloy": in.alloy.Name, "wall_K": in.tw, "air_K": in.ta},
-		"biot": in.h * in.t0 / (2 * in.k), "per": per, "warnings": doc.Warnings, "caution": output.Caution}
+		"biot": in.h * in.t0 / (2 * in.k), "per": jsonPer, "warnings": doc.Warnings, "caution": output.Caution}
 	return e.emit(doc)
 }

@@ -25,11 +25,11 @@ func (e *env) march(d *design.Design) error {
 	}
 	T, L := u.Name(output.Temp), u.Name(output.Len)
 	g := output.Grid{Title: "March along one air path of each fin set (heat and flux summed over all parallel paths)",
-		Header: []string{"set", "segment", "x (" + L + ")", "air in (" + T + ")", "air out (" + T + ")", "h (" + u.Name(output.H) + ")", "fin eff", "flux (" + u.Name(output.Flux) + ")", "heat (W)"}, Left: 1}
+		Header: []string{"set", "segment", "x (" + L + ")", "air in (" + T + ")", "air out (" + T + ")", "h (" + u.Name(output.H) + ")", "fin eff", "flux (" + u.Name(output.Flux) + ")", "heat (" + u.Name(output.Power) + ")"}, Left: 1}
 	for _, s := range []cylinder.SetResult{o.Result.Head, o.Result.Barrel} {
 		for i, sg := range s.March {
 			g.Rows = append(g.Rows, []string{s.Name, fmt.Sprint(i + 1), u.N(u.Of(output.Len, sg.X), u.Dec(output.Len)), fmtT(u, sg.AirIn), fmtT(u, sg.AirOut),
-				u.N(u.Of(output.H, sg.H), 1), u.N(sg.FinEff, 3), u.N(u.Of(output.Flux, sg.Flux), 0), u.N(sg.Heat, 1)})
+				u.N(u.Of(output.H, sg.H), 1), u.N(sg.FinEff, 3), u.N(u.Of(output.Flux, sg.Flux), 0), u.N(u.Of(output.Power, sg.Heat), 1)})
 		}
 	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: march at %s %s (head wall %s %s, barrel wall %s %s)", d.Name,

@@ -91,8 +91,8 @@ func inputTable(d *design.Design, u output.Units) []output.Grid {
 	both("ambient", fmtT(u, c.Ambient)+" "+u.Name(output.Temp))
 	both("air pressure", u.N(u.Of(output.Press, c.Pressure), 1)+" "+u.Name(output.Press))
 	if d.Load.Direct {
-		both("heat load, head", u.N(d.Load.Given.Head, 0)+" W")
-		both("heat load, barrel", u.N(d.Load.Given.Barrel, 0)+" W")
+		both("heat load, head", u.N(u.Of(output.Power, d.Load.Given.Head), 0)+" "+u.Name(output.Power))
+		both("heat load, barrel", u.N(u.Of(output.Power, d.Load.Given.Barrel), 0)+" "+u.Name(output.Power))
 	} else {
 		r := d.Load.Road
 		both("road load", fmt.Sprintf("%s %s, CdA %.3g m2, Crr %.3g, driveline %.2f, brake thermal %.2f, cooling share %.2f, head share %.2f, %s",

@@ -36,7 +36,7 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 	}
 	T := u.Name(output.Temp)
 	g := output.Grid{Title: "Temperatures against road speed",
-		Header: []string{"speed (" + u.Name(output.Road) + ")", "head load (W)", "barrel load (W)", "head (" + T + ")", "barrel (" + T + ")", "head margin (" + u.Name(output.TempDiff) + ")", "status"}}
+		Header: []string{"speed (" + u.Name(output.Road) + ")", "head load (" + u.Name(output.Power) + ")", "barrel load (" + u.Name(output.Power) + ")", "head (" + T + ")", "barrel (" + T + ")", "head margin (" + u.Name(output.TempDiff) + ")", "status"}}
 	n, err := e.samples(d)
 	if err != nil {
 		return err
@@ -67,7 +67,7 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 		if !o.Fixed && o.Load.Head == 0 && o.Load.Barrel == 0 {
 			st, margin, ht, bt = "no load", "-", "-", "-"
 		}
-		row := []string{u.N(u.Of(output.Road, v), 0), u.N(o.Result.Head.HeatLoad, 0), u.N(o.Result.Barrel.HeatLoad, 0),
+		row := []string{u.N(u.Of(output.Road, v), 0), u.N(u.Of(output.Power, o.Result.Head.HeatLoad), 0), u.N(u.Of(output.Power, o.Result.Barrel.HeatLoad), 0),
 			ht, bt, margin, st}
 		band, err := e.band(d, v)
 		if err != nil {

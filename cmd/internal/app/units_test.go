@@ -11,8 +11,11 @@ import (
 
 // Every unit the tool prints is accepted as input, and means the same: a
 // value printed in a display unit reads back to the SI value it came from
-// (the quantities a design or a flag can hold; heat flux and heat per mass
-// are outputs only).
+// (the quantities a design or a flag can hold; heat flux, heat per mass,
+// heat per fin width and the fin parameter are outputs only). The US
+// factors are NIST SP 811 (2008) Appendix B: 1 Btu_IT/h = 0.29307107 W,
+// 1 hp = 745.69987 W, 1 Btu_IT/(h ft F) = 1.730735 W/(m K), 1 lb/ft3 =
+// 16.01846 kg/m3, 1 Btu_IT/(lb F) = 4186.8 J/(kg K).
 func TestDisplayUnitsRoundTrip(t *testing.T) {
 	for _, c := range []struct {
 		q     output.Quantity
@@ -29,6 +32,11 @@ func TestDisplayUnitsRoundTrip(t *testing.T) {
 		{output.Area, 0.45, design.ParseValue[design.Area]},
 		{output.Alt, 1500, design.ParseValue[design.Length]},
 		{output.Press, 90e3, design.ParseValue[design.Pressure]},
+		{output.Power, 2681, design.ParseValue[design.Power]},
+		{output.Engine, 25e3, design.ParseValue[design.Power]},
+		{output.Cond, 151, design.ParseValue[design.Conductivity]},
+		{output.Density, 2685, design.ParseValue[design.Density]},
+		{output.SpecHeat, 963, design.ParseValue[design.SpecificHeat]},
 	} {
 		for _, u := range []output.Units{{}, {US: true}} {
 			text := output.Num(u.Of(c.q, c.si), 9) + " " + u.Name(c.q)

@@ -64,11 +64,11 @@ var (
 		"kg/m3": lin(1), "kg/m^3": lin(1), "g/cm3": lin(1000), "lb/in3": lin(27679.9), "lb/ft3": lin(16.01846)},
 		hint: `write "2700 kg/m3"`}
 	dimConductivity = &dimension{name: "thermal conductivity", si: "W/(m K)", units: map[string]unitConv{
-		"w/mk": lin(1), "w/(m k)": lin(1), "w/(mk)": lin(1), "w/m/k": lin(1), "btu/(h ft f)": lin(1.730735)},
+		"w/mk": lin(1), "w/(m k)": lin(1), "w/(mk)": lin(1), "w/m/k": lin(1), "btu/(h ft f)": lin(1.730735), "btu/h-ft-f": lin(1.730735), "btu/hftf": lin(1.730735)},
 		hint: `write "150 W/mK"`}
 	dimSpecificHeat = &dimension{name: "specific heat", si: "J/(kg K)", units: map[string]unitConv{
 		"j/kgk": lin(1), "j/(kg k)": lin(1), "j/(kgk)": lin(1), "kj/kgk": lin(1000), "kj/(kg k)": lin(1000),
-		"btu/(lb f)": lin(4186.8)}, hint: `write "900 J/kgK"`}
+		"btu/(lb f)": lin(4186.8), "btu/lb-f": lin(4186.8)}, hint: `write "900 J/kgK"`}
 )
 
 // unitList returns the accepted spellings for messages.

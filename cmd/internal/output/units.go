@@ -58,7 +58,14 @@ const (
 	Area                     // m2 or ft2
 	Alt                      // altitude: m or ft
 	Press                    // pressure: kPa or inHg
-	PerMass                  // heat per fin mass: W/kg or W/lb
+	PerMass                  // heat per fin mass: W/kg or Btu/h-lb
+	Power                    // heat rate: W or Btu/h
+	Cond                     // thermal conductivity: W/mK or Btu/h-ft-F
+	PerLen                   // fin parameter m: 1/m or 1/ft
+	Density                  // kg/m3 or lb/ft3
+	SpecHeat                 // specific heat: J/kgK or Btu/lb-F
+	PerWidth                 // heat rate per width of a straight fin: W/m or Btu/h-ft
+	Engine                   // engine and road power: kW or hp
 )
 
 // display is one display unit: value = (SI - off) mul / div + add, written
@@ -84,7 +91,14 @@ var units = [...][2]display{
 	Area:     {{"m2", 0, 1, 1, 0, 0}, {"ft2", 0, 1, 0.09290304, 0, 0}},
 	Alt:      {{"m", 0, 1, 1, 0, 0}, {"ft", 0, 1, 0.3048, 0, 0}},
 	Press:    {{"kPa", 0, 1, 1000, 0, 0}, {"inHg", 0, 1, 3386.389, 0, 0}},
-	PerMass:  {{"W/kg", 0, 1, 1, 0, 0}, {"W/lb", 0, 0.45359237, 1, 0, 0}},
+	PerMass:  {{"W/kg", 0, 1, 1, 0, 0}, {"Btu/h-lb", 0, 0.45359237, 0.29307107, 0, 0}},
+	Power:    {{"W", 0, 1, 1, 0, 0}, {"Btu/h", 0, 1, 0.29307107, 0, 0}},
+	Cond:     {{"W/mK", 0, 1, 1, 0, 0}, {"Btu/h-ft-F", 0, 1, 1.730735, 0, 0}},
+	PerLen:   {{"1/m", 0, 1, 1, 0, 0}, {"1/ft", 0, 0.3048, 1, 0, 0}},
+	Density:  {{"kg/m3", 0, 1, 1, 0, 0}, {"lb/ft3", 0, 1, 16.01846, 0, 0}},
+	SpecHeat: {{"J/kgK", 0, 1, 1, 0, 0}, {"Btu/lb-F", 0, 1, 4186.8, 0, 0}},
+	PerWidth: {{"W/m", 0, 1, 1, 0, 0}, {"Btu/h-ft", 0, 0.3048, 0.29307107, 0, 0}},
+	Engine:   {{"kW", 0, 1, 1000, 0, 0}, {"hp", 0, 1, 745.69987, 0, 0}},
 }
 
 func (u Units) display(q Quantity) display {
