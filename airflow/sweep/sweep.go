@@ -70,6 +70,9 @@ type Row struct {
 	// Uncastable lists the casting limits of the design's process that the
 	// point's fins break (cylinder.Design.Castability); empty when castable
 	Uncastable []string
+	// Points is the number of operating points a design's worst-case row
+	// stands for (Summary with operating axes); 0 on a row of one point.
+	Points int
 }
 
 // Within reports whether the row reached an equilibrium within both limits.
@@ -83,6 +86,17 @@ func (r Row) Within() bool {
 // once per worker, so a builder may keep scratch state) and its own
 // cylinder.Workspace; the estimator is asked for totals only.
 func Run(g Grid, workers int, newBuilder func() Builder, sink func(Row)) {
+	RunOrdered(g, nil, workers, newBuilder, sink)
+}
+
+// RunOrdered is Run with the points handed to the workers in the given
+// order (position j of the run is point order(j); nil is index order):
+// Grid.Grouped runs the operating points of each design together, so that
+// a Summary closes each design soon after it starts.
+func RunOrdered(g Grid, order func(int) int, workers int, newBuilder func() Builder, sink func(Row)) {
+	if order == nil {
+		order = func(j int) int { return j }
+	}
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
@@ -111,8 +125,8 @@ func Run(g Grid, workers int, newBuilder func() Builder, sink func(Row)) {
 			build := newBuilder()
 			for sp := range jobs {
 				batch := make([]Row, 0, sp.hi-sp.lo)
-				for i := sp.lo; i < sp.hi; i++ {
-					batch = append(batch, evalPoint(g, i, build, ws))
+				for j := sp.lo; j < sp.hi; j++ {
+					batch = append(batch, evalPoint(g, order(j), build, ws))
 				}
 				rows <- batch
 			}

@@ -263,8 +263,21 @@ func (e *env) sweep(d *design.Design, axes sweep.Grid, total, workers, top int, 
 		bar = progressbar.NewOptions(total, progressbar.OptionSetWriter(os.Stderr), progressbar.OptionSetDescription("sweep"),
 			progressbar.OptionShowCount(), progressbar.OptionThrottle(100_000_000), progressbar.OptionClearOnFinish())
 	}
-	sum := sweep.NewSummary(top)
-	sweep.Run(axes, workers, builder(d, axes, !keepCount), func(r sweep.Row) {
+	// with operating keys beside design keys the summary ranks designs by
+	// their worst operating point, and the grid runs design by design
+	op, nOp := make([]bool, len(axes)), 0
+	for k, a := range axes {
+		if op[k] = design.Operating(a.Key); op[k] {
+			nOp++
+		}
+	}
+	sum, order := sweep.NewSummary(top), func(j int) int { return j }
+	if nOp > 0 && nOp < len(axes) {
+		sum, order = sweep.NewGroupedSummary(top, axes, op), axes.Grouped(op)
+	} else {
+		op = nil
+	}
+	sweep.RunOrdered(axes, order, workers, builder(d, axes, !keepCount), func(r sweep.Row) {
 		sum.Add(r)
 		st.Row(func() []string { return sweepCells(r, axes, u) }, func() map[string]any { return sweepJSON(r, axes) })
 		if bar != nil {
@@ -286,7 +299,7 @@ func (e *env) sweep(d *design.Design, axes sweep.Grid, total, workers, top int, 
 	if f == output.Markdown {
 		sf = output.Markdown
 	}
-	if err := output.Write(summaryTo, sweepSummary(d, axes, sum, total, workers, top, header, u), sf); err != nil {
+	if err := output.Write(summaryTo, sweepSummary(d, axes, op, sum, total, workers, top, u), sf); err != nil {
 		return fail(ExitIO, err)
 	}
 	if !streaming {
@@ -382,13 +395,21 @@ func unitSuffix(unit string) string {
 	return "_" + strings.NewReplacer("/(", "_", "/", "_", "(", "", ")", "", " ", "").Replace(unit)
 }
 
-// sweepSummary is the document of the best rows.
-func sweepSummary(d *design.Design, axes sweep.Grid, sum *sweep.Summary, total, workers, top int, header []string, u output.Units) output.Doc {
+// sweepSummary is the document of the best rows, in columns narrow enough
+// for a terminal (the margins and the heat per fin mass are in the rows).
+// With operating axes (op non-nil) the rows are designs, each at its worst
+// operating point.
+func sweepSummary(d *design.Design, axes sweep.Grid, op []bool, sum *sweep.Summary, total, workers, top int, u output.Units) output.Doc {
+	T := u.Name(output.Temp)
+	header := append([]string{"index"}, sweepHeader(axes, u)[1:1+len(axes)]...)
+	header = append(header, "fins", "head ("+T+")", "barrel ("+T+")", "fin mass ("+u.Name(output.Mass)+")", "status")
 	grid := func(title string, rs []sweep.Row) output.Grid {
-		g := output.Grid{Title: title, Header: header[:len(header)-1]}
+		g := output.Grid{Title: title, Header: header}
 		for _, r := range rs {
 			c := sweepCells(r, axes, u)
-			g.Rows = append(g.Rows, c[:len(c)-1])
+			n := 1 + len(axes)
+			// index and axes, fins, head, barrel, fin mass, status
+			g.Rows = append(g.Rows, append(c[:n:n], c[n]+" / "+c[n+1], c[n+2], c[n+3], c[n+6], c[n+8]))
 		}
 		return g
 	}
@@ -397,10 +418,40 @@ func sweepSummary(d *design.Design, axes sweep.Grid, sum *sweep.Summary, total, 
 		keys = append(keys, fmt.Sprintf("%s %d", k, sum.Counts[k]))
 	}
 	sort.Strings(keys)
-	doc := output.Doc{Title: fmt.Sprintf("%s: sweep of %s on %s (%s)", d.Name, count(total, "point"), count(workers, "worker"), strings.Join(keys, ", ")),
-		Grids: []output.Grid{grid(fmt.Sprintf("Coolest heads (best %d)", top), sum.Coolest.Rows()),
-			grid(fmt.Sprintf("Lightest fins within both limits (best %d)", top), sum.Lightest.Rows())},
-		Caution: true}
+	cool, light := fmt.Sprintf("Coolest heads (best %d)", top), fmt.Sprintf("Lightest fins within both limits (best %d)", top)
+	var opKeys []string
+	for k, o := range op {
+		if o {
+			opKeys = append(opKeys, axes[k].Key)
+		}
+	}
+	if op != nil {
+		cool = fmt.Sprintf("Coolest heads at each design's hottest operating point (best %d designs)", top)
+		light = fmt.Sprintf("Lightest fins within both limits at every operating point (best %d designs)", top)
+	}
+	doc := output.Doc{Title: fmt.Sprintf("%s: sweep of %s on %s (%s)", d.Name, count(total, "point"), count(workers, "worker"), strings.Join(keys, ", ")), Caution: true}
+	what := map[bool]string{true: "design", false: "point"}[op != nil]
+	for _, l := range []struct {
+		title string
+		rows  []sweep.Row
+		none  string
+	}{{cool, sum.Coolest.Rows(), "No " + what + " reaches an equilibrium"}, {light, sum.Lightest.Rows(), "No " + what + " stays within both limits"}} {
+		if len(l.rows) == 0 {
+			doc.Notes = append(doc.Notes, l.title+": none. "+l.none+map[bool]string{true: " at every operating point.", false: "."}[op != nil])
+			continue
+		}
+		doc.Grids = append(doc.Grids, grid(l.title, l.rows))
+	}
+	if op != nil {
+		verb := "sets"
+		if len(opKeys) > 1 {
+			verb = "set"
+		}
+		doc.Notes = append(doc.Notes, fmt.Sprintf("%s %s the operating point, the other keys the design: each design is shown at the point of its hottest head (the %s there), with its hottest barrel and worst status over all its operating points; a design with an invalid point is not ranked.",
+			strings.Join(opKeys, " and "), verb, strings.Join(opKeys, " and ")))
+	}
+	doc.Notes = append(doc.Notes, fmt.Sprintf("Fins: head / barrel. Limits: head %s %s, barrel %s %s; the margins and the heat per fin mass are in the rows (--format csv or json).",
+		fmtT(u, d.HeadLimit), T, fmtT(u, d.BarrelLimit), T))
 	doc.Notes = append(doc.Notes, fmt.Sprintf("Casting limits: %s (cylinder.casting); a row marked uncastable breaks them (its note in the full rows says how).", d.Casting.Name))
 	if fi := sum.FirstInvalid; fi != nil {
 		doc.Notes = append(doc.Notes, fmt.Sprintf("Invalid points break a design rule (the row's note says which) and are not estimated; the first, point %d: %s.",

@@ -79,6 +79,16 @@ func VaryKeys() []string {
 // for head.pitch); counts take whole numbers.
 func ParseFor(key, s string) (float64, error) { return parseFor(key, s, false) }
 
+// operatingKeys are the keys that set the operating point (the road, the
+// weather, the rider and luggage, a towed load, a given heat) rather than
+// the design: a sweep judges each design by its worst value over them.
+var operatingKeys = map[string]bool{"air.speed": true, "air.ambient": true, "air.altitude": true, "air.pressure": true,
+	"load.grade": true, "load.mass": true, "load.extra_power": true, "load.head_heat": true, "load.barrel_heat": true}
+
+// Operating reports whether a numeric key sets the operating point rather
+// than the design.
+func Operating(key string) bool { return operatingKeys[key] }
+
 // SIUnit returns the SI unit in which a numeric key's values are held ("m",
 // "K", "Pa", "W/(m2 K)"), "" for a fraction, a count or an unknown key.
 func SIUnit(key string) string {
