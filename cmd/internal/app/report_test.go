@@ -2,6 +2,8 @@ package app
 
 import (
 	"context"
+	"image/color"
+	"image/png"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -142,10 +144,36 @@ func TestReportInBrowser(t *testing.T) {
 			t.Errorf("rendered page lacks %q", want)
 		}
 	}
+	// as rendered: the version line, and the design over its limit named in
+	// the Warnings section
+	if !regexp.MustCompile(`id="made"[^>]*>Written by finmarch [^<]*UTC; command: finmarch report`).MatchString(dom) {
+		t.Error("the rendered page lacks its version, date and command line")
+	}
+	if i := strings.Index(dom, `id="warnings"`); i < 0 || !strings.Contains(dom[i:i+strings.Index(dom[i:], "</section>")], "Over a limit:") {
+		t.Error("the rendered Warnings section does not name the design over its limit")
+	}
 	shot := filepath.Join(dir, "report.png")
 	chromium(t, bin, filepath.Join(dir, "profile-shot"), "--hide-scrollbars", "--window-size=1280,2400", "--screenshot="+shot, url)
-	if st, err := os.Stat(shot); err != nil || st.Size() < 20000 {
-		t.Errorf("screenshot missing or blank: %v", err)
+	f, err := os.Open(shot)
+	if err != nil {
+		t.Fatalf("screenshot missing: %v", err)
 	}
-	t.Logf("screenshot: %s", shot)
+	defer f.Close()
+	img, err := png.Decode(f)
+	if err != nil {
+		t.Fatalf("screenshot: %v", err)
+	}
+	// a rendered page, not a blank or an error page: many colours (text,
+	// tables, the plots' lines and fills) over the whole height
+	colours := map[color.Color]bool{}
+	b := img.Bounds()
+	for y := b.Min.Y; y < b.Max.Y; y += 3 {
+		for x := b.Min.X; x < b.Max.X; x += 3 {
+			colours[img.At(x, y)] = true
+		}
+	}
+	if b.Dy() < 2000 || len(colours) < 50 {
+		t.Errorf("screenshot %dx%d with %d colours: blank or unstyled", b.Dx(), b.Dy(), len(colours))
+	}
+	t.Logf("screenshot: %s (%d colours)", shot, len(colours))
 }
