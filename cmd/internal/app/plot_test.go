@@ -2,9 +2,11 @@ package app
 
 import (
 	"bytes"
+	"fmt"
 	"image/png"
 	"os"
 	"path/filepath"
+	"regexp"
 	"strings"
 	"testing"
 )
@@ -57,4 +59,36 @@ func TestPlots(t *testing.T) {
 	if _, _, code := run(t, "plot", "march", up, "-o", filepath.Join(dir, "x.jpg")); code != ExitUsage {
 		t.Errorf("bad extension: exit %d", code)
 	}
+}
+
+// The layout of each figure and of the report is kept as a golden file:
+// the SVG of each plot of the two demo designs, and the report's HTML with
+// its date, version and paths masked, so that a change of layout (a
+// clipped label, a legend in another order, a lost section) shows in review
+// as a diff. The figures are deterministic (TestPlots writes them twice).
+func TestFigureAndReportLayout(t *testing.T) {
+	dir := t.TempDir()
+	up, lo := designs(t)
+	for _, kind := range []string{"march", "speeds", "compare"} {
+		var runs [2]string
+		for i := range runs {
+			p := filepath.Join(dir, fmt.Sprintf("%s-%d.svg", kind, i))
+			if _, errs, code := run(t, "plot", kind, up, lo, "-o", p, "-q"); code != 0 {
+				t.Fatalf("%s: exit %d %s", kind, code, errs)
+			}
+			b, _ := os.ReadFile(p)
+			runs[i] = string(b)
+		}
+		if runs[0] != runs[1] {
+			t.Errorf("%s: two runs draw different figures", kind)
+		}
+		golden(t, "plot-"+kind+".svg", runs[0])
+	}
+	rp := filepath.Join(dir, "report.html")
+	if _, errs, code := run(t, "report", up, lo, "-o", rp, "-q"); code != 0 {
+		t.Fatalf("report: exit %d %s", code, errs)
+	}
+	b, _ := os.ReadFile(rp)
+	made := regexp.MustCompile(`Written by finmarch [^<]*`)
+	golden(t, "report.html", made.ReplaceAllString(string(b), "Written by finmarch VERSION on DATE; command: COMMAND"))
 }

@@ -5,6 +5,7 @@ import (
 	"image/color"
 	"io"
 	"math"
+	"sort"
 	"strings"
 
 	"gonum.org/v1/plot"
@@ -166,8 +167,14 @@ func Speeds(title, xLabel, tLabel string, lines []Series, limits map[string]floa
 			xmin, xmax = math.Min(xmin, x), math.Max(xmax, x)
 		}
 	}
-	i := 0
-	for name, v := range limits {
+	// in name order: a map's order would change the figure from run to run
+	names := make([]string, 0, len(limits))
+	for name := range limits {
+		names = append(names, name)
+	}
+	sort.Strings(names)
+	for i, name := range names {
+		v := limits[name]
 		if math.IsInf(xmin, 0) {
 			break
 		}
@@ -180,7 +187,6 @@ func Speeds(title, xLabel, tLabel string, lines []Series, limits map[string]floa
 		l.Width = vg.Points(1.4 - 0.4*float64(i))
 		p.Add(l)
 		p.Legend.Add(name, l)
-		i++
 	}
 	return &Figure{Plots: []*plot.Plot{p}, Width: 18 * vg.Centimeter, Height: 11 * vg.Centimeter}, nil
 }
