@@ -9,6 +9,7 @@ import (
 	"math"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"github.com/olekukonko/tablewriter"
 	"github.com/olekukonko/tablewriter/renderer"
@@ -278,6 +279,7 @@ func write(w io.Writer, d Doc, f Format) error {
 			t := tablewriter.NewTable(w,
 				tablewriter.WithRenderer(renderer.NewBlueprint(tw.Rendition{Symbols: tw.NewSymbols(tw.StyleASCII)})),
 				tablewriter.WithConfig(config(g)), tablewriter.WithHeaderAutoFormat(tw.Off))
+			g = fitHeaders(g, TableWidth)
 			if err := fill(t, g); err != nil {
 				return err
 			}
@@ -294,6 +296,96 @@ func write(w io.Writer, d Doc, f Format) error {
 		}
 		return nil
 	}
+}
+
+// TableWidth is the width a text table should fit in, in columns.
+const TableWidth = 120
+
+// fitHeaders folds the header cells of a text table over several lines,
+// at spaces, until the table fits width columns or no fold narrows it: the
+// values are never cut, so a table whose values are wider stays wider.
+// Each step takes the fold that narrows the table most: the header's
+// longest line split at the space nearest its middle (never between a
+// number and its "%").
+func fitHeaders(g Grid, width int) Grid {
+	n := len(g.Header)
+	lines := make([][]string, n) // each header's lines
+	data := make([]int, n)       // the widest value of each column
+	for i, h := range g.Header {
+		lines[i] = []string{h}
+	}
+	for _, r := range g.Rows {
+		for i, c := range r {
+			if i < n {
+				data[i] = max(data[i], utf8.RuneCountInString(c))
+			}
+		}
+	}
+	colWidth := func(i int) int {
+		w := data[i]
+		for _, l := range lines[i] {
+			w = max(w, utf8.RuneCountInString(l))
+		}
+		return w
+	}
+	total := func() int {
+		t := 1
+		for i := range lines {
+			t += colWidth(i) + 3
+		}
+		return t
+	}
+	fold := func(i int) []string {
+		ls := lines[i]
+		k := 0
+		for j, l := range ls {
+			if utf8.RuneCountInString(l) > utf8.RuneCountInString(ls[k]) {
+				k = j
+			}
+		}
+		l, cut := ls[k], -1
+		for j, r := range l {
+			if r == ' ' && !strings.HasPrefix(l[j+1:], "%") && (cut < 0 || abs(j-len(l)/2) < abs(cut-len(l)/2)) {
+				cut = j
+			}
+		}
+		if cut < 0 {
+			return nil
+		}
+		return append(append(append([]string{}, ls[:k]...), l[:cut], l[cut+1:]), ls[k+1:]...)
+	}
+	for total() > width {
+		best, gain, bestLines := -1, 0, []string(nil)
+		for i := range lines {
+			f := fold(i)
+			if f == nil {
+				continue
+			}
+			old, w := lines[i], colWidth(i)
+			lines[i] = f
+			if g := w - colWidth(i); g > gain {
+				best, gain, bestLines = i, g, f
+			}
+			lines[i] = old
+		}
+		if best < 0 {
+			break // no fold narrows it: the values set the width
+		}
+		lines[best] = bestLines
+	}
+	out := g
+	out.Header = make([]string, n)
+	for i := range lines {
+		out.Header[i] = strings.Join(lines[i], "\n")
+	}
+	return out
+}
+
+func abs(x int) int {
+	if x < 0 {
+		return -x
+	}
+	return x
 }
 
 func config(g Grid) tablewriter.Config {

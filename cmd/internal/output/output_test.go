@@ -108,3 +108,34 @@ func TestMarkdownTitleEscaped(t *testing.T) {
 		t.Errorf("%q", s)
 	}
 }
+
+// Headers fold at spaces until the table fits TableWidth, widest gain
+// first, never between a number and its "%", and the values are never cut:
+// a table whose values alone are wider stays as wide as they need.
+func TestFitHeaders(t *testing.T) {
+	long := "a header that is far wider than its values (C)"
+	g := Grid{Header: []string{long, long, long, "head 5 % to 95 % (C)"}, Rows: [][]string{{"1.0", "2.0", "3.0", "154.6 to 308.1"}}}
+	var b strings.Builder
+	if err := Write(&b, Doc{Grids: []Grid{g}}, Table); err != nil {
+		t.Fatal(err)
+	}
+	for _, l := range strings.Split(strings.TrimSpace(b.String()), "\n") {
+		if n := len(l); n > TableWidth {
+			t.Errorf("line of %d columns: %s", n, l)
+		}
+	}
+	if !strings.Contains(b.String(), "head 5 %") || !strings.Contains(b.String(), "95 %") {
+		t.Errorf("a fold between a number and its %%:\n%s", b.String())
+	}
+	if !strings.Contains(b.String(), "154.6 to 308.1") {
+		t.Error("a value was cut")
+	}
+	// the space nearest the middle of "band 95 % (C)" is before its "%"
+	if f := fitHeaders(Grid{Header: []string{"band 95 % (C)"}, Rows: [][]string{{"1"}}}, 12); f.Header[0] != "band\n95 % (C)" {
+		t.Errorf("folded as %q", f.Header[0])
+	}
+	wide := Grid{Header: []string{"x", "y"}, Rows: [][]string{{strings.Repeat("9", 150), "1"}}}
+	if f := fitHeaders(wide, TableWidth); f.Header[0] != "x" || f.Header[1] != "y" {
+		t.Errorf("headers folded for nothing: %q", f.Header)
+	}
+}
