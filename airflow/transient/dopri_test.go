@@ -44,7 +44,7 @@ func TestTableau(t *testing.T) {
 
 // Against closed forms: exponential decay y' = -y/tau, a linear system of
 // two coupled masses (eigen-solution by hand), and the oscillator
-// y'' = -y over several periods; each within the tolerance asked, and the
+// y” = -y over several periods; each within the tolerance asked, and the
 // error falls as the tolerance is tightened (fifth order: about 10^(4/5)
 // per decade of tolerance at a fixed problem, at least 10x over two
 // decades here).

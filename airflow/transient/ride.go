@@ -122,7 +122,7 @@ type Trace struct {
 	// end, or where a runaway stopped it.
 	EnergyIn, EnergyOut, Stored, End float64
 	Final                            [2]float64 // K, the walls at End
-	Evals                       int // air-side evaluations
+	Evals                            int        // air-side evaluations
 	// Runaway is set when a wall passed cylinder.SaneWallLimit: the trace
 	// stops there (no equilibrium below 500 C).
 	Runaway  bool
