@@ -121,7 +121,8 @@ type Trace struct {
 	// the masses' heat, sum C (T_end - T_start), J, at End (s): the ride's
 	// end, or where a runaway stopped it.
 	EnergyIn, EnergyOut, Stored, End float64
-	Final                            [2]float64 // K, the walls at End
+	Final                            [2]float64   // K, the walls at End
+	Starts                           [][2]float64 // K, the walls at each segment's start
 	Evals                            int        // air-side evaluations
 	// Runaway is set when a wall passed cylinder.SaneWallLimit: the trace
 	// stops there (no equilibrium below 500 C).
@@ -219,6 +220,7 @@ func (m *Model) Run(ride []Segment, start [2]float64, every float64) (Trace, err
 		}
 		overRated = overRated || over
 		c := m.at(sg).Case
+		tr.Starts = append(tr.Starts, [2]float64{y[0], y[1]})
 		f := func(_ float64, y, dy []float64) error {
 			// a trial stage may overshoot far: the air side is evaluated
 			// no higher than 990 K there (the step control rejects such a

@@ -79,6 +79,7 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 	b.limits()
 	b.uncertainty()
 	b.calibration()
+	b.ride()
 	b.ranges()
 	b.crossRules()
 	return d
@@ -328,6 +329,21 @@ func (b *builder) uncertainty() {
 		if h.q.Set {
 			*h.dst = b.opt("uncertainty."+h.key, h.q.raw(), true, 0, 0, h.hi, "", 1, 0, "")
 		}
+	}
+}
+
+// ride reads the [ride] table: the metal besides the fins (0 when absent:
+// transient.EstimateMetal) and the head-barrel link (0: none).
+func (b *builder) ride() {
+	r, m := b.f.Ride, &b.d.Metal
+	if r.HeadMetal.Set {
+		m.Head = b.opt("ride.head_metal", r.HeadMetal.raw(), true, 0, 0.05, 100, "kg", 1, 0, "")
+	}
+	if r.BarrelMetal.Set {
+		m.Barrel = b.opt("ride.barrel_metal", r.BarrelMetal.raw(), true, 0, 0.05, 100, "kg", 1, 0, "")
+	}
+	if r.Link.Set {
+		m.Link = b.opt("ride.head_barrel_link", r.Link.raw(), true, 0, 0, 1000, "W/K", 1, 0, "")
 	}
 }
 

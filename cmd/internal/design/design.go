@@ -15,6 +15,7 @@ import (
 
 	"finmarch/airflow/calibrate"
 	"finmarch/airflow/cylinder"
+	"finmarch/airflow/transient"
 	"finmarch/airflow/uncertainty"
 	"finmarch/fins"
 	"finmarch/materials"
@@ -34,6 +35,7 @@ type File struct {
 	Uncertainty UncertaintyT      `toml:"uncertainty"`
 	Calibration CalibrationT      `toml:"calibration"`
 	Measurement []MeasurementT    `toml:"measurement"`
+	Ride        RideT             `toml:"ride"`
 	Alloys      map[string]AlloyT `toml:"alloys"`
 }
 
@@ -138,6 +140,14 @@ type MeasurementT struct {
 	Sigma    Q[TempDiff]    `toml:"uncertainty"`
 }
 
+// RideT is the [ride] table: the metal of head and barrel besides the
+// fins and the head-barrel link, for 'finmarch ride' (airflow/transient).
+type RideT struct {
+	HeadMetal   Q[Mass]        `toml:"head_metal"`
+	BarrelMetal Q[Mass]        `toml:"barrel_metal"`
+	Link        Q[Conductance] `toml:"head_barrel_link"`
+}
+
 // AlloyT is one [alloys.NAME] table: a custom alloy.
 type AlloyT struct {
 	Conductivity      Q[Conductivity] `toml:"conductivity"`
@@ -158,6 +168,7 @@ type Design struct {
 	Casting     fins.Process      // the process the fins are made by; every command checks them against its limits
 	Band        BandSpec          // the uncertainty band's samples, seed and spread
 	Points      []calibrate.Point // the design's [[measurement]]s
+	Metal       transient.Metal   // the [ride] masses and link (zero: the estimates)
 	HeadLimit   float64           // K
 	BarrelLimit float64           // K
 	Altitude    float64           // m (0 when the pressure was given)

@@ -66,6 +66,10 @@ var (
 	dimConductivity = &dimension{name: "thermal conductivity", si: "W/(m K)", units: map[string]unitConv{
 		"w/mk": lin(1), "w/(m k)": lin(1), "w/(mk)": lin(1), "w/m/k": lin(1), "btu/(h ft f)": lin(1.730735), "btu/h-ft-f": lin(1.730735), "btu/hftf": lin(1.730735)},
 		hint: `write "150 W/mK"`}
+	dimConductance = &dimension{name: "thermal conductance", si: "W/K", units: map[string]unitConv{
+		"w/k": lin(1), "w/c": lin(1), "btu/h-f": lin(0.52752792), "btu/(h f)": lin(0.52752792)}, hint: `write "5 W/K"`}
+	dimTime = &dimension{name: "time", si: "s", units: map[string]unitConv{
+		"s": lin(1), "sec": lin(1), "min": lin(60), "h": lin(3600)}, hint: `write "90 s" or "15 min"`, needsUnit: true}
 	dimSpecificHeat = &dimension{name: "specific heat", si: "J/(kg K)", units: map[string]unitConv{
 		"j/kgk": lin(1), "j/(kg k)": lin(1), "j/(kgk)": lin(1), "kj/kgk": lin(1000), "kj/(kg k)": lin(1000),
 		"btu/(lb f)": lin(4186.8), "btu/lb-f": lin(4186.8)}, hint: `write "900 J/kgK"`}
@@ -179,6 +183,8 @@ type (
 	Density      struct{}
 	Conductivity struct{}
 	SpecificHeat struct{}
+	Conductance  struct{} // W/K
+	Time         struct{} // s
 	TempDiff     struct{} // a temperature difference, K
 )
 
@@ -196,6 +202,8 @@ func (Percent) dim() *dimension      { return dimPercent }
 func (Density) dim() *dimension      { return dimDensity }
 func (Conductivity) dim() *dimension { return dimConductivity }
 func (SpecificHeat) dim() *dimension { return dimSpecificHeat }
+func (Conductance) dim() *dimension  { return dimConductance }
+func (Time) dim() *dimension         { return dimTime }
 func (TempDiff) dim() *dimension     { return dimTempDiff }
 
 // dimTempDiff is a temperature difference: the temperature units without
