@@ -123,7 +123,7 @@ type Trace struct {
 	EnergyIn, EnergyOut, Stored, End float64
 	Final                            [2]float64   // K, the walls at End
 	Starts                           [][2]float64 // K, the walls at each segment's start
-	Evals                            int        // air-side evaluations
+	Evals                            int          // air-side evaluations
 	// Runaway is set when a wall passed cylinder.SaneWallLimit: the trace
 	// stops there (no equilibrium below 500 C).
 	Runaway  bool
