@@ -82,6 +82,10 @@ type Soak struct {
 	// reached it within the horizon though its steady standing wall is
 	// over the limit (or has no equilibrium).
 	Head, Barrel float64
+	// Cooled is, for a wall already over its limit when the standstill
+	// starts, the time until it is back at its limit, s; -1 when it does
+	// not come back within the horizon (or was not over).
+	Cooled [2]float64
 	// Settle is the steady standing walls, K (meaningless without an
 	// Equilibrium).
 	Settle      [2]float64
@@ -123,6 +127,21 @@ func (m *Model) Soak(ride []Segment, tr Trace, lim cylinder.Limits, horizon floa
 		return nil, err
 	}
 	s := Summarise(st, lim)
+	sk.Cooled = [2]float64{-1, -1}
+	for i, l := range []float64{lim.Head, lim.Barrel} {
+		for j, p := range st.Samples {
+			w := []float64{p.Head, p.Barrel}[i]
+			if j == 0 && w <= l {
+				break // not over when it stops
+			}
+			if w <= l {
+				q := st.Samples[j-1]
+				wq := []float64{q.Head, q.Barrel}[i]
+				sk.Cooled[i] = q.Time + (p.Time-q.Time)*(wq-l)/(wq-w)
+				break
+			}
+		}
+	}
 	for i, w := range []*float64{&sk.Head, &sk.Barrel} {
 		first, l := []float64{s.FirstOverHead, s.FirstOverBarrel}[i], []float64{lim.Head, lim.Barrel}[i]
 		switch {

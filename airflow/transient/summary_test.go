@@ -68,6 +68,22 @@ func TestSoakTime(t *testing.T) {
 	if math.Abs(tr.Starts[1][0]-t0) > 0.01 {
 		t.Errorf("wall at the standstill %.3f K, want %.3f K", tr.Starts[1][0], t0)
 	}
+	// standing with less heat than the run's fins rejected: an over-limit
+	// head comes back under a limit halfway down after tau ln 2
+	cool := [2]float64{600, 300}
+	ride2 := []Segment{ride[0], {Duration: 600, Heat: &cool}}
+	tr2, err := m.Run(ride2, [2]float64{ta, ta}, 10)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ts2 := ta + cool[0]/ua(0)[0]
+	sk2, err := m.Soak(ride2, tr2, cylinder.Limits{Head: (t0 + ts2) / 2, Barrel: 2000}, 7200)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if sk2.Head != 0 || math.Abs(sk2.Cooled[0]-tau*math.Ln2) > 1 || sk2.Cooled[1] != -1 {
+		t.Errorf("over at the stop (%g), back under after %.1f s, want %.1f s; barrel %g", sk2.Head, sk2.Cooled[0], tau*math.Ln2, sk2.Cooled[1])
+	}
 	if _, err := m.Soak(ride[:1], tr, cylinder.Limits{Head: lim, Barrel: 2000}, 7200); err != ErrNoStandstill {
 		t.Errorf("a ride without a standstill: %v", err)
 	}

@@ -153,7 +153,7 @@ upright with annular fins against laid over with longitudinal fins.`,
 	})
 	operating := []string{"speed", "ambient", "altitude", "segments", "samples"}
 	root.AddCommand(e.demoCmd(), e.estimateCmd(), e.compareCmd(), e.tiltCmd(), e.marchCmd(),
-		ignores(e.speedsCmd(), "speed"), e.sweepCmd(), e.optimiseCmd(),
+		ignores(e.speedsCmd(), "speed"), ignores(e.rideCmd(), "speed", "samples"), e.sweepCmd(), e.optimiseCmd(),
 		ignores(e.calibrateCmd(), "speed", "ambient", "altitude", "samples"),
 		ignores(e.plotCmd(), "format"), ignores(e.reportCmd(), "format"),
 		ignores(e.finCmd(), operating...), ignores(e.alloysCmd(), append(operating, "strict")...),

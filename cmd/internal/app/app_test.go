@@ -79,6 +79,7 @@ func TestGoldenOutputs(t *testing.T) {
 		{"alloys.txt", []string{"alloys"}},
 		{"sweep.csv", []string{"sweep", "-f", "csv", "--workers", "1", "--vary", "head.pitch=7mm:11mm:2mm", "--vary", "air.ambient=20C:40C:20C", up}},
 		{"optimise.txt", []string{"optimise", "--goal", "cool", "--pitch", "8mm:12mm", "--count", "6:8", up}},
+		{"ride.txt", []string{"ride", "--profile", "mountain-pass", "--every", "5 min", up}},
 	}
 	for _, c := range cases {
 		out, errs, code := run(t, c.args...)
@@ -265,7 +266,7 @@ func TestLimitAlert(t *testing.T) {
 
 // readmeRun matches a command block of the README and the output block
 // after it.
-var readmeRun = regexp.MustCompile("(?s)```\nfinmarch ((?:sweep|optimise) [^\n]*)\n```\n\n```\n(.*?)```")
+var readmeRun = regexp.MustCompile("(?s)```\nfinmarch ((?:sweep|optimise|ride) [^\n]*)\n```\n\n```\n(.*?)```")
 
 var workersNote = regexp.MustCompile(`on \d+ workers?`)
 
