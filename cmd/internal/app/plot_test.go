@@ -23,6 +23,7 @@ func TestPlots(t *testing.T) {
 		{"march", []string{"position along the air path (mm)", "air temperature (C)", "local heat flux (kW/m2), cut at", "A head (annular)", "B barrel (longitudinal)"}},
 		{"speeds", []string{"road speed (km/h)", "wall temperature at the fin roots (C)", "head limit 220 C", "barrel limit 250 C", "B barrel", "B: no equilibrium beyond"}},
 		{"compare", []string{"head temperature (C)", "heat per mass of fin (W/kg)", "limit"}},
+		{"ride", []string{"time (min)", "wall temperature at the fin roots (C)", "head limit 220 C", "B barrel", "run-then-jam"}},
 	} {
 		svg := filepath.Join(dir, c.kind+".svg")
 		if _, errs, code := run(t, "plot", c.kind, up, lo, "-o", svg); code != 0 {
@@ -69,7 +70,7 @@ func TestPlots(t *testing.T) {
 func TestFigureAndReportLayout(t *testing.T) {
 	dir := t.TempDir()
 	up, lo := designs(t)
-	for _, kind := range []string{"march", "speeds", "compare"} {
+	for _, kind := range []string{"march", "speeds", "compare", "ride"} {
 		var runs [2]string
 		for i := range runs {
 			p := filepath.Join(dir, fmt.Sprintf("%s-%d.svg", kind, i))

@@ -110,6 +110,7 @@ var modelSources = []string{
 	"Passage heat transfer at bulk properties, each march segment from its own state: Stephan's correlation for simultaneously developing laminar flow between plates (Shah & London 1978); Gnielinski with entrance factor and the gas heating factor (VDI Heat Atlas 2010, G1), linear blend for 2300 < Re < 1e4.",
 	"Natural convection: Bar-Cohen & Rohsenow (1984) vertical channels, combined with the forced heat as Q^3 = QF^3 + QN^3 (Churchill 1977); radiation from the fin envelope (Incropera Eq. 1.7).",
 	"Heat load: road load (0.5 rho CdA V^2 + Crr m g) V through driveline and brake thermal efficiency, a cooling share of the fuel power (Heywood, Internal Combustion Engine Fundamentals, 1988, Table 12.1; from memory), split head : barrel (common practice).",
+	"Heat soak (finmarch ride): head and barrel as two lumped masses (fins from the geometry, other metal given or estimated), heat out from the steady air side at the present walls (quasi-steady), integrated by the Dormand-Prince 5(4) pair with error control (Dormand & Prince 1980; Hairer, Norsett & Wanner 1993, Table II.5.2).",
 	"Orientation: annular fins take V cos(tilt) on half-circumference paths fed with ambient air; longitudinal fins take V sin(tilt), head then barrel in series; the rest of the road air crosses or runs along the fin envelope (Churchill & Bernstein 1977; flat plate, Incropera Eqs. 7.30/7.38), a lower bound.",
 }
 
@@ -146,6 +147,7 @@ func (e *env) report(ds []*design.Design) ([]byte, error) {
 		if o.NoEquilibrium != nil {
 			hd.Notes = append(hd.Notes, "NO EQUILIBRIUM: "+o.NoEquilibrium.Error())
 		}
+		hd.Notes = append(hd.Notes, e.rideNotes(u, d)...)
 		data.Designs = append(data.Designs, hd)
 		warns = append(warns, doc.Warnings)
 		data.Alerts = append(data.Alerts, doc.Alerts...)
@@ -159,6 +161,16 @@ func (e *env) report(ds []*design.Design) ([]byte, error) {
 		{func() (*plots.Figure, error) { return e.marchFigure(ds) }, "Air temperature and local heat flux along the fin passages at cruise; on a series path the barrel line continues where the head ends. The flux axis is cut above the entrance peak, where the boundary layers start."},
 		{func() (*plots.Figure, error) { return e.speedFigure(ds, 0, 140/3.6, 5/3.6) }, "Wall temperature at the fin roots against road speed from idle (0 km/h), with the head and barrel limits dotted and each head's uncertainty band (5th and 95th percentiles) in thin dots. A cross marks where a curve ends because no equilibrium exists below 500 C at the next speed."},
 	}
+	figs = append(figs, struct {
+		make    func() (*plots.Figure, error)
+		caption string
+	}{func() (*plots.Figure, error) {
+		_, ride, _, err := e.rideProfile(reportRide)
+		if err != nil {
+			return nil, err
+		}
+		return e.rideFigure(ds, reportRide, ride, "cold")
+	}, "Heat soak: wall temperature at the fin roots through the built-in ride " + reportRide + " from cold (20 min at 90 km/h, then 15 min standing at idle), with the limits dotted ('finmarch ride' for other rides)."})
 	if len(ds) > 1 {
 		figs = append(figs, struct {
 			make    func() (*plots.Figure, error)

@@ -151,6 +151,44 @@ func (e *env) ride(d *design.Design, name, what string, ride []transient.Segment
 	return nil
 }
 
+// reportRide is the ride the report shows.
+const reportRide = "run-then-jam"
+
+// rideNotes are the report's heat-soak lines for a design: reportRide from
+// cold, its peaks, time over the limits and the standstill (nothing for a
+// design with fixed walls; the failure in words when it fails).
+func (e *env) rideNotes(u output.Units, d *design.Design) []string {
+	if d.WallFixed {
+		return nil
+	}
+	_, ride, what, err := e.rideProfile(reportRide)
+	if err != nil {
+		return []string{"Heat soak not computed: " + err.Error()}
+	}
+	m, err := transient.NewModel(d.Cylinder(), d.Run, d.Metal)
+	if err != nil {
+		return []string{"Heat soak not computed: " + err.Error()}
+	}
+	ta := d.Case.Ambient
+	tr, err := m.Run(ride, [2]float64{ta, ta}, 60)
+	if err != nil {
+		return []string{"Heat soak not computed: " + err.Error()}
+	}
+	lim := cylinder.Limits{Head: d.HeadLimit, Barrel: d.BarrelLimit}
+	sum := transient.Summarise(tr, lim)
+	soak, _ := m.Soak(ride, tr, lim, soakHorizon)
+	doc := rideDoc(u, d, m, reportRide, what, "cold (ambient)", tr, sum, soak)
+	var out []string
+	for _, n := range doc.Notes {
+		for _, p := range []string{"Peak:", "Over the limit:", "Standing at idle", "NO EQUILIBRIUM"} {
+			if strings.HasPrefix(n, p) {
+				out = append(out, "Heat soak, ride "+reportRide+" from cold: "+n)
+			}
+		}
+	}
+	return out
+}
+
 // rideDoc is the ride's table and notes.
 func rideDoc(u output.Units, d *design.Design, m *transient.Model, name, what, startWhat string, tr transient.Trace, sum transient.Summary, soak *transient.Soak) output.Doc {
 	T, P := u.Name(output.Temp), u.Name(output.Power)
