@@ -64,6 +64,9 @@ type Case struct {
 	Ambient  float64 `json:"ambient_K"`         // K
 	Pressure float64 `json:"pressure_Pa"`       // Pa
 	FixedH   float64 `json:"fixed_h_W_m2K"`     // W/(m2 K), a measured forced-convection coefficient; 0 uses the correlations
+	// Supply is the cooling air's source: ram air (the zero value), a duct
+	// or a fan in a shroud (supply.go).
+	Supply Supply `json:"supply"`
 }
 
 // Settings are the run settings of an estimate. The zero value is the
@@ -173,6 +176,9 @@ func (c Case) validate(s Settings) error {
 	case !(s.ForcedFactor >= 0 && s.ForcedFactor <= 10) || !(s.NaturalFactor >= 0 && s.NaturalFactor <= 10) ||
 		!(s.ConductivityFactor >= 0 && s.ConductivityFactor <= 10):
 		return fmt.Errorf("factors %g, %g, %g outside 0 to 10", s.ForcedFactor, s.NaturalFactor, s.ConductivityFactor)
+	}
+	if err := c.Supply.validate(c); err != nil {
+		return err
 	}
 	for _, s := range []FinSet{c.Head, c.Barrel} {
 		if !(s.Emissivity > 0 && s.Emissivity <= 1) {

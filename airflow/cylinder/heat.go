@@ -44,8 +44,8 @@ func (p *prepared) natural(st *setState, tw float64) (float64, float64, float64)
 // Q = eta_o h (A_e/A_t) A_t (T_w - T_a).
 func (p *prepared) envelope(st *setState, tw float64) (float64, float64) {
 	dT := tw - p.c.Ambient
-	if dT <= 0 || p.c.Speed <= 0 {
-		return 0, 0
+	if dT <= 0 || p.c.Speed <= 0 || p.c.Supply.ducted() {
+		return 0, 0 // inside a shroud or baffles the road air does not reach the fins
 	}
 	fs, g := st.fs, st.g
 	air := airflow.Properties(0.5*(tw+p.c.Ambient), p.c.Pressure, p.log)

@@ -23,12 +23,18 @@ type RoadLoad struct {
 	ExtraPowerW float64 `json:"extra_power_W"`        // W at the wheel, e.g. a towed load or headwind allowance
 	// IdleHeat is the heat one cylinder's fins reject at idle, W: the
 	// least the road load gives (0: no floor).
-	IdleHeat float64 `json:"idle_heat_W"` // RatedPower is the engine's rated power at the crank, W (0: not
+	IdleHeat float64 `json:"idle_heat_W"`
+	// RatedPower is the engine's rated power at the crank, W (0: not
 	// given): a road load past it is a speed the engine cannot hold.
-	RatedPower float64 `json:"rated_power_W"` // TopGearSpeed is the road speed in top gear at the engine's rated
+	RatedPower float64 `json:"rated_power_W"`
+	// TopGearSpeed is the road speed in top gear at the engine's rated
 	// (highest allowed) crankshaft speed, m/s (0: not given): a faster
 	// road speed is one the engine cannot hold either.
 	TopGearSpeed float64 `json:"top_gear_speed_m_s"`
+	// AccessoryPower is power the engine drives besides the wheels, at the
+	// crank, W: a cooling fan's shaft power (Design.Evaluate sets it from
+	// the fan's operating point), so that a bigger fan is not free.
+	AccessoryPower float64 `json:"accessory_power_W"`
 }
 
 // withDefaults returns r with every zero that has a default replaced by it.
@@ -82,7 +88,8 @@ type HeatLoad struct {
 	// engine's rated power, or the road speed is past its top-gear speed:
 	// the engine cannot hold this speed (the heat is what that speed would
 	// need, not what the engine can make).
-	OverRated bool `json:"over_rated"` // PastRatedSpeed is set when the road speed is past TopGearSpeed (and
+	OverRated bool `json:"over_rated"`
+	// PastRatedSpeed is set when the road speed is past TopGearSpeed (and
 	// then OverRated too).
 	PastRatedSpeed bool `json:"past_rated_speed"`
 }
@@ -108,7 +115,7 @@ func (r RoadLoad) Heat(v, rho float64) (HeatLoad, error) {
 	if pw < 0 {
 		pw = 0 // coasting downhill: no load from the road
 	}
-	pb := pw / r.Driveline
+	pb := pw/r.Driveline + r.AccessoryPower
 	pf := pb / r.Thermal
 	q := r.CoolShare * pf / float64(r.Cylinders)
 	l := HeatLoad{Head: r.HeadShare * q, Barrel: (1 - r.HeadShare) * q, WheelPower: pw, BrakePower: pb, FuelPower: pf,

@@ -120,7 +120,16 @@ func (d Design) Evaluate(s Settings) (Outcome, error) {
 		}
 		return o, o.check()
 	}
-	if o.Load, err = d.Load.At(d.Case); err != nil {
+	load := d.Load
+	if d.Case.Supply.Kind == SupplyFan && !load.Direct {
+		// the fan's shaft power is crank power: it raises the heat
+		fp, err := d.Case.FanOperatingPoint(s)
+		if err != nil {
+			return o, err
+		}
+		load.Road.AccessoryPower += fp.Power
+	}
+	if o.Load, err = load.At(d.Case); err != nil {
 		return o, err
 	}
 	o.Result, err = d.Case.Balance(o.Load, s)

@@ -43,6 +43,8 @@ type prepared struct {
 	segBuf    []Segment           // the march of the latest trial
 	pre       map[segKey][]segPre // position terms by path and segment count
 	exactFilm bool                // film powers exact at every segment (tests)
+	drop      float64             // Pa across the fins, a ducted supply
+	fan       FanPointResult      // a fan supply's operating point
 }
 
 func (c Case) prepare(s Settings, log *validity.Log) (*prepared, error) {
@@ -87,6 +89,9 @@ func (c Case) prepare(s Settings, log *validity.Log) (*prepared, error) {
 // road speed's dynamic pressure that drives its passages.
 func (p *prepared) flows() error {
 	c := p.c
+	if c.Supply.ducted() {
+		return p.ductFlows()
+	}
 	q := c.Recovery * 0.5 * p.amb.Rho * c.Speed * c.Speed
 	drive := func(st *setState) float64 { return q * sq(st.pt.Component/math.Max(c.Speed, 1e-300)) }
 	h, b := &p.sets[head], &p.sets[barrel]

@@ -87,6 +87,15 @@ type Result struct {
 	TiltDeg   float64            `json:"tilt_deg"`
 	MaxImbal  float64            `json:"energy_imbalance_max"` // the largest air or load imbalance of the two sets
 	Converged bool               `json:"converged"`
+	Supply    *SupplyResult      `json:"supply,omitempty"` // a duct's or a fan's air; nil for ram air
+}
+
+// SupplyResult is the air a duct or a fan drives through the fins.
+type SupplyResult struct {
+	Kind     SupplyKind      `json:"kind"`
+	Drop     float64         `json:"drop_Pa"`        // across the fins
+	MassFlow float64         `json:"mass_flow_kg_s"` // through both sets
+	Fan      *FanPointResult `json:"fan,omitempty"`
 }
 
 // MarshalJSON writes the result with its warnings as a list, empty rather
@@ -124,5 +133,17 @@ func (p *prepared) result(hr, br SetResult, log *validity.Log, conv bool) Result
 		TiltDeg: p.c.Tilt * 180 / math.Pi, Converged: conv}
 	r.MaxImbal = max(hr.AirImbalance, br.AirImbalance, hr.LoadImbalance, br.LoadImbalance)
 	r.Warnings = log.Warnings()
+	if p.c.Supply.ducted() {
+		h, b := p.sets[head], p.sets[barrel]
+		w := h.mdot * float64(h.pt.Paths)
+		if !p.series {
+			w += b.mdot * float64(b.pt.Paths)
+		}
+		r.Supply = &SupplyResult{Kind: p.c.Supply.Kind, Drop: p.drop, MassFlow: w}
+		if p.c.Supply.Kind == SupplyFan {
+			f := p.fan
+			r.Supply.Fan = &f
+		}
+	}
 	return r
 }
