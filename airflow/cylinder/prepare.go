@@ -71,7 +71,11 @@ func (c Case) prepare(s Settings, log *validity.Log) (*prepared, error) {
 		st := &p.sets[i]
 		st.pt = path(st.fs.Set, st.g, c.Speed, c.Tilt)
 	}
-	if c.Series() {
+	series := c.Series()
+	if c.Supply.ducted() {
+		series = c.Supply.Series // a shroud or duct routes the air its own way
+	}
+	if series {
 		p.sets[head].pt.Series, p.sets[barrel].pt.Series = true, true
 		p.series = true
 	}

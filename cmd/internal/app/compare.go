@@ -137,17 +137,23 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 func explain(u output.Units, a, b outcome, la, lb rune) string {
 	dh := b.Result.Head.WallTemp - a.Result.Head.WallTemp
 	db := b.Result.Barrel.WallTemp - a.Result.Barrel.WallTemp
-	word := func(d float64) string {
+	// each set's difference, or which side has no equilibrium (its wall
+	// is the search's cap, not a temperature)
+	cap := fmtT(u, cylinder.SaneWallLimit) + " " + u.Name(output.Temp)
+	word := func(set string, ra, rb cylinder.SetResult, d float64) string {
 		switch {
-		case !a.Result.Head.Equilibrium || !b.Result.Head.Equilibrium || !a.Result.Barrel.Equilibrium || !b.Result.Barrel.Equilibrium:
-			// no difference of temperatures where one is the search's cap
-			return "with no equilibrium on one side, no difference to give"
+		case !ra.Equilibrium && !rb.Equilibrium:
+			return fmt.Sprintf("the %s finds no equilibrium in either", set)
+		case !rb.Equilibrium:
+			return fmt.Sprintf("the %s finds no equilibrium below %s in %c (in %c it runs at %s %s)", set, cap, lb, la, fmtT(u, ra.WallTemp), u.Name(output.Temp))
+		case !ra.Equilibrium:
+			return fmt.Sprintf("the %s runs at %s %s in %c, where %c finds no equilibrium below %s", set, fmtT(u, rb.WallTemp), u.Name(output.Temp), lb, la, cap)
 		case d >= 0:
-			return fmt.Sprintf("%s %s hotter", u.N(u.Of(output.TempDiff, d), 0), u.Name(output.TempDiff))
+			return fmt.Sprintf("the %s runs %s %s hotter", set, u.N(u.Of(output.TempDiff, d), 0), u.Name(output.TempDiff))
 		}
-		return fmt.Sprintf("%s %s cooler", u.N(u.Of(output.TempDiff, -d), 0), u.Name(output.TempDiff))
+		return fmt.Sprintf("the %s runs %s %s cooler", set, u.N(u.Of(output.TempDiff, -d), 0), u.Name(output.TempDiff))
 	}
-	s := fmt.Sprintf("%c against %c: the head runs %s and the barrel %s.", lb, la, word(dh), word(db))
+	s := fmt.Sprintf("%c against %c: %s and %s.", lb, la, word("head", a.Result.Head, b.Result.Head, dh), word("barrel", a.Result.Barrel, b.Result.Barrel, db))
 	var worse, better []string // what makes b hotter, what makes it cooler
 	side := func(bWorse bool, text string) {
 		if bWorse {

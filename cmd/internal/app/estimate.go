@@ -123,6 +123,9 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 	if err != nil {
 		return output.Doc{}, o, err
 	}
+	if sg := supplyGrid(u, o.Result); sg != nil {
+		doc.Grids = append(doc.Grids, *sg)
+	}
 	if band != nil {
 		doc.Grids = append(doc.Grids, bandGrid(u, d, band))
 		doc.Notes = append(doc.Notes, bandNote)
@@ -133,7 +136,11 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 			u.N(u.Of(output.Engine, o.Load.BrakePower), 2), u.Name(output.Engine), u.N(u.Of(output.Engine, o.Load.FuelPower), 1), u.Name(output.Engine),
 			100*d.Load.Road.CoolShare, count(d.Load.Road.Cylinders, "cylinder"), 100*d.Load.Road.HeadShare))
 	}
-	doc.Notes = append(doc.Notes, orientationNote(d, o.Result), noteWall, noteMixed,
+	air := orientationNote(d, o.Result)
+	if o.Result.Supply != nil {
+		air = supplyNote(u, d, o.Result)
+	}
+	doc.Notes = append(doc.Notes, air, noteWall, noteMixed,
 		energyNote(o.Result, o.Fixed),
 		noteModel)
 	if o.NoEquilibrium != nil {

@@ -51,14 +51,15 @@ func (e *env) loadAll(args []string) ([]*design.Design, error) {
 func (e *env) plotCmd() *cobra.Command {
 	cmd := &cobra.Command{
 		Use:   "plot",
-		Short: "Draw figures (SVG or PNG by the --output extension): march, speeds, compare, ride",
+		Short: "Draw figures (SVG or PNG by the --output extension): march, speeds, compare, ride, fan",
 		Long: `plot draws a figure to the --output file; its extension (.svg or .png) picks the
 format. With no design files it uses the built-in demo designs.
 
   finmarch plot march -o march.svg                 air temperature and local heat flux along the path
   finmarch plot speeds my.toml -o speeds.png        head and barrel temperature against road speed, with the limits
   finmarch plot compare a.toml b.toml -o cmp.svg    head temperature and heat per mass of fin, design by design
-  finmarch plot ride my.toml -o ride.png            head and barrel temperature through a ride (--profile), with the limits`,
+  finmarch plot ride my.toml -o ride.png            head and barrel temperature through a ride (--profile), with the limits
+  finmarch plot fan scooter.toml -o fan.svg         a fan-cooled design: the fan's curve against the shroud and fins`,
 	}
 	var from, to, step string
 	march := e.figureCmd("march [DESIGN.toml ...]", "Air temperature and local heat flux along the fin passages", e.marchFigure)
@@ -88,7 +89,7 @@ format. With no design files it uses the built-in demo designs.
 	speeds.Flags().StringVar(&to, "to", "140 km/h", "highest road speed")
 	speeds.Flags().StringVar(&step, "step", "5 km/h", "speed step")
 	compare := e.figureCmd("compare [DESIGN.toml ...]", "Head temperature and heat rejected per mass of fin, design by design", e.compareFigure)
-	cmd.AddCommand(march, speeds, compare, e.rideFigureCmd())
+	cmd.AddCommand(march, speeds, compare, e.rideFigureCmd(), e.fanFigureCmd())
 	return cmd
 }
 

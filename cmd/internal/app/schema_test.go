@@ -86,7 +86,7 @@ func TestJSONSchema(t *testing.T) {
 		{"calibrate", measured},
 		{"fin", "--profile", "rectangular", "--height", "20 mm", "--root-thickness", "3 mm", "--h", "60 W/m2K"},
 		{"fin", "--profile", "annular-tapered", "--height", "30 mm", "--root-thickness", "3 mm", "--tip-thickness", "1.5 mm", "--root-diameter", "90 mm", "--h", "80 W/m2K"},
-		{"alloys"}, {"version"},
+		{"alloys"}, {"version"}, {"demo", "--fan", "--samples", "20"},
 		{"ride", up, "--every", "5 min"}, {"ride", lo, "--profile", "mountain-pass", "--start", "steady", "--every", "10 min"}, {"ride", up, "--profile", "city-crawl", "--every", "10 min"},
 	}
 	for _, c := range cases {

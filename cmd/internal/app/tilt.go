@@ -59,6 +59,11 @@ func restyled(d *design.Design, st fins.Style) (*design.Design, []string, error)
 			thinned = append(thinned, fmt.Sprintf("%s %d instead of %d", x.name, x.dst.Count, same.Count))
 		}
 	}
+	if st == fins.StyleAnnular {
+		// annular passages run round the cylinder: a duct's series route
+		// (head then barrel along the axis) becomes parallel
+		cp.Case.Supply.Series = false
+	}
 	return &cp, thinned, nil
 }
 
@@ -166,10 +171,20 @@ func (e *env) tilt(d *design.Design, step float64) error {
 		fmt.Sprintf("Annular variant: head %d fins at %s pitch, barrel %d fins at %s pitch. Longitudinal variant: head %d fins at %s root pitch, barrel %d fins at %s root pitch. Same heights, thicknesses and mean gap.",
 			hs.Count, lu(hs.Pitch), bs.Count, lu(bs.Pitch), hl.Count, lu(hl.Pitch), bl.Count, lu(bl.Pitch)),
 		castNote(d.Casting.Name, thinA, thinL, an, lo),
-		"Annular fins take the road-speed share in their plane (cos tilt); longitudinal fins the share along the axis (sin tilt), head first then barrel in series. "+
-			"The rest of the road air is credited over the fin envelope only (a lower bound), so at its unfavourable extreme each style is cooled little more than in still air.",
+		tiltAirNote(d),
 		noteWall)
 	doc.Warnings = warningsOf(warns...)
 	doc.JSON = map[string]any{"design": d.Name, "inputs": d.Cylinder().Resolved(), "rows": rows, "warnings": doc.Warnings, "caution": output.Caution}
 	return e.emit(doc)
+}
+
+// tiltAirNote says how the tilt reaches the cooling air: through the road
+// air's share along the passages, or, inside a shroud or baffles, not at
+// all.
+func tiltAirNote(d *design.Design) string {
+	if d.Case.Supply.Kind != cylinder.SupplyRam {
+		return "The cooling air comes from a " + string(d.Case.Supply.Kind) + " ([cooling]): the shroud or baffles route it whatever the tilt, so the tilt changes only natural convection's part (in this model, nothing); the styles differ by their passages."
+	}
+	return "Annular fins take the road-speed share in their plane (cos tilt); longitudinal fins the share along the axis (sin tilt), head first then barrel in series. " +
+		"The rest of the road air is credited over the fin envelope only (a lower bound), so at its unfavourable extreme each style is cooled little more than in still air."
 }

@@ -76,6 +76,7 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 	b.cylinder()
 	b.air()
 	b.load()
+	b.cooling()
 	b.limits()
 	b.uncertainty()
 	b.calibration()

@@ -49,7 +49,7 @@ var (
 		"kg": lin(1), "g": lin(1e-3), "lb": lin(0.45359237), "lbs": lin(0.45359237)}, hint: `write "230 kg" or "500 lb"`}
 	dimPressure = &dimension{name: "pressure", si: "Pa", units: map[string]unitConv{
 		"pa": lin(1), "hpa": lin(100), "kpa": lin(1e3), "mbar": lin(100), "bar": lin(1e5), "psi": lin(6894.757),
-		"inhg": lin(3386.389), "atm": lin(101325)}, hint: `write "101.3 kPa" or "29.92 inHg"`}
+		"inhg": lin(3386.389), "atm": lin(101325), "inh2o": lin(249.08891), "mmh2o": lin(9.80665)}, hint: `write "101.3 kPa" or "29.92 inHg"`}
 	dimAngle = &dimension{name: "angle", si: "rad", units: map[string]unitConv{
 		"rad": lin(1), "deg": lin(math.Pi / 180), "°": lin(math.Pi / 180), "degrees": lin(math.Pi / 180)},
 		hint: `a bare number is radians; write "90 deg"`, needsUnit: true}
@@ -68,6 +68,15 @@ var (
 		hint: `write "150 W/mK"`}
 	dimConductance = &dimension{name: "thermal conductance", si: "W/K", units: map[string]unitConv{
 		"w/k": lin(1), "w/c": lin(1), "btu/h-f": lin(0.52752792), "btu/(h f)": lin(0.52752792)}, hint: `write "5 W/K"`}
+	dimVolumeFlow = &dimension{name: "volume flow", si: "m3/s", units: map[string]unitConv{
+		"m3/s": lin(1), "m^3/s": lin(1), "m3/h": lin(1.0 / 3600), "m3/min": lin(1.0 / 60), "l/s": lin(1e-3), "cfm": lin(0.00047194745)},
+		hint: `write "0.05 m3/s" or "100 cfm"`, needsUnit: true}
+	dimMassFlow = &dimension{name: "mass flow", si: "kg/s", units: map[string]unitConv{
+		"kg/s": lin(1), "g/s": lin(1e-3), "kg/h": lin(1.0 / 3600), "kg/min": lin(1.0 / 60), "lb/min": lin(0.45359237 / 60)},
+		hint: `write "0.08 kg/s"`, needsUnit: true}
+	dimRotation = &dimension{name: "rotational speed", si: "rev/s", units: map[string]unitConv{
+		"rpm": lin(1.0 / 60), "rev/min": lin(1.0 / 60), "rev/s": lin(1), "1/s": lin(1), "hz": lin(1)},
+		hint: `write "6000 rpm"`, needsUnit: true}
 	dimTime = &dimension{name: "time", si: "s", units: map[string]unitConv{
 		"s": lin(1), "sec": lin(1), "min": lin(60), "h": lin(3600)}, hint: `write "90 s" or "15 min"`, needsUnit: true}
 	dimSpecificHeat = &dimension{name: "specific heat", si: "J/(kg K)", units: map[string]unitConv{
@@ -184,6 +193,9 @@ type (
 	Conductivity struct{}
 	SpecificHeat struct{}
 	Conductance  struct{} // W/K
+	VolumeFlow   struct{} // m3/s
+	MassFlow     struct{} // kg/s
+	Rotation     struct{} // rev/s
 	Time         struct{} // s
 	TempDiff     struct{} // a temperature difference, K
 )
@@ -203,6 +215,9 @@ func (Density) dim() *dimension      { return dimDensity }
 func (Conductivity) dim() *dimension { return dimConductivity }
 func (SpecificHeat) dim() *dimension { return dimSpecificHeat }
 func (Conductance) dim() *dimension  { return dimConductance }
+func (VolumeFlow) dim() *dimension   { return dimVolumeFlow }
+func (MassFlow) dim() *dimension     { return dimMassFlow }
+func (Rotation) dim() *dimension     { return dimRotation }
 func (Time) dim() *dimension         { return dimTime }
 func (TempDiff) dim() *dimension     { return dimTempDiff }
 

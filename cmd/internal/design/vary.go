@@ -57,7 +57,7 @@ func VaryKeys() []string {
 	var out []string
 	for tbl, keys := range schema() {
 		// the [ride] masses play no part in a steady estimate
-		if tbl == "" || strings.Contains(tbl, "*") || tbl == "alloys" || tbl == "ride" {
+		if tbl == "" || strings.Contains(tbl, "*") || tbl == "alloys" || tbl == "ride" || tbl == "fan_point" {
 			continue
 		}
 		for _, k := range keys {

@@ -66,6 +66,10 @@ const (
 	SpecHeat                 // specific heat: J/kgK or Btu/lb-F
 	PerWidth                 // heat rate per width of a straight fin: W/m or Btu/h-ft
 	Engine                   // engine and road power: kW or hp
+	VolFlow                  // volume flow: m3/s or cfm
+	Drop                     // a fan's or duct's pressure: Pa or inH2O
+	Rot                      // rotational speed: rpm (both)
+	MassFlow                 // kg/s or lb/min
 )
 
 // display is one display unit: value = (SI - off) mul / div + add, written
@@ -99,6 +103,10 @@ var units = [...][2]display{
 	SpecHeat: {{"J/kgK", 0, 1, 1, 0, 0}, {"Btu/lb-F", 0, 1, 4186.8, 0, 0}},
 	PerWidth: {{"W/m", 0, 1, 1, 0, 0}, {"Btu/h-ft", 0, 0.3048, 0.29307107, 0, 0}},
 	Engine:   {{"kW", 0, 1, 1000, 0, 0}, {"hp", 0, 1, 745.69987, 0, 0}},
+	VolFlow:  {{"m3/s", 0, 1, 1, 0, 0}, {"cfm", 0, 1, 0.00047194745, 0, 0}},
+	Drop:     {{"Pa", 0, 1, 1, 0, 0}, {"inH2O", 0, 1, 249.08891, 0, 0}},
+	Rot:      {{"rpm", 0, 60, 1, 0, 0}, {"rpm", 0, 60, 1, 0, 0}},
+	MassFlow: {{"kg/s", 0, 1, 1, 0, 0}, {"lb/min", 0, 60, 0.45359237, 0, 0}},
 }
 
 func (u Units) display(q Quantity) display {
