@@ -278,7 +278,7 @@ func (e *env) optimumDoc(d *design.Design, pr optimise.Problem, sol optimise.Sol
 	if goal == "light" {
 		g.Rows = append(g.Rows, []string{"limit", u.Name(output.Temp), "", fmtT(u, pr.Limit), ""})
 	}
-	checks := constraints(pr, sol, label)
+	checks := pr.Constraints(sol, label)
 	c := constraintGrid(checks, u)
 	fg := frontGrid(pr, sol, u, label)
 	keepNote := "The other fin set and everything else stay as the design has them; check the result with 'finmarch estimate' after editing the design."
@@ -322,76 +322,8 @@ func (e *env) optimumDoc(d *design.Design, pr optimise.Problem, sol optimise.Sol
 	return doc
 }
 
-// constraint is one row of the constraints at the optimum, in SI: a
-// casting limit, a bound the optimum sits on, or a temperature limit.
-type constraint struct {
-	Name   string      `json:"name"`
-	Kind   string      `json:"kind"` // casting, bound or temperature
-	Unit   string      `json:"unit"` // m, rad, K, - (a ratio) or count
-	Limit  float64     `json:"limit"`
-	Value  float64     `json:"value"`
-	Slack  float64     `json:"slack"` // in Unit; 0 or less is active or broken
-	Active bool        `json:"active"`
-	Range  *[2]float64 `json:"range,omitempty"` // a bound's variable range
-}
-
-// constraints lists the casting limits, the bounds the optimum sits on
-// and the temperature limits at the optimum, each in its own SI unit.
-func constraints(pr optimise.Problem, sol optimise.Solution, label func(int, string) string) []constraint {
-	p, opt := pr.Process, sol.Optimum
-	out := []constraint{}
-	for k, vs := range pr.Vars {
-		s := pr.Set(k, opt.X)
-		for _, v := range p.Check(s) {
-			c := constraint{Name: label(k, v.Constraint), Kind: "casting"}
-			switch v.Constraint {
-			case "minimum thickness":
-				c.Unit, c.Limit, c.Value = "m", p.MinThickness, s.TipThickness
-			case "height to gap":
-				c.Unit, c.Limit, c.Value = "-", p.MaxAspect, s.Height/(s.Pitch-s.RootThickness)
-			case "draft":
-				c.Unit, c.Limit, c.Value = "rad", p.MinDraft, math.Atan((s.RootThickness-s.TipThickness)/(2*s.Height))
-			}
-			c.Slack = c.Value - c.Limit
-			if c.Unit == "-" {
-				c.Slack = -c.Slack // a most, not a least
-			}
-			// active: within 2% of the limit's own size (the check's slack)
-			scale := map[string]float64{"minimum thickness": p.MinThickness, "height to gap": p.MaxAspect, "draft": math.Tan(p.MinDraft)}[v.Constraint]
-			c.Active = v.Slack <= 0.02*scale+1e-9
-			out = append(out, c)
-		}
-		for i, v := range vs {
-			xi := opt.X[5*k+i]
-			span := v.Hi - v.Lo
-			if span > 0 && (xi-v.Lo <= 1e-3*span || v.Hi-xi <= 1e-3*span) {
-				c := constraint{Name: label(k, v.Name+" bound"), Kind: "bound", Unit: "m", Limit: v.Lo, Value: xi, Active: true, Range: &[2]float64{v.Lo, v.Hi}}
-				if v.Hi-xi < xi-v.Lo {
-					c.Limit = v.Hi
-				}
-				if v.Integer {
-					c.Unit = "count"
-				}
-				out = append(out, c)
-			}
-		}
-	}
-	primary, other := optimise.SetNames[pr.Primary()], optimise.SetNames[pr.Other()]
-	if pr.Goal == optimise.GoalLight {
-		out = append(out, constraint{Name: primary + " temperature limit", Kind: "temperature", Unit: "K", Limit: pr.Limit, Value: opt.Wall, Slack: pr.Limit - opt.Wall, Active: pr.Limit-opt.Wall < 1})
-	}
-	if sol.GuardOther {
-		name := other + " temperature limit"
-		if !pr.Both() {
-			name += " (series air)"
-		}
-		out = append(out, constraint{Name: name, Kind: "temperature", Unit: "K", Limit: sol.OtherLimit, Value: opt.Other, Slack: sol.OtherLimit - opt.Other, Active: sol.OtherLimit-opt.Other < 1})
-	}
-	return out
-}
-
 // constraintGrid shows the constraints in the display units.
-func constraintGrid(cs []constraint, u output.Units) output.Grid {
+func constraintGrid(cs []optimise.Constraint, u output.Units) output.Grid {
 	L := func(v float64) string {
 		return u.N(u.Of(output.Len, v), u.Dec(output.Len)+1) + " " + u.Name(output.Len)
 	}

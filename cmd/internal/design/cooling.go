@@ -8,6 +8,32 @@ import (
 	"finmarch/fins"
 )
 
+// CoolingT is the [cooling] table: where the cooling air comes from (ram
+// air when absent; a duct; a fan in a shroud, whose curve is the
+// [[fan_point]]s).
+type CoolingT struct {
+	Source      string      `toml:"source"`
+	Drop        Q[Pressure] `toml:"drop"`
+	MassFlow    Q[MassFlow] `toml:"mass_flow"`
+	Route       string      `toml:"route"`
+	CurveSpeed  Q[Rotation] `toml:"fan_curve_speed"`
+	FanRatio    Q[Fraction] `toml:"fan_ratio"`
+	EngineSpeed Q[Rotation] `toml:"engine_speed"`
+	IdleSpeed   Q[Rotation] `toml:"idle_speed"`
+	RatedSpeed  Q[Rotation] `toml:"rated_speed"`
+	ShroudLoss  Q[Fraction] `toml:"shroud_loss"`
+	ShroudArea  Q[Area]     `toml:"shroud_area"`
+	Leakage     Q[Fraction] `toml:"leakage"`
+}
+
+// FanPointT is one [[fan_point]] of the fan's curve, at fan_curve_speed in
+// standard air.
+type FanPointT struct {
+	Flow       Q[VolumeFlow] `toml:"flow"`
+	Pressure   Q[Pressure]   `toml:"pressure"`
+	Efficiency Q[Fraction]   `toml:"efficiency"`
+}
+
 // cooling reads the [cooling] table and the [[fan_point]]s into the case's
 // air supply: ram air when the table is absent or says so, a duct, or a
 // fan in a shroud. A key that the chosen source does not use is an error,

@@ -142,40 +142,6 @@ type MeasurementT struct {
 	Sigma    Q[TempDiff]    `toml:"uncertainty"`
 }
 
-// RideT is the [ride] table: the metal of head and barrel besides the
-// fins and the head-barrel link, for 'finmarch ride' (airflow/transient).
-type RideT struct {
-	HeadMetal   Q[Mass]        `toml:"head_metal"`
-	BarrelMetal Q[Mass]        `toml:"barrel_metal"`
-	Link        Q[Conductance] `toml:"head_barrel_link"`
-}
-
-// CoolingT is the [cooling] table: where the cooling air comes from (ram
-// air when absent; a duct; a fan in a shroud, whose curve is the
-// [[fan_point]]s).
-type CoolingT struct {
-	Source      string      `toml:"source"`
-	Drop        Q[Pressure] `toml:"drop"`
-	MassFlow    Q[MassFlow] `toml:"mass_flow"`
-	Route       string      `toml:"route"`
-	CurveSpeed  Q[Rotation] `toml:"fan_curve_speed"`
-	FanRatio    Q[Fraction] `toml:"fan_ratio"`
-	EngineSpeed Q[Rotation] `toml:"engine_speed"`
-	IdleSpeed   Q[Rotation] `toml:"idle_speed"`
-	RatedSpeed  Q[Rotation] `toml:"rated_speed"`
-	ShroudLoss  Q[Fraction] `toml:"shroud_loss"`
-	ShroudArea  Q[Area]     `toml:"shroud_area"`
-	Leakage     Q[Fraction] `toml:"leakage"`
-}
-
-// FanPointT is one [[fan_point]] of the fan's curve, at fan_curve_speed in
-// standard air.
-type FanPointT struct {
-	Flow       Q[VolumeFlow] `toml:"flow"`
-	Pressure   Q[Pressure]   `toml:"pressure"`
-	Efficiency Q[Fraction]   `toml:"efficiency"`
-}
-
 // AlloyT is one [alloys.NAME] table: a custom alloy.
 type AlloyT struct {
 	Conductivity      Q[Conductivity] `toml:"conductivity"`

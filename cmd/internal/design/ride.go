@@ -11,6 +11,14 @@ import (
 	"finmarch/airflow/transient"
 )
 
+// RideT is the [ride] table: the metal of head and barrel besides the
+// fins and the head-barrel link, for 'finmarch ride' (airflow/transient).
+type RideT struct {
+	HeadMetal   Q[Mass]        `toml:"head_metal"`
+	BarrelMetal Q[Mass]        `toml:"barrel_metal"`
+	Link        Q[Conductance] `toml:"head_barrel_link"`
+}
+
 // rideColumns are the columns a ride file may have, with the dimension and
 // the allowed range (SI) of each.
 var rideColumns = map[string]struct {
