@@ -98,18 +98,25 @@ func (p *prepared) flows() error {
 	}
 	q := c.Recovery * 0.5 * p.amb.Rho * c.Speed * c.Speed
 	drive := func(st *setState) float64 { return q * sq(st.pt.Component/math.Max(c.Speed, 1e-300)) }
+	return p.setFlows(drive(&p.sets[head]), drive(&p.sets[barrel]))
+}
+
+// setFlows solves the mass flow per path of each set from the pressure
+// difference driving its passages (Pa): on a series path the head's drives
+// the head and then the barrel passages.
+func (p *prepared) setFlows(dpHead, dpBarrel float64) error {
 	h, b := &p.sets[head], &p.sets[barrel]
 	if p.series {
-		w, err := p.seriesFlow(drive(h))
+		w, err := p.seriesFlow(dpHead)
 		if err != nil {
 			return err
 		}
 		h.mdot, b.mdot = w/float64(h.pt.Paths), w/float64(b.pt.Paths)
 		return nil
 	}
-	for _, st := range []*setState{h, b} {
+	for i, st := range []*setState{h, b} {
 		var err error
-		if st.mdot, err = p.parallelFlow(st.pt, drive(st)); err != nil {
+		if st.mdot, err = p.parallelFlow(st.pt, []float64{dpHead, dpBarrel}[i]); err != nil {
 			return fmt.Errorf("%s passages: %w", st.fs.Name, err)
 		}
 	}

@@ -79,7 +79,6 @@ func (s Supply) validate(c Case) error {
 // mass flow; a fan's operating point), then the passages' own hydraulics.
 func (p *prepared) ductFlows() error {
 	s := p.c.Supply
-	h, b := &p.sets[head], &p.sets[barrel]
 	dp := s.Drop
 	switch {
 	case s.Kind == SupplyFan:
@@ -96,21 +95,7 @@ func (p *prepared) ductFlows() error {
 		}
 	}
 	p.drop = dp
-	if s.Series {
-		w, err := p.seriesFlow(dp)
-		if err != nil {
-			return err
-		}
-		h.mdot, b.mdot = w/float64(h.pt.Paths), w/float64(b.pt.Paths)
-		return nil
-	}
-	for _, st := range []*setState{h, b} {
-		var err error
-		if st.mdot, err = p.parallelFlow(st.pt, dp); err != nil {
-			return fmt.Errorf("%s passages: %w", st.fs.Name, err)
-		}
-	}
-	return nil
+	return p.setFlows(dp, dp)
 }
 
 // totalFlow is the mass flow through both fin sets at a pressure

@@ -195,6 +195,17 @@ func (e *env) marchFigure(ds []*design.Design) (*plots.Figure, error) {
 		"position along the air path ("+u.Name(output.Len)+")", "air temperature ("+u.Name(output.Temp)+")", "local heat flux (k"+u.Name(output.Flux)+")", temp, flux)
 }
 
+// addLimits adds a design's head and barrel limits to a figure's dotted
+// lines, by their labels (designs with the same limits share a line).
+func addLimits(limits map[string]float64, u output.Units, d *design.Design) {
+	for _, l := range []struct {
+		set string
+		k   float64
+	}{{"head", d.HeadLimit}, {"barrel", d.BarrelLimit}} {
+		limits[fmt.Sprintf("%s limit %s %s", l.set, u.N(u.Of(output.Temp, l.k), 0), u.Name(output.Temp))] = u.Of(output.Temp, l.k)
+	}
+}
+
 func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.Figure, error) {
 	_, u, err := e.settings()
 	if err != nil {
@@ -246,8 +257,7 @@ func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.F
 			}
 		}
 		lines = append(lines, h, b, lo, hi, end)
-		limits[fmt.Sprintf("head limit %s %s", u.N(u.Of(output.Temp, d.HeadLimit), 0), u.Name(output.Temp))] = u.Of(output.Temp, d.HeadLimit)
-		limits[fmt.Sprintf("barrel limit %s %s", u.N(u.Of(output.Temp, d.BarrelLimit), 0), u.Name(output.Temp))] = u.Of(output.Temp, d.BarrelLimit)
+		addLimits(limits, u, d)
 		names = append(names, letter(i)+": "+short(d.Name))
 	}
 	if len(limits) > 3 { // keep the legend readable

@@ -77,8 +77,7 @@ func (e *env) rideFigure(ds []*design.Design, name string, ride []transient.Segm
 			n := len(tr.Samples) - 1
 			lines = append(lines, plots.Series{Label: letter(i) + ": no equilibrium beyond", X: []float64{tr.Samples[n].Time / 60}, Y: []float64{u.Of(output.Temp, tr.Samples[n].Head)}, Design: i, Marks: true})
 		}
-		limits[fmt.Sprintf("head limit %s %s", u.N(u.Of(output.Temp, d.HeadLimit), 0), u.Name(output.Temp))] = u.Of(output.Temp, d.HeadLimit)
-		limits[fmt.Sprintf("barrel limit %s %s", u.N(u.Of(output.Temp, d.BarrelLimit), 0), u.Name(output.Temp))] = u.Of(output.Temp, d.BarrelLimit)
+		addLimits(limits, u, d)
 		names = append(names, letter(i)+": "+short(d.Name))
 	}
 	return plots.Speeds("Wall temperature through the ride "+name+"\n"+strings.Join(names, "    "),

@@ -30,17 +30,9 @@ var pointColumns = map[string]*dimension{
 // design's altitude, for rows without one. Every problem is reported with
 // the file, the line and the column.
 func ReadPoints(src []byte, name string, alt float64) ([]calibrate.Point, error) {
-	if len(src) > MaxFileSize {
-		return nil, TooLarge(name, int64(len(src)))
-	}
-	if line, msg := textProblem(src); line > 0 {
-		return nil, Errors{{File: name, Line: line, Msg: msg}}
-	}
-	r := csv.NewReader(bytes.NewReader(src))
-	r.Comment, r.FieldsPerRecord, r.TrimLeadingSpace = '#', -1, true
-	head, err := r.Read()
+	r, head, err := openCSV(src, name, "no header row: name the columns, e.g. speed (km/h),ambient (C),head (C),place,offset (K)")
 	if err != nil {
-		return nil, Errors{csvError(err, name, "no header row: name the columns, e.g. speed (km/h),ambient (C),head (C),place,offset (K)")}
+		return nil, err
 	}
 	cols, units, errs := pointHeader(head, name, r)
 	if len(errs) > 0 {
@@ -180,6 +172,25 @@ func exampleUnit(col string) string {
 		return "K"
 	}
 	return "C"
+}
+
+// openCSV checks a CSV file's size and text and reads its header row
+// (lines starting with # are comments; rows may differ in length);
+// noHeader is the message for a file without one.
+func openCSV(src []byte, name, noHeader string) (*csv.Reader, []string, error) {
+	if len(src) > MaxFileSize {
+		return nil, nil, TooLarge(name, int64(len(src)))
+	}
+	if line, msg := textProblem(src); line > 0 {
+		return nil, nil, Errors{{File: name, Line: line, Msg: msg}}
+	}
+	r := csv.NewReader(bytes.NewReader(src))
+	r.Comment, r.FieldsPerRecord, r.TrimLeadingSpace = '#', -1, true
+	head, err := r.Read()
+	if err != nil {
+		return nil, nil, Errors{csvError(err, name, noHeader)}
+	}
+	return r, head, nil
 }
 
 // csvError places a CSV syntax error on its line.

@@ -1,7 +1,6 @@
 package design
 
 import (
-	"bytes"
 	"encoding/csv"
 	"fmt"
 	"io"
@@ -50,17 +49,9 @@ const MaxRideRows = 86400
 // increase. Lines starting with # are comments. Every problem is reported
 // with the file, the line and the column.
 func ReadRide(src []byte, name string) ([]transient.Segment, error) {
-	if len(src) > MaxFileSize {
-		return nil, TooLarge(name, int64(len(src)))
-	}
-	if line, msg := textProblem(src); line > 0 {
-		return nil, Errors{{File: name, Line: line, Msg: msg}}
-	}
-	r := csv.NewReader(bytes.NewReader(src))
-	r.Comment, r.FieldsPerRecord, r.TrimLeadingSpace = '#', -1, true
-	head, err := r.Read()
+	r, head, err := openCSV(src, name, "no header row: name the columns, e.g. time (s),speed (km/h),grade (%)")
 	if err != nil {
-		return nil, Errors{csvError(err, name, "no header row: name the columns, e.g. time (s),speed (km/h),grade (%)")}
+		return nil, err
 	}
 	cols, units, errs := rideHeader(head, name, r)
 	if len(errs) > 0 {
