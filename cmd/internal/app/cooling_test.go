@@ -88,6 +88,7 @@ func TestCoolingRefused(t *testing.T) {
 		{"top_gear_speed = \"95 km/h\"", "", "load.top_gear_speed"},
 		{`# route = "parallel"`, `route = "series"`, "cooling.route: series (head fins, then barrel fins) needs longitudinal fins"},
 		{`fan_curve_speed = "6000 rpm"`, `fan_curve_speed = "6000"`, "cooling.fan_curve_speed"},
+		{`flow = "0.05 m3/s"`, `flow = "-0.05 m3/s"`, "fan_point[2].flow: -0.05"},
 	} {
 		if !strings.Contains(src, c.old) {
 			t.Fatalf("the fan demo lacks %q", c.old)
@@ -100,5 +101,15 @@ func TestCoolingRefused(t *testing.T) {
 		if code != ExitDesign || !strings.Contains(errs, c.want) || !strings.Contains(errs, "bad.toml:") {
 			t.Errorf("%s -> %s: exit %d %s", c.old, c.new, code, errs)
 		}
+	}
+	// one point: the curve is cut after its first [[fan_point]]
+	i := strings.Index(src, "[[fan_point]]")
+	j := i + strings.Index(src[i+1:], "[[fan_point]]") + 1
+	p := filepath.Join(dir, "one.toml")
+	if err := os.WriteFile(p, []byte(src[:j]), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if _, errs, code := run(t, "estimate", p); code != ExitDesign || !strings.Contains(errs, "two or more [[fan_point]] tables") {
+		t.Errorf("one point: exit %d %s", code, errs)
 	}
 }
