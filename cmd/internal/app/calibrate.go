@@ -2,12 +2,14 @@ package app
 
 import (
 	"fmt"
+	"slices"
 	"strconv"
 	"strings"
 
 	"github.com/spf13/cobra"
 
 	"finmarch/airflow/calibrate"
+	"finmarch/airflow/cylinder"
 	"finmarch/airflow/uncertainty"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
@@ -16,9 +18,18 @@ import (
 func (e *env) calibrateCmd() *cobra.Command {
 	var fit, write, points string
 	cmd := e.oneDesign("calibrate DESIGN.toml [--points READINGS.csv] [--fit recovery[,forced,load,offset]] [--write CALIBRATED.toml]", "Fit the design's pressure recovery (and more) to head or barrel temperatures measured on the engine", func(d *design.Design) error {
+		ducted := d.Case.Supply.Kind != cylinder.SupplyRam
+		if fit == "" {
+			// a duct or a fan drives the air: the road's pressure recovery
+			// plays no part, the forced convection factor takes its place
+			fit = map[bool]string{false: "recovery", true: "forced"}[ducted]
+		}
 		names, err := fitNames(fit)
 		if err != nil {
 			return err
+		}
+		if ducted && slices.Contains(names, calibrate.Recovery) {
+			return fail(ExitUsage, fmt.Errorf("--fit recovery: %s takes its cooling air from a %s ([cooling]), where the road's pressure recovery plays no part; fit forced (the forced convection factor) instead", d.Name, d.Case.Supply.Kind))
 		}
 		if points != "" {
 			src, err := readInput(points, "points file")
@@ -37,7 +48,8 @@ func (e *env) calibrateCmd() *cobra.Command {
 	cmd.Long = `calibrate fits the design's poorly known parameters to the temperatures measured on the
 running engine, given in the design as [[measurement]] tables (speed, ambient, altitude,
 head or barrel, place fin-root or plug-seat with its offset, uncertainty). It fits the
-pressure recovery; --fit adds the forced convection factor (forced), the heat load factor
+pressure recovery (with a duct or a fan, [cooling], the forced convection factor instead);
+--fit adds the forced convection factor (forced), the heat load factor
 (load) or the offset of the measuring place (offset), when the points can tell them
 apart, and refuses a fit they cannot. It prints the fitted values with their standard
 errors and each point's residual; --write writes the calibrated design (the fitted values
@@ -57,7 +69,7 @@ per row; # starts a comment.
   speed (km/h),ambient (C),head (C),place,offset (K),uncertainty (K)
   90,28,204,plug-seat,15,5
   60,24,168,plug-seat,15,5`
-	cmd.Flags().StringVar(&fit, "fit", "recovery", "parameters to fit: recovery, forced, load, offset (comma-separated)")
+	cmd.Flags().StringVar(&fit, "fit", "", "parameters to fit: recovery, forced, load, offset (comma-separated; default recovery, or forced with a duct or a fan)")
 	cmd.Flags().StringVar(&write, "write", "", "write the calibrated design to this file")
 	cmd.Flags().StringVar(&points, "points", "", "CSV file of measured points, added to the design's [[measurement]] tables")
 	return cmd

@@ -113,3 +113,21 @@ func TestCoolingRefused(t *testing.T) {
 		t.Errorf("one point: exit %d %s", code, errs)
 	}
 }
+
+// Calibrating a fan-cooled design fits the forced convection factor (the
+// road's pressure recovery plays no part inside a shroud), and asking for
+// the recovery is refused, saying why.
+func TestCalibrateFanCooled(t *testing.T) {
+	src := string(demo.ScooterFan) + "\n[[measurement]]\nspeed = \"60 km/h\"\nambient = \"30 C\"\nhead = \"150 C\"\n\n[[measurement]]\nspeed = \"80 km/h\"\nambient = \"30 C\"\nhead = \"205 C\"\n"
+	p := filepath.Join(t.TempDir(), "measured.toml")
+	if err := os.WriteFile(p, []byte(src), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	out, errs, code := run(t, "calibrate", p, "-q")
+	if code != 0 || !strings.Contains(out, "forced convection factor") || strings.Contains(out, "pressure recovery |") {
+		t.Errorf("exit %d %s\n%s", code, errs, out)
+	}
+	if _, errs, code := run(t, "calibrate", p, "--fit", "recovery"); code != ExitUsage || !strings.Contains(errs, "plays no part") {
+		t.Errorf("--fit recovery: exit %d %s", code, errs)
+	}
+}
