@@ -11,6 +11,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"finmarch/airflow/cylinder"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
 	"finmarch/cmd/internal/plots"
@@ -171,6 +172,14 @@ func (e *env) report(ds []*design.Design) ([]byte, error) {
 		}
 		return e.rideFigure(ds, reportRide, ride, "cold")
 	}, "Heat soak: wall temperature at the fin roots through the built-in ride " + reportRide + " from cold (20 min at 90 km/h, then 15 min standing at idle), with the limits dotted ('finmarch ride' for other rides)."})
+	for _, d := range ds {
+		if d.Case.Supply.Kind == cylinder.SupplyFan {
+			figs = append(figs, struct {
+				make    func() (*plots.Figure, error)
+				caption string
+			}{func() (*plots.Figure, error) { return e.fanFigure(d) }, "The fan of " + d.Name + ": its curve at the running speed (fan laws) against the pressure the shroud and fins need, at cruise and at idle, each operating point marked."})
+		}
+	}
 	if len(ds) > 1 {
 		figs = append(figs, struct {
 			make    func() (*plots.Figure, error)
