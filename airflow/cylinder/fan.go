@@ -179,6 +179,10 @@ func (p *prepared) fanPoint() (FanPointResult, error) {
 	}
 	q, pf, shroud := at(dp)
 	op.Flow, op.Pressure, op.Shroud, op.Drop = q, pf, shroud, dp
+	// the curve's own range, at its speed: past the last point the last
+	// segment's straight line is carried on, which the maker did not measure
+	r := n / f.CurveSpeed
+	p.log.Check("fan curve", "flow at the curve's speed (m3/s)", q/r, f.Curve[0].Flow, f.Curve[len(f.Curve)-1].Flow)
 	op.MassFlow = rho * q * (1 - f.Leakage)
 	op.AirPower = q * pf
 	op.Efficiency = f.Efficiency(q, n)

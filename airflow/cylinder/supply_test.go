@@ -225,3 +225,21 @@ func TestSupplyRefused(t *testing.T) {
 		}
 	}
 }
+
+// A fan driven past the last point of its curve is still answered (the
+// last segment carried on) with a range warning naming the curve.
+func TestFanPastItsCurve(t *testing.T) {
+	c := fanCase(t, 60/3.6)
+	c.Supply.Fan.Curve = []FanPoint{{0, 620, 0}, {0.01, 600, 0}, {0.02, 550, 0}} // the curve stops short of free delivery
+	r, err := c.AtWall(450, 400, Settings{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	found := false
+	for _, w := range r.Warnings {
+		found = found || w.Correlation == "fan curve"
+	}
+	if !found || r.Supply == nil || !(r.Supply.Fan.Flow > 0.02*r.Supply.Fan.Speed/c.Supply.Fan.CurveSpeed) {
+		t.Errorf("warnings %v, fan %+v", r.Warnings, r.Supply.Fan)
+	}
+}
