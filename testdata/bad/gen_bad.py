@@ -171,6 +171,16 @@ repl('missing-diameter', 'head_diameter = "120 mm"\n', '', 'cylinder.head_diamet
 repl('segments-zero', 'name = "corpus base"', 'name = "corpus base"\nsegments = 0', 'allowed 1 to 10000', line=2)
 repl('override-wall-below-ambient', '[limits]', '[override]\nhead_wall = "20 C"\nbarrel_wall = "150 C"\n\n[limits]', 'not above the ambient', line=None, mark='head_wall')
 
+# cooling air ([cooling], [[fan_point]]) and the ride's masses ([ride])
+repl('cooling-source-unknown', '[limits]', '[cooling]\nsource = "blower"\n\n[limits]', 'use ram (the default), duct or fan', mark='source')
+repl('cooling-duct-both', '[limits]', '[cooling]\nsource = "duct"\ndrop = "1 kPa"\nmass_flow = "0.1 kg/s"\n\n[limits]', 'one of them', line=0)
+repl('cooling-duct-drop-range', '[limits]', '[cooling]\nsource = "duct"\ndrop = "90 kPa"\n\n[limits]', 'cooling.drop', mark='drop')
+repl('cooling-key-unused', '[limits]', '[cooling]\nsource = "ram"\nleakage = 0.1\n\n[limits]', 'not used with source = "ram"', mark='leakage')
+repl('cooling-route-series-annular', '[limits]', '[cooling]\nsource = "duct"\ndrop = "1 kPa"\nroute = "series"\n\n[limits]', 'needs longitudinal fins', mark='route')
+repl('fan-curve-missing', '[limits]', '[cooling]\nsource = "fan"\nfan_curve_speed = "6000 rpm"\nengine_speed = "5000 rpm"\n\n[limits]', 'two or more [[fan_point]] tables', line=0)
+repl('fan-point-pressure-rising', 'name = "corpus base"', 'name = "corpus base"\n\n[cooling]\nsource = "fan"\nfan_curve_speed = "6000 rpm"\nengine_speed = "5000 rpm"\n\n[[fan_point]]\nflow = "0 m3/s"\npressure = "500 Pa"\n\n[[fan_point]]\nflow = "0.05 m3/s"\npressure = "700 Pa"', 'rises above the point before', mark='pressure = "700')
+repl('ride-metal-range', '[limits]', '[ride]\nhead_metal = "300 kg"\n\n[limits]', 'ride.head_metal', mark='head_metal')
+
 out = []
 for name, src, code, line, frag in cases:
     fn = name + '.toml'
