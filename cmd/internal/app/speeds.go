@@ -41,6 +41,10 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 	if err != nil {
 		return err
 	}
+	fan := d.Case.Supply.Kind == cylinder.SupplyFan
+	if fan {
+		g.Header = append(g.Header, "fan flow ("+u.Name(output.VolFlow)+")", "fan power ("+u.Name(output.Power)+")")
+	}
 	if n > 0 && !d.WallFixed {
 		g.Header = append(g.Header, "head 5 % to 95 % ("+T+")", "chance over (%)")
 	}
@@ -69,6 +73,10 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 		}
 		row := []string{u.N(u.Of(output.Road, v), 0), u.N(u.Of(output.Power, o.Result.Head.HeatLoad), 0), u.N(u.Of(output.Power, o.Result.Barrel.HeatLoad), 0),
 			ht, bt, margin, st}
+		if fan {
+			f := o.Result.Supply.Fan
+			row = append(row, u.N(u.Of(output.VolFlow, f.Flow), 4), u.N(u.Of(output.Power, f.Power), 1))
+		}
 		band, err := e.band(d, v)
 		if err != nil {
 			return err
