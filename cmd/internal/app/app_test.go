@@ -80,6 +80,7 @@ func TestGoldenOutputs(t *testing.T) {
 		{"sweep.csv", []string{"sweep", "-f", "csv", "--workers", "1", "--vary", "head.pitch=7mm:11mm:2mm", "--vary", "air.ambient=20C:40C:20C", up}},
 		{"optimise.txt", []string{"optimise", "--goal", "cool", "--pitch", "8mm:12mm", "--count", "6:8", up}},
 		{"ride.txt", []string{"ride", "--profile", "mountain-pass", "--every", "5 min", up}},
+		{"demo-fan.txt", []string{"demo", "--fan"}},
 	}
 	for _, c := range cases {
 		out, errs, code := run(t, c.args...)
