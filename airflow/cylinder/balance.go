@@ -22,6 +22,13 @@ func (c Case) Balance(load HeatLoad, s Settings) (Result, error) {
 	if err != nil {
 		return Result{}, err
 	}
+	return p.balance(load, &log)
+}
+
+// balance is Balance on a prepared case (its flows, and a fan's operating
+// point, already solved), recording warnings in log.
+func (p *prepared) balance(load HeatLoad, log *validity.Log) (Result, error) {
+	c := p.c
 	if !(load.Head >= 0) || !(load.Barrel >= 0) || math.IsInf(load.Head, 0) || math.IsInf(load.Barrel, 0) {
 		return Result{}, fmt.Errorf("heat load must be finite and not negative (head %g W, barrel %g W)", load.Head, load.Barrel)
 	}
@@ -36,7 +43,7 @@ func (c Case) Balance(load HeatLoad, s Settings) (Result, error) {
 		// the head never reaches: the barrel's wall is not determined
 		br.Equilibrium = false
 	}
-	res := p.result(hr, br, &log, errH == nil && errB == nil)
+	res := p.result(hr, br, log, errH == nil && errB == nil)
 	return res, errors.Join(errH, errB)
 }
 

@@ -97,13 +97,24 @@ func (f *Fan) curveDensity() float64 {
 // laws; past the curve's last point the last segment's slope carries on
 // (a fan past free delivery resists the flow).
 func (f *Fan) Pressure(q, n, rho float64) float64 {
-	r, d := n/f.CurveSpeed, rho/f.curveDensity()
+	return f.pressureCurve().pressure(f, q, n, rho)
+}
+
+// pressureCurve is the interpolant of the fan's pressure against flow at
+// its curve's speed, built once for the many evaluations of a solve.
+func (f *Fan) pressureCurve() *monotone {
 	x := make([]float64, len(f.Curve))
 	y := make([]float64, len(f.Curve))
 	for i, p := range f.Curve {
 		x[i], y[i] = p.Flow, p.Pressure
 	}
-	return d * r * r * pchip(x, y, q/r)
+	return newMonotone(x, y)
+}
+
+// pressure is Fan.Pressure on the fan's interpolant m.
+func (m *monotone) pressure(f *Fan, q, n, rho float64) float64 {
+	r, d := n/f.CurveSpeed, rho/f.curveDensity()
+	return d * r * r * m.at(q/r)
 }
 
 // Efficiency is the fan's static efficiency at inlet flow q running at n
@@ -121,7 +132,7 @@ func (f *Fan) Efficiency(q, n float64) float64 {
 	}
 	qs := q / (n / f.CurveSpeed)
 	qs = math.Min(math.Max(qs, x[0]), x[len(x)-1]) // no extrapolation of an efficiency
-	return pchip(x, y, qs)
+	return newMonotone(x, y).at(qs)
 }
 
 // FanPointResult is a fan's operating point.
@@ -149,7 +160,8 @@ func (p *prepared) fanPoint() (FanPointResult, error) {
 	if !(n > 0) {
 		return op, nil
 	}
-	shut := f.Pressure(0, n, rho)
+	curve := f.pressureCurve()
+	shut := curve.pressure(f, 0, n, rho)
 	var ferr error
 	at := func(dp float64) (q, pf, shroud float64) {
 		w, err := p.totalFlow(dp)
@@ -161,7 +173,7 @@ func (p *prepared) fanPoint() (FanPointResult, error) {
 			v := q / f.ShroudArea
 			shroud = f.ShroudLoss * 0.5 * rho * v * v
 		}
-		return q, f.Pressure(q, n, rho), shroud
+		return q, curve.pressure(f, q, n, rho), shroud
 	}
 	g := func(dp float64) float64 {
 		_, pf, shroud := at(dp)
@@ -229,15 +241,42 @@ func (c Case) SystemPressure(s Settings, q float64) (float64, error) {
 	return dp + f.ShroudLoss*0.5*rho*v*v, nil
 }
 
-// pchip interpolates (x, y), x increasing, at t by the monotone piecewise
-// cubic Hermite interpolant (F. N. Fritsch and R. E. Carlson, "Monotone
+// monotone is the monotone piecewise cubic Hermite interpolant (pchip) of
+// (x, y), x increasing (F. N. Fritsch and R. E. Carlson, "Monotone
 // piecewise cubic interpolation", SIAM J. Numer. Anal. 17 (1980) 238-246),
 // with the interior slopes of Fritsch and Butland's weighted harmonic mean
 // and the one-sided three-point end slopes, as scipy's PchipInterpolator
-// computes them; it preserves the data's monotonicity. Outside [x0, xn]
-// it carries on along the end segment's straight line.
-func pchip(x, y []float64, t float64) float64 {
+// computes them; it preserves the data's monotonicity. Outside [x0, xn] it
+// carries on along the end segment's straight line.
+type monotone struct{ x, y, h, d []float64 }
+
+func newMonotone(x, y []float64) *monotone {
 	n := len(x)
+	m := &monotone{x: x, y: y, h: make([]float64, n-1), d: make([]float64, n)}
+	if n == 2 {
+		return m // a straight line
+	}
+	del := make([]float64, n-1)
+	for i := 0; i < n-1; i++ {
+		m.h[i] = x[i+1] - x[i]
+		del[i] = (y[i+1] - y[i]) / m.h[i]
+	}
+	h := m.h
+	for k := 1; k < n-1; k++ {
+		if del[k-1]*del[k] <= 0 {
+			continue
+		}
+		w1, w2 := 2*h[k]+h[k-1], h[k]+2*h[k-1]
+		m.d[k] = (w1 + w2) / (w1/del[k-1] + w2/del[k])
+	}
+	m.d[0] = pchipEnd(h[0], h[1], del[0], del[1])
+	m.d[n-1] = pchipEnd(h[n-2], h[n-3], del[n-2], del[n-3])
+	return m
+}
+
+// at evaluates the interpolant at t.
+func (m *monotone) at(t float64) float64 {
+	x, y, n := m.x, m.y, len(m.x)
 	if n == 2 || t <= x[0] || t >= x[n-1] {
 		// linear through the end segment (or the only one)
 		i := 0
@@ -246,32 +285,14 @@ func pchip(x, y []float64, t float64) float64 {
 		}
 		return y[i] + (y[i+1]-y[i])*(t-x[i])/(x[i+1]-x[i])
 	}
-	h := make([]float64, n-1)
-	del := make([]float64, n-1)
-	for i := 0; i < n-1; i++ {
-		h[i] = x[i+1] - x[i]
-		del[i] = (y[i+1] - y[i]) / h[i]
-	}
-	d := make([]float64, n)
-	for k := 1; k < n-1; k++ {
-		if del[k-1]*del[k] <= 0 {
-			continue
-		}
-		w1, w2 := 2*h[k]+h[k-1], h[k]+2*h[k-1]
-		d[k] = (w1 + w2) / (w1/del[k-1] + w2/del[k])
-	}
-	d[0] = pchipEnd(h[0], h[1], del[0], del[1])
-	d[n-1] = pchipEnd(h[n-2], h[n-3], del[n-2], del[n-3])
-	i := sort.SearchFloat64s(x, t) - 1
-	if i < 0 {
-		i = 0
-	}
-	s := (t - x[i]) / h[i]
+	i := max(sort.SearchFloat64s(x, t)-1, 0)
+	h := m.h[i]
+	s := (t - x[i]) / h
 	h00 := (1 + 2*s) * (1 - s) * (1 - s)
 	h10 := s * (1 - s) * (1 - s)
 	h01 := s * s * (3 - 2*s)
 	h11 := s * s * (s - 1)
-	return h00*y[i] + h[i]*h10*d[i] + h01*y[i+1] + h[i]*h11*d[i+1]
+	return h00*y[i] + h*h10*m.d[i] + h01*y[i+1] + h*h11*m.d[i+1]
 }
 
 // pchipEnd is the end slope: the three-point formula, set to zero where it

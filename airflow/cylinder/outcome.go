@@ -6,6 +6,7 @@ import (
 	"math"
 
 	"finmarch/fins"
+	"finmarch/fins/validity"
 )
 
 // Limits are the wall temperatures the head and the barrel must stay at or
@@ -120,19 +121,26 @@ func (d Design) Evaluate(s Settings) (Outcome, error) {
 		}
 		return o, o.check()
 	}
-	load := d.Load
-	if d.Case.Supply.Kind == SupplyFan && !load.Direct {
-		// the fan's shaft power is crank power: it raises the heat
-		fp, err := d.Case.FanOperatingPoint(s)
+	if d.Case.Supply.Kind == SupplyFan && !d.Load.Direct {
+		// the fan's shaft power is crank power: it raises the heat; one
+		// preparation solves the fan's point and then the balance
+		var log validity.Log
+		p, err := d.Case.prepare(s, &log)
 		if err != nil {
 			return o, err
 		}
-		load.Road.AccessoryPower += fp.Power
+		load := d.Load
+		load.Road.AccessoryPower += p.fan.Power
+		if o.Load, err = load.At(d.Case); err != nil {
+			return o, err
+		}
+		o.Result, err = p.balance(o.Load, &log)
+	} else {
+		if o.Load, err = d.Load.At(d.Case); err != nil {
+			return o, err
+		}
+		o.Result, err = d.Case.Balance(o.Load, s)
 	}
-	if o.Load, err = load.At(d.Case); err != nil {
-		return o, err
-	}
-	o.Result, err = d.Case.Balance(o.Load, s)
 	if errors.Is(err, ErrNoEquilibrium) {
 		o.NoEquilibrium, err = err, nil
 	}

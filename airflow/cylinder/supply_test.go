@@ -32,7 +32,7 @@ func TestPchipAgainstScipy(t *testing.T) {
 		s := sets[r[0]]
 		x, _ := strconv.ParseFloat(r[1], 64)
 		want, _ := strconv.ParseFloat(r[2], 64)
-		got := pchip(s[0], s[1], x)
+		got := newMonotone(s[0], s[1]).at(x)
 		if math.Abs(got-want) > 1e-12*math.Max(1, math.Abs(want)) {
 			t.Errorf("%s at %g: %.15g, scipy %.15g", r[0], x, got, want)
 		}
