@@ -22,19 +22,11 @@ func (e *env) alloysCmd() *cobra.Command {
 			g := output.Grid{Header: []string{"name", "kind", "k at 300 K (" + u.Name(output.Cond) + ")", "density (" + u.Name(output.Density) + ")", "cp (" + u.Name(output.SpecHeat) + ")", "emissivity bare / painted", "max service (" + u.Name(output.Temp) + ")"}, Left: 2}
 			var notes []string
 			for _, a := range materials.All() {
-				g.Rows = append(g.Rows, []string{a.Name, a.Kind, u.N(u.Of(output.Cond, a.K300), 1), u.N(u.Of(output.Density, a.Density), 0), u.N(u.Of(output.SpecHeat, a.Cp), 3*b2i(u.US)),
+				g.Rows = append(g.Rows, []string{a.Name, a.Kind, u.N(u.Of(output.Cond, a.K300), 1), u.N(u.Of(output.Density, a.Density), 0), u.N(u.Of(output.SpecHeat, a.Cp), u.Dec(output.SpecHeat)),
 					u.N(a.EmissBare, 2) + " / " + u.N(a.EmissPaint, 2), fmtT(u, a.MaxService)})
 				notes = append(notes, fmt.Sprintf("%s: %s. Emissivity: %s. Limit: %s.", a.Name, a.Source, a.EmissSource, a.LimitSource))
 			}
 			return e.emit(output.Doc{Title: "Alloy catalogue", Grids: []output.Grid{g}, Notes: notes, JSON: map[string]any{"alloys": materials.All()}})
 		},
 	}
-}
-
-// b2i is 1 for true, 0 for false.
-func b2i(b bool) int {
-	if b {
-		return 1
-	}
-	return 0
 }

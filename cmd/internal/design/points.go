@@ -39,33 +39,15 @@ func ReadPoints(src []byte, name string, alt float64) ([]calibrate.Point, error)
 		return nil, errs
 	}
 	var pts []calibrate.Point
-	for {
-		rec, err := r.Read()
-		if err == io.EOF {
-			break
-		}
-		if err != nil {
-			return nil, append(errs, csvError(err, name, ""))
-		}
-		line, _ := r.FieldPos(0)
+	if errs := readRows(r, name, len(cols), func(rec []string, _ int) []string {
 		m, bad := pointRow(rec, cols, units)
-		if len(rec) > len(cols) {
-			bad = append(bad, fmt.Sprintf("%d cells, but the header names %d columns", len(rec), len(cols)))
-		}
-		if len(bad) == 0 {
+		if len(bad) == 0 && len(rec) <= len(cols) {
 			var p calibrate.Point
 			p, bad = measuredPoint(m, alt)
 			pts = append(pts, p)
 		}
-		for _, b := range bad {
-			errs = append(errs, &Error{File: name, Line: line, Msg: b})
-		}
-		if len(errs) >= 20 {
-			errs = append(errs, &Error{File: name, Msg: "too many errors; stopped"})
-			break
-		}
-	}
-	if len(errs) > 0 {
+		return bad
+	}); len(errs) > 0 {
 		return nil, errs
 	}
 	if len(pts) == 0 {
@@ -172,6 +154,34 @@ func exampleUnit(col string) string {
 		return "K"
 	}
 	return "C"
+}
+
+// readRows reads the rows after the header: row reads one (its cells and
+// its line) and returns its problems, reported on its line together with
+// a row longer than the header; reading stops at a syntax error or after
+// 20 problems.
+func readRows(r *csv.Reader, name string, ncols int, row func(rec []string, line int) []string) Errors {
+	var errs Errors
+	for {
+		rec, err := r.Read()
+		if err == io.EOF {
+			return errs
+		}
+		if err != nil {
+			return append(errs, csvError(err, name, ""))
+		}
+		line, _ := r.FieldPos(0)
+		bad := row(rec, line)
+		if len(rec) > ncols {
+			bad = append(bad, fmt.Sprintf("%d cells, but the header names %d columns", len(rec), ncols))
+		}
+		for _, b := range bad {
+			errs = append(errs, &Error{File: name, Line: line, Msg: b})
+		}
+		if len(errs) >= 20 {
+			return append(errs, &Error{File: name, Msg: "too many errors; stopped"})
+		}
+	}
 }
 
 // openCSV checks a CSV file's size and text and reads its header row

@@ -3,7 +3,6 @@ package design
 import (
 	"encoding/csv"
 	"fmt"
-	"io"
 	"strconv"
 	"strings"
 
@@ -62,39 +61,20 @@ func ReadRide(src []byte, name string) ([]transient.Segment, error) {
 		v    map[string]float64
 	}
 	var rows []row
-	for {
-		rec, err := r.Read()
-		if err == io.EOF {
-			break
-		}
-		if err != nil {
-			return nil, append(errs, csvError(err, name, ""))
-		}
-		line, _ := r.FieldPos(0)
+	if errs := readRows(r, name, len(cols), func(rec []string, line int) []string {
 		v, bad := rideRow(rec, cols, units)
-		if len(rec) > len(cols) {
-			bad = append(bad, fmt.Sprintf("%d cells, but the header names %d columns", len(rec), len(cols)))
-		}
-		if len(bad) == 0 {
-			if n := len(rows); n == 0 && v["time"] != 0 {
-				bad = append(bad, fmt.Sprintf("time: the ride starts at 0, not %g s", v["time"]))
-			} else if n > 0 && !(v["time"] > rows[n-1].v["time"]) {
-				bad = append(bad, fmt.Sprintf("time: %g s is not after the row before (%g s, line %d)", v["time"], rows[n-1].v["time"], rows[n-1].line))
-			}
-		}
-		for _, b := range bad {
-			errs = append(errs, &Error{File: name, Line: line, Msg: b})
-		}
-		if len(errs) >= 20 {
-			errs = append(errs, &Error{File: name, Msg: "too many errors; stopped"})
-			break
+		switch n := len(rows); {
+		case len(bad) > 0 || len(rec) > len(cols):
+		case n == 0 && v["time"] != 0:
+			bad = append(bad, fmt.Sprintf("time: the ride starts at 0, not %g s", v["time"]))
+		case n > 0 && !(v["time"] > rows[n-1].v["time"]):
+			bad = append(bad, fmt.Sprintf("time: %g s is not after the row before (%g s, line %d)", v["time"], rows[n-1].v["time"], rows[n-1].line))
+		case n >= MaxRideRows:
+			bad = append(bad, fmt.Sprintf("more than %d rows", MaxRideRows))
 		}
 		rows = append(rows, row{line, v})
-		if len(rows) > MaxRideRows {
-			return nil, Errors{{File: name, Line: line, Msg: fmt.Sprintf("more than %d rows", MaxRideRows)}}
-		}
-	}
-	if len(errs) > 0 {
+		return bad
+	}); len(errs) > 0 {
 		return nil, errs
 	}
 	if len(rows) < 2 {

@@ -74,7 +74,8 @@ const (
 
 // display is one display unit: value = (SI - off) mul / div + add, written
 // so that each conversion is the one arithmetic it always was; dec is the
-// decimals that suit small lengths (0 elsewhere: callers choose).
+// decimals that suit the unit where it needs its own (small lengths, a
+// specific heat in Btu/lb-F; 0 elsewhere: callers choose).
 type display struct {
 	unit               string
 	off, mul, div, add float64
@@ -100,7 +101,7 @@ var units = [...][2]display{
 	Cond:     {{"W/mK", 0, 1, 1, 0, 0}, {"Btu/h-ft-F", 0, 1, 1.730735, 0, 0}},
 	PerLen:   {{"1/m", 0, 1, 1, 0, 0}, {"1/ft", 0, 0.3048, 1, 0, 0}},
 	Density:  {{"kg/m3", 0, 1, 1, 0, 0}, {"lb/ft3", 0, 1, 16.01846, 0, 0}},
-	SpecHeat: {{"J/kgK", 0, 1, 1, 0, 0}, {"Btu/lb-F", 0, 1, 4186.8, 0, 0}},
+	SpecHeat: {{"J/kgK", 0, 1, 1, 0, 0}, {"Btu/lb-F", 0, 1, 4186.8, 0, 3}},
 	PerWidth: {{"W/m", 0, 1, 1, 0, 0}, {"Btu/h-ft", 0, 0.3048, 0.29307107, 0, 0}},
 	Engine:   {{"kW", 0, 1, 1000, 0, 0}, {"hp", 0, 1, 745.69987, 0, 0}},
 	VolFlow:  {{"m3/s", 0, 1, 1, 0, 0}, {"cfm", 0, 1, 0.00047194745, 0, 0}},
