@@ -125,8 +125,8 @@ func (d Design) Evaluate(s Settings) (Outcome, error) {
 		// the fan's shaft power is crank power: it raises the heat; one
 		// preparation solves the fan's point and then the balance
 		var log validity.Log
-		p, err := d.Case.prepare(s, &log)
-		if err != nil {
+		var p *prepared
+		if p, err = d.Case.prepare(s, &log); err != nil {
 			return o, err
 		}
 		load := d.Load

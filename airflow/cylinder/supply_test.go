@@ -243,3 +243,17 @@ func TestFanPastItsCurve(t *testing.T) {
 		t.Errorf("warnings %v, fan %+v", r.Warnings, r.Supply.Fan)
 	}
 }
+
+// A fan too small for its load: the estimate says there is no equilibrium
+// (an outcome, not an error), as a ram-cooled one would.
+func TestFanNoEquilibrium(t *testing.T) {
+	road := Load{Road: RoadLoad{Mass: 230, CdA: 0.45, CoolShare: 0.18, HeadShare: 0.65, Cylinders: 1, IdleHeat: 500}}
+	d := Design{Case: demoCase(t, false), Load: road, Limits: Limits{Head: 493.15, Barrel: 523.15}}
+	d.Case.Speed = 40
+	d.Case.Supply = Supply{Kind: SupplyFan, Fan: demoFan()}
+	d.Case.Supply.Fan.Ratio = 0.2
+	o, err := d.Evaluate(Settings{})
+	if err != nil || o.NoEquilibrium == nil || o.Status() != StatusNoEquilibrium {
+		t.Errorf("err %v, no equilibrium %v, status %s, head %.1f K", err, o.NoEquilibrium, o.Status(), o.Result.Head.WallTemp)
+	}
+}
