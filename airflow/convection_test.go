@@ -201,11 +201,11 @@ func TestBarCohenLimits(t *testing.T) {
 	if r := rel(VerticalChannelNaturalNu(1e-3, nil), 1e-3/24); r > 0.01 {
 		t.Errorf("narrow limit off by %.2g", r)
 	}
-	if r := rel(VerticalChannelNaturalNu(1e8, nil), math.Pow(1e8, 0.25)/math.Sqrt(2.87)); r > 0.01 {
+	if r := rel(VerticalChannelNaturalNu(1e8, nil), math.Pow(1e8, 0.25)/math.Sqrt(2.873)); r > 0.01 {
 		t.Errorf("wide limit off by %.2g", r)
 	}
-	if math.Abs(1/math.Sqrt(2.87)-0.59) > 0.001 {
-		t.Error("constant 2.87 does not give 0.59")
+	if math.Abs(1/math.Sqrt(2.873)-0.59) > 0.001 {
+		t.Error("constant 2.873 does not give 0.59")
 	}
 }
 

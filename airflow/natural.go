@@ -12,17 +12,19 @@ import (
 // VerticalChannelNaturalNu returns the Nusselt number h S / k of a channel
 // between isothermal vertical parallel plates (fins) at spacing S and height
 // L in free convection, by Bar-Cohen & Rohsenow (J. Heat Transfer 106,
-// 1984; Incropera et al. 6th ed. Eq. 9.37 with C1 = 576, C2 = 2.87 for
-// symmetric isothermal plates):
+// 1984, 116-123; citation from memory; C1 = 576, C2 = 2.873 for symmetric
+// isothermal plates, as the Fortran function nu_vertical_channel quoted in
+// the reference pack has it; Incropera et al. 6th ed. Eq. 9.37 prints C2
+// rounded to 2.87, from memory):
 //
-//	Nu_S = [576/El^2 + 2.87/El^(1/2)]^(-1/2),  El = Ra_S S / L,
+//	Nu_S = [576/El^2 + 2.873/El^(1/2)]^(-1/2),  El = Ra_S S / L,
 //
 // the Elenbaas number. It spans the fully developed limit El/24 and the
 // isolated-plate limit 0.59 El^(1/4) (Elenbaas, Physica 9, 1942). Valid
 // 1e-1 <= El <= 1e5 (Elenbaas's data); dimensionless argument.
 func VerticalChannelNaturalNu(el float64, log *validity.Log) float64 {
 	log.Check("Bar-Cohen & Rohsenow vertical channel", "Elenbaas number", el, 0.1, 1e5)
-	return 1 / math.Sqrt(576/(el*el)+2.87/math.Sqrt(el))
+	return 1 / math.Sqrt(576/(el*el)+2.873/math.Sqrt(el))
 }
 
 // Rayleigh returns g beta |dT| L^3 / (nu alpha) for air a, length L (m) and
@@ -50,4 +52,73 @@ type BarCohenRohsenow struct{}
 func (BarCohenRohsenow) H(air Air, gap, height, dT float64, log *validity.Log) float64 {
 	el := Rayleigh(air, gap, dT) * gap / height
 	return VerticalChannelNaturalNu(el, log) * air.K / gap
+}
+
+// InclinedFins describes a fin set's passages for natural convection at
+// the set's real orientation: the gap, and the two views of its fins.
+type InclinedFins struct {
+	Gap float64 // m, clear gap between fins
+	// ChannelHeight is the height of a passage taken as a vertical channel
+	// (m) and ChannelSine the sine of the passages' slope from the
+	// horizontal: the share of gravity along them.
+	ChannelHeight, ChannelSine float64
+	// FaceLength is A/P of one fin face (m) and FaceCosine the cosine of
+	// the faces' slope from the horizontal: the share of gravity normal to
+	// them. FinHeight is the fins' root-to-tip height (m), the way air
+	// reaches the gap between horizontal fins.
+	FaceLength, FaceCosine, FinHeight float64
+}
+
+// InclinedFinsH returns the natural-convection coefficient W/(m2 K) of
+// fins dT (K) above the ambient air (air: film properties) at their real
+// orientation, and which view gives it ("vertical channels" or
+// "horizontal fins"), by the rule for inclined surfaces of Raithby &
+// Hollands (Handbook of Heat Transfer, 3rd ed. 1998, ch. 4; from memory):
+// the larger of
+//
+//   - the vertical-channel coefficient (VerticalChannelNaturalNu, Bar-Cohen
+//     & Rohsenow 1984) with g replaced by its component along the passages,
+//     g ChannelSine (Incropera et al. 6th ed. Sec. 9.6.2: g cos(angle from
+//     vertical) for inclined plates), and
+//   - the horizontal-plate coefficient of McAdams (Heat Transmission, 3rd
+//     ed. 1954; HorizontalPlateMcAdamsNu), the mean of a hot face up and a
+//     hot face down, on L = A/P, with g replaced by g FaceCosine; stacked
+//     fins breathe through the gap between them, so it is taken no larger
+//     than the vertical-channel coefficient of a channel as tall as the
+//     fins are high under full gravity (our assumption: the air must run
+//     the fin height in and out of the gap).
+//
+// Units: m, K; air at film properties. The correlations check their own
+// ranges in log.
+func InclinedFinsH(air Air, f InclinedFins, dT float64, log *validity.Log) (float64, string) {
+	if !(dT > 0) || !(f.Gap > 0) {
+		return 0, "none"
+	}
+	// both views without a log, then the one chosen again with it: only
+	// the correlation that sets the answer reports its ranges
+	hv, hh := inclinedViews(air, f, dT, nil)
+	if hh > hv {
+		inclinedViews(air, InclinedFins{Gap: f.Gap, FaceLength: f.FaceLength, FaceCosine: f.FaceCosine, FinHeight: f.FinHeight}, dT, log)
+		return hh, "horizontal fins"
+	}
+	inclinedViews(air, InclinedFins{Gap: f.Gap, ChannelHeight: f.ChannelHeight, ChannelSine: f.ChannelSine}, dT, log)
+	return hv, "vertical channels"
+}
+
+// inclinedViews returns the vertical-channel and horizontal-fin
+// coefficients of InclinedFinsH, W/(m2 K) (0 for a view that does not
+// arise).
+func inclinedViews(air Air, f InclinedFins, dT float64, log *validity.Log) (hv, hh float64) {
+	if sv := math.Abs(f.ChannelSine); sv > 1e-9 && f.ChannelHeight > 0 {
+		el := sv * Rayleigh(air, f.Gap, dT) * f.Gap / f.ChannelHeight
+		hv = VerticalChannelNaturalNu(el, log) * air.K / f.Gap
+	}
+	if ch := math.Abs(f.FaceCosine); ch > 1e-9 && f.FaceLength > 0 && f.FinHeight > 0 {
+		ra := ch * Rayleigh(air, f.FaceLength, dT)
+		nu := 0.5 * (HorizontalPlateMcAdamsNu(ra, true, log) + HorizontalPlateMcAdamsNu(ra, false, log))
+		hh = nu * air.K / f.FaceLength
+		el := Rayleigh(air, f.Gap, dT) * f.Gap / f.FinHeight
+		hh = math.Min(hh, VerticalChannelNaturalNu(el, nil)*air.K/f.Gap)
+	}
+	return hv, hh
 }
