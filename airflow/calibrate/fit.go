@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"gonum.org/v1/gonum/mat"
@@ -149,13 +150,11 @@ func Calibrate(d cylinder.Design, s cylinder.Settings, pts []Point, names ...str
 	for i, p := range ps {
 		x[i] = p.Value
 	}
-	model := func(x []float64) ([]float64, error) { return residuals(d, s, pts, ps, x) }
-	f, err := levenbergMarquardt(model, x, ps)
-	worst := 0.0
+	model := func(x []float64) ([]float64, []bool, error) { return residuals(d, s, pts, ps, x) }
+	f, edged, err := levenbergMarquardt(model, x, ps)
 	for i := range f.Residuals {
 		sig := sigma(pts[i])
 		f.Residuals[i] *= sig
-		worst = math.Max(worst, math.Abs(f.Residuals[i]))
 		if len(pts) > len(ps) && math.Abs(f.Residuals[i]) > 3*sig {
 			f.Warnings = append(f.Warnings, fmt.Sprintf("calibrate: point %d misses by %.1f K, more than three times its uncertainty (%.0f K): check its speed, ambient, place and offset", i+1, f.Residuals[i], sig))
 		}
@@ -163,15 +162,258 @@ func Calibrate(d cylinder.Design, s cylinder.Settings, pts []Point, names ...str
 	if err != nil {
 		return f, err
 	}
-	// a parameter pinned to the end of its range (within 1e-3 of the range)
-	// means the points ask for more than the model can give
-	for _, p := range f.Params {
-		if w := 1e-3 * (p.Hi - p.Lo); p.Value < p.Lo+w || p.Value > p.Hi-w {
-			return f, fmt.Errorf("%w: the %s went to %.3g, the end of its plausible %.3g to %.3g, and the points are still missed by up to %.0f K; the model cannot meet them with plausible values: check each reading's speed, ambient, place and offset, and the design's load",
-				ErrAtBound, p.Name, p.Value, p.Lo, p.Hi, worst)
+	// a parameter the fit leaves at the end of its plausible range, with
+	// the points asking for a value past it, means the points ask for more
+	// than the model can give with plausible values
+	xf := make([]float64, len(f.Params))
+	for i, p := range f.Params {
+		xf[i] = p.Value
+	}
+	for k := range f.Params {
+		if err := atBound(model, xf, f.Params, k, pts, own(d, f.Params[k]), edged); err != nil {
+			return f, err
 		}
 	}
 	return f, nil
+}
+
+// own is the estimator's own range of a parameter, wider than the
+// plausible one: the pressure recovery above 0 (0 stands for the default;
+// 1e-3 here) to 1, the forced factor above 0 to 10 (Settings), the load
+// factor such that the cooling share stays within 0.01 to 0.9 (a given heat
+// load: 1e-3 to 10), the offset -500 to 500 K (no bound of the estimator's;
+// past these no measuring place is credible).
+func own(d cylinder.Design, p Param) [2]float64 {
+	switch p.Name {
+	case Recovery:
+		return [2]float64{1e-3, 1}
+	case ForcedFactor:
+		return [2]float64{1e-3, 10}
+	case LoadFactor:
+		if d.Load.Direct {
+			return [2]float64{1e-3, 10}
+		}
+		cs := d.Load.Road.CoolShare
+		if cs == 0 {
+			cs = cylinder.DefaultCoolShare
+		}
+		return [2]float64{0.01 / cs, 0.9 / cs}
+	}
+	return [2]float64{-500, 500}
+}
+
+// atBound returns nil unless the fit leaves parameter k pressing on the
+// end of what it may take: an end of its plausible range (the fit within
+// 1e-3 of its range of it), or (when the fit refused a step for a point
+// that lost its equilibrium: edged) the value past which a point loses its
+// equilibrium, with the points asking for a value past it (the sum of
+// squares, the other parameters held at their fit, still falls there).
+// Otherwise it wraps ErrAtBound, saying the value the points need for that
+// parameter alone (the minimum of the sum of squares over the estimator's
+// own range, or "beyond" the end of that range, or of the values with an
+// equilibrium, when the sum still falls there), and how far, in kelvin,
+// the model misses the worst point at the end the fit reached.
+func atBound(model modelFunc, x []float64, ps []Param, k int, pts []Point, ownR [2]float64, edged bool) error {
+	p := ps[k]
+	w, tol := 1e-3*(p.Hi-p.Lo), 1e-6*(p.Hi-p.Lo)
+	if !edged && p.Value <= p.Hi-w && p.Value >= p.Lo+w {
+		return nil
+	}
+	_, capFit, err := model(x)
+	if err != nil {
+		return err
+	}
+	// the sum of squares with the parameter alone at v; +Inf where the
+	// model fails or loses the equilibrium of a point that had one at the
+	// fit (past that, the estimator cannot reach)
+	sumsq := func(v float64) float64 {
+		y := append([]float64(nil), x...)
+		y[k] = v
+		r, c, err := model(y)
+		if err != nil || newlyCapped(capFit, c) {
+			return math.Inf(1)
+		}
+		return dot(r, r)
+	}
+	var end, far, dir float64
+	edge := false // end is where a point loses its equilibrium
+	switch {
+	case p.Value > p.Hi-w:
+		end, far, dir = p.Hi, math.Max(ownR[1], p.Hi), 1
+	case p.Value < p.Lo+w:
+		end, far, dir = p.Lo, math.Min(ownR[0], p.Lo), -1
+	default:
+		// within the range: does a point lose its equilibrium just past
+		// the fit (probed at 1e-4, 1e-3 and 1e-2 of the range on either
+		// side)? Then find where, by bisection
+		for _, d := range []float64{1, -1} {
+			t := p.Value
+			for _, h := range []float64{1e-4, 1e-3, 1e-2} {
+				if t = math.Min(p.Hi, math.Max(p.Lo, p.Value+d*h*(p.Hi-p.Lo))); math.IsInf(sumsq(t), 1) {
+					break
+				}
+			}
+			if !math.IsInf(sumsq(t), 1) {
+				continue
+			}
+			a, b := p.Value, t
+			for math.Abs(b-a) > 1e-3*tol {
+				if m := (a + b) / 2; math.IsInf(sumsq(m), 1) {
+					b = m
+				} else {
+					a = m
+				}
+			}
+			end, far, dir, edge = a, a, d, true
+			break
+		}
+		if !edge {
+			return nil
+		}
+	}
+	// the points' best value within w inside the end: not at the end, and
+	// they ask for nothing past it
+	if in := golden(sumsq, math.Min(end, end-dir*w), math.Max(end, end-dir*w), tol); dir*(end-in) > 2*tol {
+		return nil
+	}
+	// the value the points need: step outward from the end, doubling the
+	// step, until the sum of squares rises or the estimator's own range
+	// ends; then a golden-section search within the bracket
+	need, beyond, lost := end, far == end, edge
+	if !beyond {
+		a, b, sb := end-dir*w, end, sumsq(end)
+		for step := w; ; step *= 2 {
+			t := b + dir*step
+			if dir*(t-far) >= 0 {
+				t = far
+			}
+			st := sumsq(t)
+			if st < sb && t == far {
+				need, beyond = far, true
+				break
+			}
+			if st >= sb {
+				need = golden(sumsq, math.Min(a, t), math.Max(a, t), tol)
+				// still falling where the model fails or loses an
+				// equilibrium: out of reach
+				if math.IsInf(sumsq(need+dir*4*tol), 1) {
+					beyond, lost = true, true
+				}
+				break
+			}
+			a, b, sb = b, t, st
+		}
+		if !beyond && dir*(need-end) <= 0 {
+			return nil // the points ask for no more than the end
+		}
+	}
+	// the miss at the end, in kelvin, and whether going past the end
+	// cools (the model's temperature falls) or heats
+	y := append([]float64(nil), x...)
+	y[k] = end
+	r, _, err := model(y)
+	if err != nil {
+		return err
+	}
+	y[k] = end - dir*w
+	rIn, _, err := model(y)
+	if err != nil {
+		return err
+	}
+	worst, rise := 0, 0.0
+	for i := range r {
+		if math.Abs(r[i]*sigma(pts[i])) > math.Abs(r[worst]*sigma(pts[worst])) {
+			worst = i
+		}
+		rise += (r[i] - rIn[i]) * sigma(pts[i])
+	}
+	miss := r[worst] * sigma(pts[worst])
+	sense := "hotter"
+	if miss < 0 {
+		sense = "cooler"
+	}
+	ask := "more cooling than the model can give"
+	if rise > 0 {
+		ask = "less cooling than the model gives"
+	}
+	than := "the reading"
+	if len(pts) > 1 {
+		than = fmt.Sprintf("point %d, the worst of %d", worst+1, len(pts))
+	}
+	held := ""
+	if len(ps) > 1 {
+		held = " (the other parameters held at their fit)"
+	}
+	u := unit(p.Name)
+	est := "the estimate"
+	if beyond {
+		est = "the closest estimate"
+	}
+	reach := "the model cannot reach the readings with plausible values"
+	if lost {
+		reach = "the model cannot reach the readings"
+	}
+	tail := fmt.Sprintf("%s still runs %s K %s than %s, so %s: check each reading's speed, ambient, place and offset, and the design's load", est, kelvin(miss), sense, than, reach)
+	plausible := fmt.Sprintf("its plausible range %s to %s%s", num(p.Lo), num(p.Hi), u)
+	switch {
+	case !beyond:
+		return fmt.Errorf("%w: the readings need a %s of %s%s%s, outside %s; at %s%s, the end of that range, %s",
+			ErrAtBound, p.Name, num(need), u, held, plausible, num(end), u, tail)
+	case lost:
+		return fmt.Errorf("%w: the readings need a %s beyond %s%s%s, past which the model finds no equilibrium below %.0f C (the fins cannot reject the load; %s): they ask for %s with an equilibrium; at %s%s %s",
+			ErrAtBound, p.Name, num(need), u, held, cylinder.SaneWallLimit-273.15, plausible, ask, num(need), u, tail)
+	}
+	if p.Name == Recovery && need == 1 {
+		ask += " at full recovery"
+	} else {
+		ask += fmt.Sprintf(" at a %s of %s%s", p.Name, num(need), u)
+	}
+	return fmt.Errorf("%w: the readings need a %s beyond %s%s, the end of the estimator's own range%s: they ask for %s; at %s%s, the end of %s, %s",
+		ErrAtBound, p.Name, num(need), u, held, ask, num(end), u, plausible, tail)
+}
+
+// golden returns the minimum of f within [a, b] to within tol (golden-
+// section search; f is unimodal there: it falls from a and rises to b).
+func golden(f func(float64) float64, a, b, tol float64) float64 {
+	g := (math.Sqrt(5) - 1) / 2
+	c, d := b-g*(b-a), a+g*(b-a)
+	fc, fd := f(c), f(d)
+	for i := 0; i < 200 && b-a > tol; i++ {
+		if fc <= fd {
+			b, d, fd = d, c, fc
+			c = b - g*(b-a)
+			fc = f(c)
+		} else {
+			a, c, fc = c, d, fd
+			d = a + g*(b-a)
+			fd = f(d)
+		}
+	}
+	if fc <= fd {
+		return c
+	}
+	return d
+}
+
+// num prints a parameter's value to four significant figures.
+func num(v float64) string { return strconv.FormatFloat(v, 'g', 4, 64) }
+
+// kelvin prints a miss to 0.1 K, a smaller one to two significant
+// figures (never "0" for a miss there is).
+func kelvin(v float64) string {
+	v = math.Abs(v)
+	if v < 0.05 {
+		return strconv.FormatFloat(v, 'g', 2, 64)
+	}
+	return strconv.FormatFloat(v, 'f', 1, 64)
+}
+
+// unit is the unit a parameter's value is printed with.
+func unit(name string) string {
+	if name == Offset {
+		return " K"
+	}
+	return ""
 }
 
 // sigma is a point's uncertainty, DefaultSigma when none is given.
@@ -208,9 +450,16 @@ func apply(d cylinder.Design, s cylinder.Settings, ps []Param, x []float64) (cyl
 	return d, s
 }
 
-// residuals are (model + offset - measured)/sigma at each point (a point
-// without an equilibrium counts from the search's cap, a large residual).
-func residuals(d cylinder.Design, s cylinder.Settings, pts []Point, ps []Param, x []float64) ([]float64, error) {
+// modelFunc gives the residuals at the parameters x, (model + offset -
+// measured)/sigma at each point, and which points have no equilibrium
+// there.
+type modelFunc func(x []float64) ([]float64, []bool, error)
+
+// residuals are (model + offset - measured)/sigma at each point. A point
+// whose set has no equilibrium counts from the search's cap (a large
+// residual) and is marked capped: its temperature sits at the cap and no
+// longer moves with the parameters.
+func residuals(d cylinder.Design, s cylinder.Settings, pts []Point, ps []Param, x []float64) ([]float64, []bool, error) {
 	dd, ss := apply(d, s, ps, x)
 	extra := 0.0
 	for i, p := range ps {
@@ -220,41 +469,85 @@ func residuals(d cylinder.Design, s cylinder.Settings, pts []Point, ps []Param, 
 	}
 	ss.TotalsOnly = true
 	out := make([]float64, len(pts))
+	capped := make([]bool, len(pts))
 	for i, p := range pts {
 		c := dd
 		c.Case.Speed, c.Case.Ambient, c.Case.Pressure = p.Speed, p.Ambient, p.Pressure
 		o, err := c.Evaluate(ss)
 		if err != nil {
-			return nil, fmt.Errorf("point %d: %w", i+1, err)
+			return nil, nil, fmt.Errorf("point %d: %w", i+1, err)
 		}
 		r := o.Result.Head
 		if p.Barrel {
 			r = o.Result.Barrel
 		}
+		capped[i] = o.NoEquilibrium != nil && r.WallTemp >= cylinder.SaneWallLimit-1e-6
 		out[i] = (r.WallTemp + p.Offset + extra - p.Temp) / sigma(p)
 	}
-	return out, nil
+	return out, capped, nil
+}
+
+// newlyCapped reports whether a point capped in b was not in a.
+func newlyCapped(a, b []bool) bool {
+	for i := range b {
+		if b[i] && !a[i] {
+			return true
+		}
+	}
+	return false
+}
+
+func count(b []bool) int {
+	n := 0
+	for _, v := range b {
+		if v {
+			n++
+		}
+	}
+	return n
 }
 
 // levenbergMarquardt minimises the sum of squared residuals within each
 // parameter's bounds (steps projected onto the box), the Jacobian by
-// central differences of 1e-4 of each parameter's range.
-func levenbergMarquardt(f func([]float64) ([]float64, error), x []float64, ps []Param) (Fit, error) {
-	r, err := f(x)
+// central differences of 1e-4 of each parameter's range. A trial step that
+// takes a point past its equilibrium is refused like one that raises the
+// sum (the capped temperature no longer moves: the fit would stall there
+// with a Jacobian of zero); a start at which a point has no equilibrium is
+// replaced, when one exists, by the value on a grid of ninths of each
+// parameter's range (one at a time) with the fewest such points and the
+// least sum of squares. edged reports whether a step was refused for a
+// point that lost its equilibrium.
+func levenbergMarquardt(f modelFunc, x []float64, ps []Param) (fit Fit, edged bool, err error) {
+	r, capped, err := f(x)
 	if err != nil {
-		return Fit{}, err
+		return Fit{}, false, err
 	}
 	chi := dot(r, r)
+	if count(capped) > 0 {
+		for k := range x {
+			for j := 0; j <= 8; j++ {
+				y := append([]float64(nil), x...)
+				y[k] = ps[k].Lo + (ps[k].Hi-ps[k].Lo)*float64(j)/8
+				ry, cy, err := f(y)
+				if err != nil {
+					continue
+				}
+				if n, n0 := count(cy), count(capped); n < n0 || n == n0 && dot(ry, ry) < chi {
+					x, r, capped, chi = y, ry, cy, dot(ry, ry)
+				}
+			}
+		}
+	}
 	lambda := 1e-3
 	n, m := len(r), len(x)
 	var jac *mat.Dense
 	it := 0
 	for ; it < 100; it++ {
-		if jac, err = jacobian(f, x, ps, n); err != nil {
-			return Fit{}, err
+		if jac, err = jacobian(f, x, r, capped, ps); err != nil {
+			return Fit{}, edged, err
 		}
-		if err := identifiable(jac, ps); err != nil {
-			return Fit{Params: ps}, err
+		if err := identifiable(jac, ps, x, capped); err != nil {
+			return Fit{Params: ps}, edged, err
 		}
 		var jtj mat.Dense
 		jtj.Mul(jac.T(), jac)
@@ -275,9 +568,11 @@ func levenbergMarquardt(f func([]float64) ([]float64, error), x []float64, ps []
 			for i := range y {
 				y[i] = math.Min(ps[i].Hi, math.Max(ps[i].Lo, x[i]-step.AtVec(i)))
 			}
-			ry, err := f(y)
-			if err == nil && dot(ry, ry) < chi {
-				x, r, chi = y, ry, dot(ry, ry)
+			ry, cy, err := f(y)
+			if err == nil && newlyCapped(capped, cy) {
+				edged = true
+			} else if err == nil && dot(ry, ry) < chi {
+				x, r, capped, chi = y, ry, cy, dot(ry, ry)
 				lambda = math.Max(lambda/10, 1e-12)
 				improved = true
 				break
@@ -315,27 +610,37 @@ func levenbergMarquardt(f func([]float64) ([]float64, error), x []float64, ps []
 	// over several times their range
 	for _, p := range out.Params {
 		if !(p.StdError <= 0.25*(p.Hi-p.Lo)) && m > 1 {
-			return out, fmt.Errorf("%w: they leave the %s free (%.3g +- %.3g, against a plausible %.3g to %.3g); add a point at a road speed or load far from these, or fit fewer parameters",
+			return out, edged, fmt.Errorf("%w: they leave the %s free (%.3g +- %.3g, against a plausible %.3g to %.3g); add a point at a road speed or load far from these, or fit fewer parameters",
 				ErrNotIdentifiable, p.Name, p.Value, p.StdError, p.Lo, p.Hi)
 		}
 	}
-	return out, nil
+	return out, edged, nil
 }
 
-func jacobian(f func([]float64) ([]float64, error), x []float64, ps []Param, n int) (*mat.Dense, error) {
+// jacobian differentiates the residuals r at x by central differences of
+// 1e-4 of each parameter's range (one-sided at a bound, and on the side
+// where a point keeps its equilibrium when the other side loses it).
+func jacobian(f modelFunc, x, r []float64, capped []bool, ps []Param) (*mat.Dense, error) {
+	n := len(r)
 	j := mat.NewDense(n, len(x), nil)
 	for k := range x {
 		h := 1e-4 * (ps[k].Hi - ps[k].Lo)
 		lo, hi := append([]float64(nil), x...), append([]float64(nil), x...)
 		lo[k] = math.Max(ps[k].Lo, x[k]-h)
 		hi[k] = math.Min(ps[k].Hi, x[k]+h)
-		rl, err := f(lo)
+		rl, cl, err := f(lo)
 		if err != nil {
 			return nil, err
 		}
-		rh, err := f(hi)
+		rh, ch, err := f(hi)
 		if err != nil {
 			return nil, err
+		}
+		switch {
+		case newlyCapped(capped, ch) && !newlyCapped(capped, cl) && lo[k] < x[k]:
+			rh, hi = r, append([]float64(nil), x...)
+		case newlyCapped(capped, cl) && !newlyCapped(capped, ch) && hi[k] > x[k]:
+			rl, lo = r, append([]float64(nil), x...)
 		}
 		for i := 0; i < n; i++ {
 			j.Set(i, k, (rh[i]-rl[i])/(hi[k]-lo[k]))
@@ -344,29 +649,49 @@ func jacobian(f func([]float64) ([]float64, error), x []float64, ps []Param, n i
 	return j, nil
 }
 
-// identifiable refuses a Jacobian whose columns, each scaled by its
-// parameter's range, are dependent: the smallest singular value under 1e-6
-// of the largest (or a parameter that moves no point). A fit that is only
-// weakly identified is refused after it converges (levenbergMarquardt).
-func identifiable(j *mat.Dense, ps []Param) error {
+// identifiable refuses a parameter the points' temperatures do not move
+// with at all (its column of the Jacobian, scaled by its plausible range,
+// under 1e-6 of a point's uncertainty), and two or more parameters whose
+// range-scaled columns are near-parallel (the smallest singular value
+// under 1e-6 of the largest), naming those that the smallest singular
+// vector mixes. A single parameter the temperatures move with is always
+// identifiable from one point. A fit that is only weakly identified is
+// refused after it converges (levenbergMarquardt).
+func identifiable(j *mat.Dense, ps []Param, x []float64, capped []bool) error {
 	n, m := j.Dims()
 	s := mat.NewDense(n, m, nil)
 	for k := 0; k < m; k++ {
+		norm := 0.0
 		for i := 0; i < n; i++ {
 			s.Set(i, k, j.At(i, k)*(ps[k].Hi-ps[k].Lo))
+			norm = math.Hypot(norm, s.At(i, k))
 		}
+		if !(norm >= 1e-6) {
+			why := ""
+			if c := count(capped); c > 0 {
+				why = fmt.Sprintf(" (at this value the model finds no equilibrium below %.0f C at %d of the %d points, so their temperature stays at that cap)", cylinder.SaneWallLimit-273.15, c, n)
+			}
+			return fmt.Errorf("%w: the estimated temperature at these points does not move with the %s at %s%s, so no fit can find it; check the points and the design, or fit another parameter", ErrNotIdentifiable, ps[k].Name, num(x[k]), why)
+		}
+	}
+	if m == 1 {
+		return nil
 	}
 	var svd mat.SVD
 	if !svd.Factorize(s, mat.SVDThin) {
 		return fmt.Errorf("%w: the fit's matrix cannot be factorised", ErrNotIdentifiable)
 	}
 	v := svd.Values(nil)
-	if v[0] == 0 || v[len(v)-1] < 1e-6*v[0] {
-		names := make([]string, len(ps))
-		for i, p := range ps {
-			names[i] = p.Name
+	if v[len(v)-1] < 1e-6*v[0] {
+		var vt mat.Dense
+		svd.VTo(&vt)
+		var names []string
+		for k := 0; k < m; k++ {
+			if math.Abs(vt.At(k, len(v)-1)) > 0.1 {
+				names = append(names, ps[k].Name)
+			}
 		}
-		return fmt.Errorf("%w: these points move %v together, so no fit can tell them apart; add a point at another road speed or ambient, or fit fewer parameters", ErrNotIdentifiable, names)
+		return fmt.Errorf("%w: these points move the %s together, so no fit can tell them apart; add a point at another road speed or ambient, or fit fewer parameters", ErrNotIdentifiable, strings.Join(names, " and "))
 	}
 	return nil
 }
@@ -386,9 +711,17 @@ func dot(a, b []float64) float64 {
 // it has absorbed at the measured points (cooling share, thermal efficiency,
 // head share and forced convection, unless fitted themselves) set to zero.
 // Natural convection, conductivity and emissivity keep their half-widths.
-// The offset belongs to the measuring place and narrows nothing.
+// The offset belongs to the measuring place and narrows nothing. A fit
+// of the model's own parameters (not the offset alone) anchors the
+// air-side method it was made with, so the draw among methods
+// (the model-form term) is switched off: the readings have measured what
+// the spread between methods only guessed.
 func (f Fit) Narrow(sp uncertainty.Spread) uncertainty.Spread {
 	for _, p := range f.Params {
+		switch p.Name {
+		case Recovery, ForcedFactor, LoadFactor:
+			sp.Methods = false
+		}
 		switch p.Name {
 		case Recovery:
 			sp.Recovery = 2 * p.StdError

@@ -3,6 +3,8 @@ package calibrate
 import (
 	"errors"
 	"math"
+	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -127,6 +129,197 @@ func TestRefusesAFitAtItsBound(t *testing.T) {
 	_, err := Calibrate(d, cylinder.Settings{}, []Point{p})
 	if !errors.Is(err, ErrAtBound) {
 		t.Errorf("head 30 K over the ambient at 100 km/h: %v", err)
+	}
+}
+
+// firstKelvin is the first figure in kelvin an error states ("... 12.3 K
+// ..."), and whether there is one.
+func firstKelvin(err error) (float64, bool) {
+	m := regexp.MustCompile(`(-?[0-9]+(?:\.[0-9]+)?(?:e-?[0-9]+)?) K\b`).FindStringSubmatch(err.Error())
+	if m == nil {
+		return 0, false
+	}
+	v, e := strconv.ParseFloat(m[1], 64)
+	return v, e == nil
+}
+
+// A reading cooler than the design gives at a pressure recovery of 1 (the
+// estimator's own end) needs a recovery above 1, out of reach: the fit is
+// refused with ErrAtBound, naming the parameter and its plausible range,
+// and the miss it states is the one the design gives at recovery 1,
+// evaluated here on its own (Design.Evaluate, by measure): the reading's
+// distance below it, by construction. Half a kelvin is stated as such, not
+// rounded to "0 K".
+func TestNeedsARecoveryAboveOne(t *testing.T) {
+	d := demo(t)
+	full := measure(t, d, 1, 100/3.6, 300, 0, 0) // the design at recovery 1
+	for _, below := range []float64{15, 0.3} {
+		p := full
+		p.Temp -= below
+		_, err := Calibrate(d, cylinder.Settings{}, []Point{p})
+		if !errors.Is(err, ErrAtBound) {
+			t.Fatalf("%.1f K below the head at recovery 1: %v", below, err)
+		}
+		want := full.Temp - p.Temp // the model at recovery 1 less the reading
+		got, ok := firstKelvin(err)
+		if !ok || !(got > 0) || math.Abs(got-want) > 0.05+1e-9 {
+			t.Errorf("%.1f K below: the error states a miss of %v K (found %v), the design at recovery 1 misses by %.3f K: %v", below, got, ok, want, err)
+		}
+		if msg := err.Error(); !strings.Contains(msg, Recovery) || !strings.Contains(msg, "0.02 to 1") || !strings.Contains(msg, "beyond 1") {
+			t.Errorf("the error names neither the parameter, its range nor the value out of reach: %v", err)
+		}
+	}
+}
+
+// A reading that needs a forced convection factor above its plausible 3,
+// made by the design itself at a factor of 4 (within the estimator's own 0
+// to 10), is refused with the value it needs (4, solved for the factor
+// alone) and the miss at 3, both checked against the design evaluated here
+// at those factors.
+func TestSaysWhatTheReadingsNeed(t *testing.T) {
+	d := demo(t)
+	at := func(f float64) float64 {
+		c := d
+		c.Case.Recovery, c.Case.Speed, c.Case.Ambient = 0.5, 90/3.6, 300
+		o, err := c.Evaluate(cylinder.Settings{ForcedFactor: f})
+		if err != nil || o.NoEquilibrium != nil {
+			t.Fatalf("forced factor %g: %v %v", f, err, o.NoEquilibrium)
+		}
+		return o.Result.Head.WallTemp
+	}
+	p := Point{Speed: 90 / 3.6, Ambient: 300, Pressure: d.Case.Pressure, Temp: at(4)}
+	d.Case.Recovery = 0.5
+	_, err := Calibrate(d, cylinder.Settings{}, []Point{p}, ForcedFactor)
+	if !errors.Is(err, ErrAtBound) {
+		t.Fatalf("a reading made at a forced factor of 4: %v", err)
+	}
+	m := regexp.MustCompile(ForcedFactor + ` of ([0-9.]+)`).FindStringSubmatch(err.Error())
+	if m == nil {
+		t.Fatalf("no value the reading needs: %v", err)
+	}
+	if need, _ := strconv.ParseFloat(m[1], 64); math.Abs(need-4) > 2e-3 {
+		t.Errorf("the reading needs a forced factor of %s, made at 4: %v", m[1], err)
+	}
+	if got, ok := firstKelvin(err); !ok || math.Abs(got-(at(3)-p.Temp)) > 0.05+1e-9 {
+		t.Errorf("miss %v K, the design at a factor of 3 misses by %.3f K: %v", got, at(3)-p.Temp, err)
+	}
+}
+
+// headCapped reports whether the design's head finds no equilibrium below
+// cylinder.SaneWallLimit at recovery rec, 90 km/h and 35 C.
+func headCapped(t testing.TB, d cylinder.Design, rec float64) bool {
+	t.Helper()
+	d.Case.Recovery, d.Case.Speed, d.Case.Ambient = rec, 25, 308.15
+	o, err := d.Evaluate(cylinder.Settings{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return o.NoEquilibrium != nil && o.Result.Head.WallTemp >= cylinder.SaneWallLimit-1e-6
+}
+
+// hot is the upright demo with its given head heat raised (by bisection,
+// from the model itself) until, at 90 km/h and 35 C, the head loses its
+// equilibrium just below the recovery edge: it has one at edge and none at
+// 0.9 edge. A reading there is close to the balance's cap, where a fit
+// from the default recovery overshoots onto the cap.
+func hot(t testing.TB, edge float64) cylinder.Design {
+	t.Helper()
+	d := demotest.Upright(t)
+	at := func(k float64) cylinder.Design {
+		c := d
+		c.Load.Given.Head *= k
+		return c
+	}
+	lo, hi := 0.1, 50.0
+	if headCapped(t, at(lo), 0.9*edge) || !headCapped(t, at(hi), 0.9*edge) {
+		t.Fatal("no head heat between 0.1 and 50 times the demo's that loses the equilibrium at this recovery")
+	}
+	for hi-lo > 1e-6*hi {
+		if m := (lo + hi) / 2; headCapped(t, at(m), 0.9*edge) {
+			hi = m
+		} else {
+			lo = m
+		}
+	}
+	c := at(hi)
+	if headCapped(t, c, edge) || headCapped(t, c, 0.5) {
+		t.Fatal("the raised head heat has no equilibrium at the recovery edge")
+	}
+	return c
+}
+
+// A single hot reading far from the start (the design assumes the default
+// recovery 0.5) is fitted, not refused as unidentifiable: on the demo,
+// made at recovery 0.1; on the demo with a head heat that loses its
+// equilibrium just below 0.1 (hot), made at 0.1, near the balance's cap,
+// where the first step from 0.5 overshoots onto the cap. The fit finds the
+// recovery back, and the design re-evaluated there reproduces the reading.
+func TestFitsAHotReadingFarFromTheStart(t *testing.T) {
+	v, amb := 90/3.6, 308.15
+	for _, c := range []struct {
+		name string
+		d    cylinder.Design
+	}{{"demo", demo(t)}, {"hot head", hot(t, 0.09)}} {
+		d := c.d
+		start := measure(t, d, 0.5, v, amb, 0, 0).Temp
+		p := measure(t, d, 0.1, v, amb, 0, 0)
+		f, err := Calibrate(d, cylinder.Settings{}, []Point{p})
+		if err != nil {
+			t.Errorf("%s: a reading %.1f K over the start, made at recovery 0.1: %v", c.name, p.Temp-start, err)
+			continue
+		}
+		r, _ := f.Get(Recovery)
+		d.Case.Recovery, d.Case.Speed, d.Case.Ambient = r, v, amb
+		o, err := d.Evaluate(cylinder.Settings{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if math.Abs(r-0.1) > 1e-3 || math.Abs(o.Result.Head.WallTemp-p.Temp) > 0.01 || math.Abs(f.Residuals[0]) > 0.01 {
+			t.Errorf("%s: made at 0.1, fitted %.5f, re-evaluated %.3f K against the reading %.3f K (residual %.3g K)", c.name, r, o.Result.Head.WallTemp, p.Temp, f.Residuals[0])
+		}
+	}
+}
+
+// A reading hotter than any equilibrium of the balance (its fin root, the
+// reading less a plug offset of -60 K, over cylinder.SaneWallLimit by
+// construction), on a design that loses its equilibrium below a recovery
+// of 0.2 (hot), is refused with ErrAtBound, not fitted at the edge of the
+// equilibrium with a large residual nor called unidentifiable; the value
+// it says the reading needs is that edge: the design evaluated here has an
+// equilibrium 1 % above it and none 1 % below.
+func TestRefusesAReadingPastTheEquilibrium(t *testing.T) {
+	d := hot(t, 0.2)
+	p := Point{Speed: 25, Ambient: 308.15, Pressure: d.Case.Pressure, Temp: cylinder.SaneWallLimit - 5, Offset: -60}
+	if len(p.Check()) > 0 {
+		t.Fatal(p.Check())
+	}
+	f, err := Calibrate(d, cylinder.Settings{}, []Point{p})
+	if !errors.Is(err, ErrAtBound) {
+		r, _ := f.Get(Recovery)
+		t.Fatalf("a fin root %.0f K over the cap: recovery %.4f, residuals %v: %v", p.Temp-p.Offset-cylinder.SaneWallLimit, r, f.Residuals, err)
+	}
+	m := regexp.MustCompile(Recovery + ` beyond ([0-9.]+)`).FindStringSubmatch(err.Error())
+	if m == nil {
+		t.Fatalf("no value the reading needs: %v", err)
+	}
+	edge, _ := strconv.ParseFloat(m[1], 64)
+	if headCapped(t, d, 1.01*edge) || !headCapped(t, d, 0.99*edge) {
+		t.Errorf("the reading needs a recovery beyond %g, but that is not where the equilibrium ends: %v", edge, err)
+	}
+}
+
+// Two parameters that truly move together are still refused: a repeated
+// reading at one operating point (the same speed, ambient and pressure)
+// moves the recovery and the forced factor along parallel columns of the
+// Jacobian, whatever the readings say; the refusal names both.
+func TestRefusesParametersThatMoveTogether(t *testing.T) {
+	d := demo(t)
+	a := measure(t, d, 0.35, 90/3.6, 300, 0, 0)
+	b := a
+	b.Temp += 2
+	_, err := Calibrate(d, cylinder.Settings{}, []Point{a, b}, Recovery, ForcedFactor)
+	if !errors.Is(err, ErrNotIdentifiable) || !strings.Contains(err.Error(), Recovery) || !strings.Contains(err.Error(), ForcedFactor) {
+		t.Errorf("recovery and forced factor from one operating point: %v", err)
 	}
 }
 

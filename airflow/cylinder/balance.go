@@ -44,6 +44,9 @@ func (p *prepared) balance(load HeatLoad, log *validity.Log) (Result, error) {
 		br.Equilibrium = false
 	}
 	res := p.result(hr, br, log, errH == nil && errB == nil)
+	if !p.set.OneMethod {
+		res.Methods = p.alternatives(load, res)
+	}
 	return res, errors.Join(errH, errB)
 }
 

@@ -79,14 +79,23 @@ type Settings struct {
 	// means airflow.DevelopingPlates, which the march evaluates by its
 	// fast path (film powers carried by binomial series; TestFastPath).
 	Passage airflow.PassageModel
-	// Natural is the natural-convection correlation of the fin set; nil
-	// means airflow.BarCohenRohsenow.
+	// Natural is the natural-convection correlation of the fin set's
+	// passages taken as vertical channels; nil means the fins at their
+	// real orientation (airflow.InclinedFinsH, heat.go).
 	Natural airflow.NaturalModel
 	// Factors on the forced coefficient (passages and envelope), the
 	// natural coefficient and the alloys' conductivity: 0 means 1. They
 	// carry a correlation's scatter or a material's into an uncertainty
 	// band (airflow/uncertainty), or a multiplier fitted to a measurement.
 	ForcedFactor, NaturalFactor, ConductivityFactor float64
+	// Method is the air-side method of the forced convection (method.go);
+	// MethodAuto, the zero value, is the case's DefaultMethod, and a method
+	// that does not apply to the case falls back to it.
+	Method Method
+	// OneMethod skips the other applicable methods, which an estimate
+	// otherwise runs beside its own (Result.Methods) to show the spread:
+	// sweeps, the optimiser and the band need only their own.
+	OneMethod bool
 	// TotalsOnly leaves SetResult.March empty: sweeps and the optimiser
 	// need the totals, not the segment-by-segment profile.
 	TotalsOnly bool
@@ -107,9 +116,6 @@ func (s Settings) resolved() Settings {
 	}
 	if s.ExitLoss == 0 {
 		s.ExitLoss = DefaultExitLoss
-	}
-	if s.Natural == nil {
-		s.Natural = airflow.BarCohenRohsenow{}
 	}
 	for _, f := range []*float64{&s.ForcedFactor, &s.NaturalFactor, &s.ConductivityFactor} {
 		if *f == 0 {

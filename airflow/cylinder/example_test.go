@@ -42,10 +42,16 @@ func Example() {
 	}
 	fmt.Printf("heat load: head %.0f W, barrel %.0f W\n", q.Head, q.Barrel)
 	fmt.Printf("head wall %.1f C, barrel wall %.1f C\n", r.Head.WallTemp-273.15, r.Barrel.WallTemp-273.15)
-	fmt.Printf("head: mean h %.1f W/m2K, air %.1f -> %.1f C, %s\n", r.Head.MeanH, r.Head.AirIn-273.15, r.Head.AirOut-273.15, r.Head.Regime)
+	fmt.Printf("head: mean h %.1f W/m2K by %s\n", r.Head.MeanH, r.Method)
+	for _, m := range r.Methods {
+		fmt.Printf("  %-12s head %.1f C, barrel %.1f C\n", m.Method, m.Head-273.15, m.Barrel-273.15)
+	}
 	// Output:
 	// heat load: head 2681 W, barrel 1443 W
-	// head wall 212.7 C, barrel wall 120.7 C
-	// head: mean h 61.2 W/m2K, air 35.0 -> 93.9 C, transition
+	// head wall 177.6 C, barrel wall 105.1 C
+	// head: mean h 62.6 W/m2K by gibson
+	//   gibson       head 177.6 C, barrel 105.1 C
+	//   briggs-young head 183.4 C, barrel 107.8 C
+	//   channel      head 212.2 C, barrel 120.6 C
 
 }

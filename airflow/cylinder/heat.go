@@ -8,11 +8,14 @@ import (
 )
 
 // natural returns the natural-convection heat (W), coefficient and fin
-// efficiency of a set at wall temperature tw by the settings' natural
-// correlation (Bar-Cohen & Rohsenow's vertical channel by default) on the
-// passages, of height equal to the tip diameter (annular) or the finned
-// length (longitudinal), with film properties and the fin efficiency at
-// that h. Orientation effects on free convection are not modelled.
+// efficiency of a set at wall temperature tw, with film properties and the
+// fin efficiency at that h. By default (Settings.Natural nil) the fins are
+// taken at their real orientation (airflow.InclinedFinsH, inclinedFins):
+// the horizontal annular fins of an upright cylinder as stacked horizontal
+// plates, vertical channels when laid over, the larger of the two views
+// between. A NaturalModel in the settings takes the passages as vertical
+// channels as tall as the tip diameter (annular) or the finned length
+// (longitudinal), whatever the tilt.
 func (p *prepared) natural(st *setState, tw float64) (float64, float64, float64) {
 	dT := tw - p.c.Ambient
 	if dT <= 0 {
@@ -20,11 +23,17 @@ func (p *prepared) natural(st *setState, tw float64) (float64, float64, float64)
 	}
 	fs, g := st.fs, st.g
 	air := airflow.Properties(0.5*(tw+p.c.Ambient), p.c.Pressure, p.log)
-	L := g.TipDiameter
-	if fs.Set.Style == fins.StyleLongitudinal {
-		L = fs.Set.Length
+	var h float64
+	if p.set.Natural == nil {
+		h, _ = airflow.InclinedFinsH(air, inclinedFins(fs.Set, g, p.c.Tilt), dT, p.log)
+	} else {
+		L := g.TipDiameter
+		if fs.Set.Style == fins.StyleLongitudinal {
+			L = fs.Set.Length
+		}
+		h = p.set.Natural.H(air, g.GapMean, L, dT, p.log)
 	}
-	h := p.set.NaturalFactor * p.set.Natural.H(air, g.GapMean, L, dT, p.log)
+	h *= p.set.NaturalFactor
 	eta := st.cv.Efficiency(h, p.set.ConductivityFactor*fs.Alloy.Conductivity(tw), p.log)
 	return h * g.SurfaceEfficiency(eta) * g.TotalArea * dT, h, eta
 }
@@ -83,7 +92,12 @@ func (p *prepared) envelope(st *setState, tw float64) (float64, float64) {
 // surroundings at ambient (Incropera 6th ed. Eq. 1.7).
 func (p *prepared) setHeat(st *setState, tw, tin float64, keep bool) (SetResult, marchOut) {
 	fs, g, pt := st.fs, st.g, st.pt
-	m := p.march(st, tw, tin, keep)
+	var m marchOut
+	if p.method == MethodChannel {
+		m = p.march(st, tw, tin, keep)
+	} else {
+		m = p.freeStream(st, tw, tin)
+	}
 	qn, hn, etaN := p.natural(st, tw)
 	qe, he := p.envelope(st, tw)
 	qf := math.Cbrt(m.q*m.q*m.q + qe*qe*qe)
@@ -108,7 +122,31 @@ func (p *prepared) setHeat(st *setState, tw, tin float64, keep bool) (SetResult,
 	// the march's bookkeeping (paths, mass flow, cp) to account; relative
 	// to the heat, or to a milliwatt when the heat is nil (a wall at the
 	// temperature of its inlet air) and only rounding is left
-	r.EnthalpyRise = st.mdot * float64(pt.Paths) * (enthalpy(m.tOut) - enthalpy(tin))
+	mdot := st.mdot * float64(pt.Paths)
+	if m.mdot > 0 {
+		mdot = m.mdot
+	}
+	r.EnthalpyRise = mdot * (enthalpy(m.tOut) - enthalpy(tin))
 	r.AirImbalance = math.Abs(r.EnthalpyRise-m.q) / math.Max(math.Abs(m.q), 1e-3)
 	return r, m
+}
+
+// inclinedFins is a set's passages for natural convection at tilt (rad):
+// annular fins lie in planes tilt from the horizontal, their passages as
+// tall as the tip diameter, their faces annuli of A/P = height/2;
+// longitudinal fins run along the axis, tilt from the vertical: their
+// passages as long as the finned length rise at cos(tilt), and laid over
+// the fins round the cylinder stand at every angle, taken as half facing
+// up or down (the faces' mean |cos| over a turn is 2/pi; our assumption),
+// their faces Length x Height.
+func inclinedFins(s fins.Set, g fins.Geometry, tilt float64) airflow.InclinedFins {
+	f := airflow.InclinedFins{Gap: g.GapMean, FinHeight: s.Height}
+	if s.Style == fins.StyleAnnular {
+		f.ChannelHeight, f.ChannelSine = g.TipDiameter, math.Sin(tilt)
+		f.FaceLength, f.FaceCosine = s.Height/2, math.Cos(tilt)
+		return f
+	}
+	f.ChannelHeight, f.ChannelSine = s.Length, math.Cos(tilt)
+	f.FaceLength, f.FaceCosine = s.Length*s.Height/(2*(s.Length+s.Height)), 2/math.Pi*math.Sin(tilt)
+	return f
 }

@@ -58,7 +58,7 @@ func TestMarchAgainstLocalBruteForce(t *testing.T) {
 		for _, v := range []float64{30 / 3.6, 90 / 3.6, 140 / 3.6} {
 			c := demoCase(t, lo)
 			c.Speed = v
-			p, err := c.prepare(Settings{}, nil)
+			p, err := c.prepare(Settings{Method: MethodChannel}, nil)
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -91,7 +91,7 @@ func TestForcedHWithWallTemperature(t *testing.T) {
 		c.Speed = v / 3.6
 		var prev float64
 		for j, tw := range []float64{373.15, 473.15, 603.15} {
-			r, err := c.AtWall(tw, tw-50, Settings{})
+			r, err := c.AtWall(tw, tw-50, Settings{Method: MethodChannel})
 			if err != nil {
 				t.Fatal(err)
 			}

@@ -39,6 +39,7 @@ type marchOut struct {
 	hA, etaA, area float64 // area-weighted sums
 	re             float64
 	regime         string
+	mdot           float64 // kg/s taking the heat, all paths: a free-stream method's frontal stream (0: the passage flow)
 	seg            []Segment
 }
 

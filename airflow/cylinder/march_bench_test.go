@@ -6,7 +6,7 @@ import "testing"
 // filled: the unit the wall balance repeats.
 func BenchmarkMarch(b *testing.B) {
 	c := demoCase(b, false)
-	p, err := c.prepare(Settings{}, nil)
+	p, err := c.prepare(Settings{Method: MethodChannel}, nil)
 	if err != nil {
 		b.Fatal(err)
 	}

@@ -15,11 +15,11 @@ import (
 // balanced walls to 5 mK (the balance stops at 1e-5 of the load, about
 // 2 mK).
 func TestFastPath(t *testing.T) {
-	general := Settings{Passage: airflow.DevelopingPlates{}}
+	general := Settings{Method: MethodChannel, Passage: airflow.DevelopingPlates{}}
 	for _, lo := range []bool{false, true} {
 		c := demoCase(t, lo)
 		for _, tw := range [][2]float64{{420, 380}, {500, 410}} {
-			a, err := c.AtWall(tw[0], tw[1], Settings{})
+			a, err := c.AtWall(tw[0], tw[1], Settings{Method: MethodChannel})
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -65,11 +65,11 @@ func (halfNatural) H(a airflow.Air, gap, height, dT float64, log *validity.Log) 
 // coefficient halves the idle coefficient.
 func TestReplaceableCorrelations(t *testing.T) {
 	c := demoCase(t, false)
-	a, err := c.AtWall(450, 400, Settings{})
+	a, err := c.AtWall(450, 400, Settings{Method: MethodChannel})
 	if err != nil {
 		t.Fatal(err)
 	}
-	b, err := c.AtWall(450, 400, Settings{Passage: doubled{}})
+	b, err := c.AtWall(450, 400, Settings{Method: MethodChannel, Passage: doubled{}})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -80,11 +80,11 @@ func TestReplaceableCorrelations(t *testing.T) {
 		t.Errorf("first segment h ratio %.12f, want 2", r)
 	}
 	c.Speed = 0
-	n, err := c.AtWall(450, 400, Settings{})
+	n, err := c.AtWall(450, 400, Settings{Method: MethodChannel, Natural: airflow.BarCohenRohsenow{}})
 	if err != nil {
 		t.Fatal(err)
 	}
-	h, err := c.AtWall(450, 400, Settings{Natural: halfNatural{}})
+	h, err := c.AtWall(450, 400, Settings{Method: MethodChannel, Natural: halfNatural{}})
 	if err != nil {
 		t.Fatal(err)
 	}

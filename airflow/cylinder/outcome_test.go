@@ -52,7 +52,7 @@ func TestEvaluate(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	b := mustBalance(t, c, demoLoad)
+	b := mustBalance(t, c, demoLoad, Settings{})
 	if o.Result.Head.WallTemp != b.Head.WallTemp || o.Load.Head != demoLoad.Head || o.HeadMargin() != 493.15-b.Head.WallTemp {
 		t.Errorf("evaluate %.6f K, balance %.6f K", o.Result.Head.WallTemp, b.Head.WallTemp)
 	}

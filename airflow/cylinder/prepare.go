@@ -43,6 +43,7 @@ type prepared struct {
 	segBuf    []Segment           // the march of the latest trial
 	pre       map[segKey][]segPre // position terms by path and segment count
 	exactFilm bool                // film powers exact at every segment (tests)
+	method    Method              // the forced-convection method, resolved
 	drop      float64             // Pa across the fins, a ducted supply
 	fan       FanPointResult      // a fan supply's operating point
 }
@@ -57,6 +58,7 @@ func (c Case) prepare(s Settings, log *validity.Log) (*prepared, error) {
 		p.passage = airflow.DevelopingPlates{}
 	}
 	p.n = p.set.Segments
+	p.method = c.Method(s)
 	for i, fs := range []*FinSet{&p.c.Head, &p.c.Barrel} {
 		st := &p.sets[i]
 		st.fs = fs

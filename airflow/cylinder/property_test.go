@@ -40,7 +40,7 @@ func randomCase(r *rand.Rand) (Case, Settings, HeatLoad) {
 		Head:     FinSet{Name: "head", Alloy: all[r.IntN(len(all))], Emissivity: u(0.05, 1), Set: set(hd, u(0.02, 0.15))},
 		Barrel:   FinSet{Name: "barrel", Alloy: all[r.IntN(len(all))], Emissivity: u(0.05, 1), Set: set(bd, u(0.02, 0.2))},
 	}
-	s := Settings{Segments: 5 + r.IntN(60)}
+	s := Settings{Method: MethodChannel, Segments: 5 + r.IntN(60)}
 	if r.IntN(3) == 0 {
 		c.Speed = 0
 		return c, s, HeatLoad{Head: u(0, 300), Barrel: u(0, 150)}

@@ -88,6 +88,34 @@ type Result struct {
 	MaxImbal  float64            `json:"energy_imbalance_max"` // the largest air or load imbalance of the two sets
 	Converged bool               `json:"converged"`
 	Supply    *SupplyResult      `json:"supply,omitempty"` // a duct's or a fan's air; nil for ram air
+	// Method is the air-side method of the estimate and MethodReason why
+	// it is the one for this configuration; Methods holds every method's
+	// walls (nil with Settings.OneMethod or fixed walls).
+	Method       Method         `json:"method"`
+	MethodReason string         `json:"method_reason"`
+	Methods      []MethodResult `json:"methods"`
+}
+
+// MethodSpread returns the spread of the head and barrel walls over the
+// applicable methods with an equilibrium, K (max less min), and whether
+// any applicable method found no equilibrium.
+func (r Result) MethodSpread() (head, barrel float64, noEq bool) {
+	hl, hh, bl, bh := math.Inf(1), math.Inf(-1), math.Inf(1), math.Inf(-1)
+	for _, m := range r.Methods {
+		if !m.Applies {
+			continue
+		}
+		if !m.HeadEq || !m.BarrelEq {
+			noEq = true
+			continue
+		}
+		hl, hh = math.Min(hl, m.Head), math.Max(hh, m.Head)
+		bl, bh = math.Min(bl, m.Barrel), math.Max(bh, m.Barrel)
+	}
+	if hh < hl {
+		return 0, 0, noEq
+	}
+	return hh - hl, bh - bl, noEq
 }
 
 // SupplyResult is the air a duct or a fan drives through the fins.
@@ -104,6 +132,9 @@ func (r Result) MarshalJSON() ([]byte, error) {
 	type plain Result
 	if r.Warnings == nil {
 		r.Warnings = []validity.Warning{}
+	}
+	if r.Methods == nil {
+		r.Methods = []MethodResult{}
 	}
 	return json.Marshal(plain(r))
 }
@@ -130,7 +161,12 @@ func own(r *SetResult) {
 func (p *prepared) result(hr, br SetResult, log *validity.Log, conv bool) Result {
 	hr.PassageVelocity, br.PassageVelocity = p.sets[head].vel, p.sets[barrel].vel
 	r := Result{Head: hr, Barrel: br, Ambient: p.c.Ambient, Pressure: p.c.Pressure, Speed: p.c.Speed,
-		TiltDeg: p.c.Tilt * 180 / math.Pi, Converged: conv}
+		TiltDeg: p.c.Tilt * 180 / math.Pi, Converged: conv, Method: p.method}
+	if m, why := p.c.DefaultMethod(); m == p.method {
+		r.MethodReason = why
+	} else {
+		r.MethodReason = "chosen in the settings"
+	}
 	r.MaxImbal = max(hr.AirImbalance, br.AirImbalance, hr.LoadImbalance, br.LoadImbalance)
 	r.Warnings = log.Warnings()
 	if p.c.Supply.ducted() {

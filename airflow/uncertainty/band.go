@@ -25,6 +25,10 @@ type Spread struct {
 	Natural      float64 // relative, on the natural coefficient
 	Conductivity float64 // relative, on the alloys' conductivity
 	Emissivity   float64 // absolute, on each finish's emissivity
+	// Methods draws the air-side method of each sample among those that
+	// apply to the design (the model-form term); false keeps the
+	// settings' method.
+	Methods bool
 }
 
 // DefaultSpread is the spread a design gets unless it states its own:
@@ -43,10 +47,13 @@ type Spread struct {
 //   - conductivity +-5 % (handbook scatter between heats of one alloy;
 //     common practice);
 //   - emissivity +-0.1 (a finish's spread with age and dirt; common
-//     practice).
+//     practice);
+//   - the air-side method drawn among the published methods that apply,
+//     with equal weight (the model-form term: no published method is
+//     known to be the better for a motorcycle cylinder on the road).
 func DefaultSpread() Spread {
 	return Spread{Recovery: 0.2, CoolShare: 0.2, Thermal: 0.15, HeadShare: 0.1,
-		Forced: 0.25, Natural: 0.25, Conductivity: 0.05, Emissivity: 0.1}
+		Forced: 0.25, Natural: 0.25, Conductivity: 0.05, Emissivity: 0.1, Methods: true}
 }
 
 // Percentiles are the 5th, 50th and 95th percentile of a wall temperature,
@@ -148,7 +155,8 @@ func Estimate(d cylinder.Design, s cylinder.Settings, sp Spread, n int, seed uin
 	return b, nil
 }
 
-// draw applies sample x (coordinates in [0, 1)) to a copy of the design.
+// draw applies sample x (coordinates in [0, 1)) to a copy of the design,
+// and picks the sample's air-side method by the last coordinate.
 // The inputs that move the wall most take the first coordinates, where
 // Sobol' points are most even: the forced coefficient, the cooling share,
 // the thermal efficiency, the recovery.
@@ -183,7 +191,16 @@ func draw(d cylinder.Design, s cylinder.Settings, sp Spread, x [dims]float64) (c
 	s.ConductivityFactor = one(s.ConductivityFactor) * (1 + at(6, sp.Conductivity))
 	c.Head.Emissivity = clamp(c.Head.Emissivity+at(7, sp.Emissivity), 0.02, 1)
 	c.Barrel.Emissivity = clamp(c.Barrel.Emissivity+at(8, sp.Emissivity), 0.02, 1)
-	_ = x[9] // a spare coordinate keeps the stream of draws stable as inputs are added
+	// the model-form term: each sample takes one of the air-side methods
+	// that apply, with equal weight, so that the spread between the
+	// published methods widens the band beside the inputs' scatter (a
+	// method named in the settings is kept)
+	s.OneMethod = true
+	if sp.Methods && s.Method == cylinder.MethodAuto {
+		if ms := d.Case.Applicable(); len(ms) > 0 {
+			s.Method = ms[min(int(x[9]*float64(len(ms))), len(ms)-1)]
+		}
+	}
 	return d, s
 }
 

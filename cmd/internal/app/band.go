@@ -74,7 +74,7 @@ func bandGrid(u output.Units, d *design.Design, b *uncertainty.Band) output.Grid
 
 // bandNote says what the band covers.
 const bandNote = "The band samples the poorly known inputs within stated half-widths (pressure recovery, cooling share, thermal efficiency, head share, " +
-	"forced and natural convection scatter, conductivity, emissivity; defaults and sources in 'go doc finmarch/airflow/uncertainty'); " +
+	"forced and natural convection scatter, conductivity, emissivity, and the air-side method among those that apply; defaults and sources in 'go doc finmarch/airflow/uncertainty'); " +
 	"to narrow it, measure the head on the running engine, add the reading as a [[measurement]] table and run 'finmarch calibrate DESIGN --write CALIBRATED.toml'."
 
 // putBand puts the band into the JSON object m under key, and leaves the

@@ -51,9 +51,14 @@ head or barrel, place fin-root or plug-seat with its offset, uncertainty). It fi
 pressure recovery (with a duct or a fan, [cooling], the forced convection factor instead);
 --fit adds the forced convection factor (forced), the heat load factor
 (load) or the offset of the measuring place (offset), when the points can tell them
-apart, and refuses a fit they cannot. It prints the fitted values with their standard
-errors and each point's residual; --write writes the calibrated design (the fitted values
-set, the band's half-widths narrowed to the fit) and never replaces a file without --force.
+apart, and refuses a fit they cannot. A fit that would need a parameter past its
+plausible range is refused too, saying the value the readings need (or that no value
+within the estimator's own range reaches them, as with a pressure recovery above 1)
+and by how many kelvin the estimate at the end of the range misses them: check the
+readings' speed, ambient, place and offset, and the design's load. It prints the fitted
+values with their standard errors and each point's residual; --write writes the
+calibrated design (the fitted values set, the band's half-widths narrowed to the fit)
+and never replaces a file without --force.
 
   [[measurement]]
   speed = "90 km/h"
@@ -116,7 +121,7 @@ func (e *env) calibrate(d *design.Design, path string, names []string, write str
 	doc := output.Doc{Title: fmt.Sprintf("%s: calibration against %s", d.Name, count(len(d.Points), "measured point")), Grids: []output.Grid{pg, rg}, Caution: true,
 		Notes: []string{"A residual is the model (plus the measuring place's offset) less the measurement; a plug seat runs hotter than the mean fin root the model gives.",
 			"Standard errors come from the fit's covariance, scaled by the residuals when the points outnumber the parameters and by the points' stated uncertainty (5 K unless given) otherwise."}}
-	kvs := calibratedKeys(f, d.Band.Spread)
+	kvs := calibratedKeys(f, d.Band.Spread, d.Case.Method(d.Run))
 	if write != "" {
 		src := e.sources[path]
 		out := design.SetKeys(src, kvs)
@@ -142,8 +147,13 @@ func (e *env) calibrate(d *design.Design, path string, names []string, write str
 // calibratedKeys are the design keys a fit sets: each fitted value, and
 // the band's half-widths as the fit leaves them (calibrate.Fit.Narrow on
 // the design's spread sp).
-func calibratedKeys(f calibrate.Fit, sp uncertainty.Spread) []design.KV {
+func calibratedKeys(f calibrate.Fit, sp uncertainty.Spread, m cylinder.Method) []design.KV {
 	var kvs []design.KV
+	if after := f.Narrow(sp); sp.Methods && !after.Methods {
+		// the fit anchors its own air-side method: the calibrated design keeps it
+		kvs = append(kvs, design.KV{Key: "air.method", Value: strconv.Quote(string(m)), Note: "the air-side method the calibration was made with"},
+			design.KV{Key: "uncertainty.methods", Value: "false", Note: "the readings anchor the method; no draw among methods"})
+	}
 	fittedBy := map[string]string{}
 	for _, p := range f.Params {
 		kv := design.KV{Value: output.Num(p.Value, 4), Note: "fitted by finmarch calibrate"}

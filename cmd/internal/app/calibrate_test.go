@@ -3,8 +3,11 @@ package app
 import (
 	"encoding/json"
 	"fmt"
+	"math"
 	"os"
 	"path/filepath"
+	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -77,6 +80,62 @@ func TestCalibratedBandCoversTheTruth(t *testing.T) {
 	}
 	if !(q5 <= want && want <= q95) || !(p95-p5 < 0.5*(q95-q5)) {
 		t.Errorf("calibrated band %.1f K wide, uncalibrated %.1f to %.1f K", p95-p5, q5, q95)
+	}
+}
+
+// withRecovery writes the demo design at pressure recovery rec, with the
+// measurement tables extra appended, and returns its path.
+func withRecovery(t *testing.T, rec, extra string) string {
+	t.Helper()
+	up, _ := designs(t)
+	src, _ := os.ReadFile(up)
+	p := filepath.Join(t.TempDir(), "d.toml")
+	if err := os.WriteFile(p, append(design.SetKeys(src, []design.KV{{Key: "air.pressure_recovery", Value: rec}}), extra...), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return p
+}
+
+// From the command line, a plug-seat reading that needs a pressure
+// recovery above 1 (made 0.3 K below what the design estimates at
+// recovery 1, the seat 20 K over the fin root) is refused (exit 1),
+// saying that it needs a recovery beyond 1 and by how much the estimate at
+// recovery 1, as 'finmarch estimate' gives it, misses it: 0.3 K, not
+// rounded to "0 K".
+func TestCalibrateSaysWhatTheReadingNeeds(t *testing.T) {
+	full, _, _ := headAt(t, withRecovery(t, "1", ""), "100 km/h", "30 C", 0)
+	reading := full + 20 - 0.3
+	in := withRecovery(t, "0.5", fmt.Sprintf("\n[[measurement]]\nspeed = \"100 km/h\"\nambient = \"30 C\"\nhead = \"%.4f K\"\nplace = \"plug-seat\"\noffset = \"20 K\"\n", reading))
+	_, errs, code := run(t, "calibrate", in, "-q")
+	if code != ExitModel || !strings.Contains(errs, "pressure recovery beyond 1") {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	m := regexp.MustCompile(`([0-9]+(?:\.[0-9]+)?) K hotter than the reading`).FindStringSubmatch(errs)
+	if m == nil {
+		t.Fatalf("no miss stated: %s", errs)
+	}
+	if miss, _ := strconv.ParseFloat(m[1], 64); math.Abs(miss-(full+20-reading)) > 0.05+1e-9 {
+		t.Errorf("stated miss %s K, the estimate at recovery 1 misses by %.3f K: %s", m[1], full+20-reading, errs)
+	}
+}
+
+// From the command line, a single head reading made by the design itself
+// at a pressure recovery of 0.1, far from the design's 0.5, is fitted back
+// to 0.1.
+func TestCalibrateFarFromTheStart(t *testing.T) {
+	truth, _, _ := headAt(t, withRecovery(t, "0.1", ""), "90 km/h", "35 C", 0)
+	in := withRecovery(t, "0.5", fmt.Sprintf("\n[[measurement]]\nspeed = \"90 km/h\"\nambient = \"35 C\"\nhead = \"%.4f K\"\n", truth))
+	js, errs, code := run(t, "calibrate", in, "-f", "json", "-q")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	var fit struct {
+		Parameters []struct {
+			Value float64 `json:"value"`
+		}
+	}
+	if err := json.Unmarshal([]byte(js), &fit); err != nil || len(fit.Parameters) != 1 || math.Abs(fit.Parameters[0].Value-0.1) > 1e-3 {
+		t.Errorf("%v: %s", err, js)
 	}
 }
 

@@ -13,9 +13,11 @@ import (
 )
 
 const (
-	noteModel = "Model: fin efficiency by exact 1-D fin solutions (Incropera 6th ed. Table 3.5; tapered annular fins by a finite-volume solve), " +
-		"passage heat transfer at bulk properties by Stephan (Shah & London 1978) blended to Gnielinski with the gas heating factor (VDI Heat Atlas 2010), " +
-		"natural convection by Bar-Cohen & Rohsenow (1984) combined with the forced heat as Q^3 = QF^3 + QN^3, radiation from the fin envelope; see README 'Model and sources'."
+	noteModel = "Model: fin efficiency by exact 1-D fin solutions (Incropera 6th ed. Table 3.5; tapered annular fins by a finite-volume solve); " +
+		"forced convection by the air-side method named above: Gibson's motorcycle-fin correlation (as quoted by Yoshida et al. 2006), Briggs & Young (1963), " +
+		"or the channel march (Stephan, Shah & London 1978, blended to Gnielinski with the gas heating factor, VDI Heat Atlas 2010); " +
+		"natural convection at the fins' real orientation (Bar-Cohen & Rohsenow 1984 vertical channels, McAdams horizontal plates, the larger by Raithby & Hollands' rule) " +
+		"combined with the forced heat as Q^3 = QF^3 + QN^3; radiation from the fin envelope; see README 'Model and sources'."
 	noteWall = "Wall temperature is the metal at the fin roots, averaged over the fin set; the combustion-side surface and the " +
 		"spark-plug seat run hotter."
 )

@@ -75,6 +75,17 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 	add("head margin to limit", u.Name(output.TempDiff), func(o outcome) string { return marginText(u, o.Result.Head, o.HeadMargin()) })
 	add("barrel margin to limit", u.Name(output.TempDiff), func(o outcome) string { return marginText(u, o.Result.Barrel, o.BarrelMargin()) })
 	add("status", "", func(o outcome) string { return string(o.Status()) })
+	add("air-side method", "", func(o outcome) string { return string(o.Result.Method) })
+	for _, m := range cylinder.Methods {
+		add("head / barrel by "+string(m), u.Name(output.Temp), func(o outcome) string {
+			for _, r := range o.Result.Methods {
+				if r.Method == m && r.Applies {
+					return methodWall(u, r.Head, r.HeadEq) + " / " + methodWall(u, r.Barrel, r.BarrelEq)
+				}
+			}
+			return noValue(u, "-")
+		})
+	}
 	withBand := func(f func(b *uncertainty.Band) string) func(o outcome) string {
 		return func(o outcome) string {
 			if b := bands[o.d]; b != nil {

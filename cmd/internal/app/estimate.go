@@ -123,6 +123,9 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 	if err != nil {
 		return output.Doc{}, o, err
 	}
+	if mg := methodsGrid(u, o.Result); mg != nil {
+		doc.Grids = append(doc.Grids, *mg)
+	}
 	if sg := supplyGrid(u, o.Result); sg != nil {
 		doc.Grids = append(doc.Grids, *sg)
 	}
@@ -140,7 +143,7 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 	if o.Result.Supply != nil {
 		air = supplyNote(u, d, o.Result)
 	}
-	doc.Notes = append(doc.Notes, air, noteWall, noteMixed,
+	doc.Notes = append(doc.Notes, methodNote(u, o.Result), air, noteWall, noteMixed,
 		energyNote(o.Result, o.Fixed),
 		noteModel)
 	if o.NoEquilibrium != nil {

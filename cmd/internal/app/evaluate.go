@@ -42,6 +42,7 @@ func evaluateWith(d *design.Design, v float64, ws *cylinder.Workspace, totalsOnl
 	set := d.Run
 	set.Workspace = ws
 	set.TotalsOnly = totalsOnly
+	set.OneMethod = set.OneMethod || totalsOnly // sweeps and searches need their own method only
 	co, err := cd.Evaluate(set)
 	return outcome{Outcome: co, d: d, speed: v}, err
 }

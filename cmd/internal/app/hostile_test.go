@@ -213,18 +213,18 @@ func TestSignalsLeaveNoPartialFile(t *testing.T) {
 	}
 }
 
-// No output prints the search's cap as a temperature: at 150 km/h the
+// No output prints the search's cap as a temperature: at 170 km/h the
 // upright demo's head finds no equilibrium; the table says so, the JSON has
 // null for its wall and margin, and the warning gives the heat shortfall
 // instead of "runs at 500 C".
 func TestNoEquilibriumNeverACap(t *testing.T) {
 	up, _ := designs(t)
-	out, errs, code := run(t, "estimate", up, "--speed", "150 km/h")
+	out, errs, code := run(t, "estimate", up, "--speed", "170 km/h")
 	if code != ExitModel || !strings.Contains(out, "no equilibrium") || strings.Contains(out, "500.0") ||
 		strings.Contains(errs, "runs at 500") || !strings.Contains(errs, "W short") {
 		t.Errorf("exit %d\n%s\n%s", code, out, errs)
 	}
-	js, _, _ := run(t, "estimate", up, "--speed", "150 km/h", "-f", "json")
+	js, _, _ := run(t, "estimate", up, "--speed", "170 km/h", "-f", "json")
 	var v map[string]any
 	if err := json.Unmarshal([]byte(js), &v); err != nil {
 		t.Fatal(err)
@@ -233,7 +233,7 @@ func TestNoEquilibriumNeverACap(t *testing.T) {
 	if v["head_margin_K"] != nil || head["wall_temperature_K"] != nil || head["equilibrium"] != false {
 		t.Errorf("JSON: margin %v, wall %v, equilibrium %v", v["head_margin_K"], head["wall_temperature_K"], head["equilibrium"])
 	}
-	for _, args := range [][]string{{"speeds", up, "--from", "130 km/h", "--to", "150 km/h", "--step", "20 km/h"}, {"tilt", up}} {
+	for _, args := range [][]string{{"speeds", up, "--from", "150 km/h", "--to", "170 km/h", "--step", "20 km/h"}, {"tilt", up}} {
 		out, _, _ := run(t, args...)
 		if strings.Contains(out, "500.0") || !strings.Contains(out, "no equilibrium") {
 			t.Errorf("%s shows the cap:\n%s", args[0], out)

@@ -19,9 +19,19 @@ func (e *env) march(d *design.Design) error {
 	if err != nil {
 		return err
 	}
-	o, err := evaluate(d, d.Case.Speed)
+	def, err := evaluate(d, d.Case.Speed)
 	if err != nil {
 		return err
+	}
+	// the march is the channel method's: a free-stream method has a mean
+	// coefficient, not a path
+	o := def
+	if def.Result.Method != cylinder.MethodChannel && !def.Fixed {
+		ch := *d
+		ch.Run.Method = cylinder.MethodChannel
+		if o, err = evaluate(&ch, d.Case.Speed); err != nil {
+			return err
+		}
 	}
 	T, L := u.Name(output.Temp), u.Name(output.Len)
 	g := output.Grid{Title: "March along one air path of each fin set (heat and flux summed over all parallel paths)",
@@ -32,7 +42,7 @@ func (e *env) march(d *design.Design) error {
 				u.N(u.Of(output.H, sg.H), 1), u.N(sg.FinEff, 3), u.N(u.Of(output.Flux, sg.Flux), 0), u.N(u.Of(output.Power, sg.Heat), 1)})
 		}
 	}
-	doc := output.Doc{Title: fmt.Sprintf("%s: march at %s %s (head wall %s %s, barrel wall %s %s)", d.Name,
+	doc := output.Doc{Title: fmt.Sprintf("%s: channel march at %s %s (head wall %s %s, barrel wall %s %s)", d.Name,
 		u.N(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), fmtT(u, o.Result.Head.WallTemp), T, fmtT(u, o.Result.Barrel.WallTemp), T),
 		Grids: []output.Grid{g}, Caution: true}
 	for _, s := range []cylinder.SetResult{o.Result.Head, o.Result.Barrel} {
@@ -47,6 +57,10 @@ func (e *env) march(d *design.Design) error {
 	}
 	if o.NoEquilibrium != nil {
 		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.NoEquilibrium.Error()+"; the march is shown at the search limit.")
+	}
+	if o.Result.Method != def.Result.Method {
+		doc.Notes = append(doc.Notes, fmt.Sprintf("This is the channel method's march (air along closed fin passages). The estimate itself uses %s (%s), which has a mean coefficient and no path: head %s %s, barrel %s %s ('finmarch estimate' compares the methods).",
+			def.Result.Method, def.Result.Method.Describe(), wallText(u, def.Result.Head), T, wallText(u, def.Result.Barrel), T))
 	}
 	doc.Notes = append(doc.Notes, energyNote(o.Result, o.Fixed))
 	doc.Warnings = o.warnings()

@@ -144,7 +144,9 @@ func short(s string) string {
 
 // marchFigure evaluates each design at its cruise point and draws the air
 // temperature and the local heat flux along each fin set's path; on a
-// series path the barrel continues where the head ends.
+// series path the barrel continues where the head ends. The march is the
+// channel method's, whatever the design's own method (a free-stream method
+// has a mean coefficient, not a path).
 func (e *env) marchFigure(ds []*design.Design) (*plots.Figure, error) {
 	_, u, err := e.settings()
 	if err != nil {
@@ -152,7 +154,9 @@ func (e *env) marchFigure(ds []*design.Design) (*plots.Figure, error) {
 	}
 	var temp, flux []plots.Series
 	for i, d := range ds {
-		o, err := evaluate(d, d.Case.Speed)
+		ch := *d
+		ch.Run.Method = cylinder.MethodChannel
+		o, err := evaluate(&ch, d.Case.Speed)
 		if err != nil {
 			return nil, err
 		}
@@ -191,7 +195,7 @@ func (e *env) marchFigure(ds []*design.Design) (*plots.Figure, error) {
 	for i, d := range ds {
 		names[i] = letter(i) + ": " + short(d.Name)
 	}
-	return plots.March("Cooling air along the fin passages\n"+strings.Join(names, "    "),
+	return plots.March("Cooling air along the fin passages (channel method)\n"+strings.Join(names, "    "),
 		"position along the air path ("+u.Name(output.Len)+")", "air temperature ("+u.Name(output.Temp)+")", "local heat flux (k"+u.Name(output.Flux)+")", temp, flux)
 }
 

@@ -107,7 +107,7 @@ func TestRideFile(t *testing.T) {
 			t.Errorf("%q: exit %d, %s", c.body, code, errs)
 		}
 	}
-	hot := write("hot.csv", "time (min),speed (km/h)\n0,150\n30,150\n")
+	hot := write("hot.csv", "time (min),speed (km/h)\n0,170\n30,170\n")
 	out, errs, code = run(t, "ride", up, "--profile", hot, "--every", "1 min")
 	if code != ExitModel || !strings.Contains(errs, "passed 500 C") || !strings.Contains(out, "NO EQUILIBRIUM: a wall passed 500 C at minute") {
 		t.Errorf("runaway: exit %d %s\n%s", code, errs, out)

@@ -78,6 +78,7 @@ func build(f *File, md toml.MetaData, name string, add func(key, format string, 
 	b.load()
 	b.cooling()
 	b.limits()
+	b.method()
 	b.uncertainty()
 	b.calibration()
 	b.ride()
@@ -244,6 +245,23 @@ func (b *builder) air() {
 	}
 }
 
+// method reads air.method, the air-side method (cylinder.Method): "auto"
+// or absent for the configuration's default; a named method must apply to
+// the design (its fin styles, its cooling source, a fixed h).
+func (b *builder) method() {
+	d := b.d
+	switch m := cylinder.Method(b.f.Air.Method); m {
+	case "", "auto":
+	case cylinder.MethodGibson, cylinder.MethodBriggsYoung, cylinder.MethodChannel:
+		if ok, why := d.Case.Applies(m); !ok {
+			b.add("air.method", "%q does not apply to this design: %s", m, why)
+		}
+		d.Run.Method = m
+	default:
+		b.add("air.method", `%q is not an air-side method; use "auto" (the configuration's default), "gibson", "briggs-young" or "channel"`, b.f.Air.Method)
+	}
+}
+
 // load reads [load]: the heats directly, or the road load.
 func (b *builder) load() {
 	f, md, d := b.f, b.md, b.d
@@ -316,6 +334,9 @@ func (b *builder) uncertainty() {
 		d.Band.Seed = uint64(max(u.Seed, 0))
 	}
 	sp := &d.Band.Spread
+	if u.Methods != nil {
+		sp.Methods = *u.Methods
+	}
 	for _, h := range []struct {
 		key string
 		q   Q[Fraction]

@@ -71,6 +71,7 @@ type AirT struct {
 	Ambient          Q[Temperature] `toml:"ambient"`
 	Altitude         Q[Length]      `toml:"altitude"`
 	Pressure         Q[Pressure]    `toml:"pressure"`
+	Method           string         `toml:"method"` // the air-side method; "" or "auto": the configuration's default
 }
 
 // LoadT is the [load] table: either head_heat and barrel_heat, or the road
@@ -120,6 +121,7 @@ type UncertaintyT struct {
 	NaturalConvection Q[Fraction] `toml:"natural_convection"`
 	Conductivity      Q[Fraction] `toml:"conductivity"`
 	Emissivity        Q[Fraction] `toml:"emissivity"`
+	Methods           *bool       `toml:"methods"` // draw the air-side method among those that apply (default true)
 }
 
 // CalibrationT is the [calibration] table: factors fitted to measurements
