@@ -25,9 +25,14 @@
 //     passage model's Friction) uses it up; on a series path the loss of
 //     the change of passage area between head and barrel is added
 //     (Borda-Carnot expansion, Idelchik's contraction).
-//  3. The march (march.go). Each path is cut into Settings.Segments
-//     segments graded as L (i/N)^2. In each, film properties
-//     (airflow.Transport: Sutherland, the Cengel cp cubic) at the mean of wall and air, the
+//  3. The forced convection by an air-side method (method.go): Gibson's
+//     motorcycle-fin correlation (the default on open fins in the road
+//     air), Briggs & Young, or the channel march; every estimate also runs
+//     the others that apply (Result.Methods) to show the spread, which the
+//     uncertainty band draws. The march (march.go), the channel method:
+//     each path is cut into Settings.Segments segments graded as L
+//     (i/N)^2. In each, bulk properties (airflow.Transport: Sutherland, the
+//     Cengel cp cubic) at the segment's mean air temperature, the
 //     segment-mean h as d(x h_m)/dx of the passage model's mean Nusselt
 //     number (Stephan laminar, Gnielinski turbulent, Gnielinski's linear
 //     blend in transition; airflow.DevelopingPlates), the fin efficiency at
@@ -36,8 +41,8 @@
 //     mean over the rise.
 //  4. The heat of a set (heat.go). The march's forced heat, combined with
 //     the envelope's as Q_F^3 = Q_P^3 + Q_E^3 (Churchill & Usagi 1972),
-//     and natural convection (airflow.BarCohenRohsenow: the passages as vertical
-//     channels) combine as Q^3 = Q_F^3 + Q_N^3 (Churchill 1977's rule,
+//     and natural convection (airflow.InclinedFinsH: the fins at their
+//     real orientation, vertical channels or horizontal plates) combine as Q^3 = Q_F^3 + Q_N^3 (Churchill 1977's rule,
 //     applied to the heats), plus grey radiation from the fin envelope.
 //  5. The balance (balance.go). For each set, head first (on a series
 //     path its outlet air is the barrel's inlet), the safeguarded secant of

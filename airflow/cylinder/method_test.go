@@ -135,3 +135,22 @@ func TestFreeStreamSeriesAir(t *testing.T) {
 		t.Errorf("barrel behind a cold head %.2f K (air %.3f K), behind the loaded head %.2f K", cool.Barrel.WallTemp, cool.Barrel.AirIn, r.Barrel.WallTemp)
 	}
 }
+
+// BenchmarkEstimateMethods is the upright demo's estimate with every
+// applicable method beside the default (what the command line runs), and
+// the default alone (what sweeps, the optimiser and the band run).
+func BenchmarkEstimateMethods(b *testing.B) {
+	c := demoCase(b, false)
+	for _, s := range []struct {
+		name string
+		set  Settings
+	}{{"all", Settings{}}, {"default-only", Settings{OneMethod: true}}} {
+		b.Run(s.name, func(b *testing.B) {
+			for i := 0; i < b.N; i++ {
+				if _, err := c.Balance(demoLoad, s.set); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
