@@ -130,10 +130,11 @@ func Channel(re, pr, lOverDh float64, log *validity.Log) ChannelFlow {
 }
 
 // blend is the position of Re in the laminar-turbulent transition, g =
-// (Re - 2300)/7700, for the linear blend that Gnielinski recommends (VDI
-// Heat Atlas 2010, G1 Eq. 30), X = (1 - g) X_lam(2300) + g X_turb(1e4),
-// which is continuous at both ends. The one statement of the blend, for
-// the Nusselt number and the friction factor alike.
+// (Re - 2300)/7700, for the linear blend X = (1 - g) X_lam(2300) + g
+// X_turb(1e4), continuous at both ends. Gnielinski gives it for the
+// Nusselt number (VDI Heat Atlas 2010, G1 Eq. 30); for the friction factor
+// the same blend is our choice (the Atlas gives none for friction). The
+// one statement of the blend, for both.
 func blend(re float64) float64 { return (re - ReLaminar) / (ReTurbulent - ReLaminar) }
 
 // ChannelNu returns the mean Nusselt number h Dh/k over the first L =
@@ -198,7 +199,8 @@ type PassageModel interface {
 // DevelopingPlates is the passage model of simultaneously developing flow
 // between parallel plates: ChannelNu with the gas heating factor, and
 // ChannelFriction (Stephan and Shah laminar, Gnielinski and Konakov
-// turbulent, Gnielinski's linear blend between).
+// turbulent; the Nusselt number by Gnielinski's linear blend between, the
+// friction factor by the same blend, our choice).
 type DevelopingPlates struct{}
 
 // Nu is ChannelNu with GasHeatingFactor(tb, tw).
@@ -206,7 +208,8 @@ func (DevelopingPlates) Nu(re, pr, xOverDh, tb, tw float64, log *validity.Log) (
 	return ChannelNu(re, pr, xOverDh, GasHeatingFactor(tb, tw, nil), log)
 }
 
-// Friction is ChannelFriction, without range checks.
+// Friction is ChannelFriction, without range checks (the estimator checks
+// the friction correlations' ranges at the solved passage flow).
 func (DevelopingPlates) Friction(re, _, lOverDh float64) float64 {
 	return ChannelFriction(re, lOverDh, nil)
 }

@@ -259,8 +259,13 @@ func (w *wallSearch) failed(err error) (SetResult, marchOut, error) {
 		r.HeatLoad = w.q
 		r.LoadImbalance = math.Abs(r.HeatRejected-w.q) / w.q
 		r.Shortfall = w.q - r.HeatRejected
-		return r, m, fmt.Errorf("%w for the %s fins: at %.0f C wall temperature they reject only %.0f W of the %.0f W load; add fin area, improve the air supply to the fins (pressure recovery, ducting), or lower the heat load",
-			ErrNoEquilibrium, fs.Name, SaneWallLimit-273.15, r.HeatRejected, w.q)
+		// the heat rejected at a fixed wall grows about in proportion to
+		// the fins' conductance, so the shortfall says by how much the
+		// area or h would have to grow, or the set's heat shrink
+		more := 100 * (w.q/math.Max(r.HeatRejected, 1e-9) - 1)
+		less := 100 * (1 - r.HeatRejected/w.q)
+		return r, m, fmt.Errorf("%w for the %s fins: at %.0f C wall temperature they reject only %.0f W of the %.0f W load; an equilibrium there needs about %.0f%% more finned area or forced h (add fin area, improve the air supply to the fins: pressure recovery, ducting), or about %.0f%% less heat to these fins (the head share, the cooling share, the speed or the load)",
+			ErrNoEquilibrium, fs.Name, SaneWallLimit-273.15, r.HeatRejected, w.q, more, less)
 	}
 	return SetResult{}, marchOut{}, fmt.Errorf("%s wall temperature: %w", fs.Name, err)
 }

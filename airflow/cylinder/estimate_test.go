@@ -470,6 +470,13 @@ func TestTotalsOnly(t *testing.T) {
 // (no cliff).
 func TestWindCoolsEveryOrientation(t *testing.T) {
 	l := HeatLoad{Head: 600, Barrel: 300}
+	for _, set := range []Settings{{Method: MethodChannel}, {}} {
+		windCools(t, l, set)
+	}
+}
+
+func windCools(t *testing.T, l HeatLoad, set Settings) {
+	mustBalance := func(t *testing.T, c Case, l HeatLoad) Result { return mustBalance(t, c, l, set) }
 	for _, lo := range []bool{false, true} {
 		c := demoCase(t, lo)
 		prev := [2]float64{}

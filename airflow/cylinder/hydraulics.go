@@ -22,11 +22,17 @@ func (p *prepared) friction(pt Path, v float64) float64 {
 // dp = 0.5 rho V^2 (K_in + K_out + 4 f_app L/Dh), by Brent's method, and
 // returns the mass flow per path (kg/s).
 func (p *prepared) parallelFlow(pt Path, dp float64) (float64, error) {
+	return p.parallelFlowK(pt, dp, 0)
+}
+
+// parallelFlowK is parallelFlow with extra velocity heads of loss (a turn
+// on the way in).
+func (p *prepared) parallelFlowK(pt Path, dp, extra float64) (float64, error) {
 	if dp <= minDrive {
 		return 0, nil
 	}
 	rho := p.amb.Rho
-	kin, kout := p.set.EntryLoss, p.set.ExitLoss
+	kin, kout := p.set.EntryLoss+extra, p.set.ExitLoss
 	g := func(v float64) float64 {
 		return 0.5*rho*v*v*(kin+kout+p.friction(pt, v)) - dp
 	}

@@ -34,6 +34,13 @@ const (
 	h3     = 1.966e-9 / 4 * hScale
 )
 
+// The names under which airflow's correlations record their ranges, so
+// that the march's own checks of them merge with theirs.
+const (
+	gnielinskiName = "Gnielinski turbulent duct flow (VDI Heat Atlas G1)"
+	heatingName    = "gas heating factor (VDI Heat Atlas G1)"
+)
+
 type marchOut struct {
 	q, tOut        float64
 	hA, etaA, area float64 // area-weighted sums
@@ -231,6 +238,18 @@ func (p *prepared) march(st *setState, tw, tin float64, keep bool) marchOut {
 		if p.c.FixedH > 0 {
 			h = p.c.FixedH
 		} else {
+			if p.fast && re > airflow.ReLaminar {
+				// the ranges the built-in correlation's turbulent end is
+				// used over: Gnielinski's entrance factor from the first
+				// segment's x (the segment means integrate from the
+				// entrance), and the gas heating factor at every segment
+				if i == 1 {
+					p.log.Check(gnielinskiName, "Dh/L", pt.Dh/x, 0, 1)
+				}
+				if tw > tb {
+					p.log.Check(heatingName, "Tb/Tw", tb/tw, 0.5, 1)
+				}
+			}
 			h, out.regime = p.segmentH(&fp, pre, i, n, re, pr, mu, kAir, tb, tw, pt.Dh)
 			h *= p.set.ForcedFactor
 		}

@@ -24,6 +24,11 @@ type setState struct {
 	pt   Path
 	mdot float64 // kg/s per path
 	vel  float64 // m/s, passage velocity at inlet density
+	// the front slots of longitudinal fins in cross flow (front.go): their
+	// paths, mass flow per path and path
+	front     float64
+	frontMdot float64
+	frontPath Path
 }
 
 // prepared is a case ready for marches: the geometry, the paths and the
@@ -84,9 +89,22 @@ func (c Case) prepare(s Settings, log *validity.Log) (*prepared, error) {
 	if err := p.flows(); err != nil {
 		return nil, err
 	}
+	if err := p.frontFlows(); err != nil {
+		return nil, err
+	}
 	for i := range p.sets {
 		st := &p.sets[i]
 		st.vel = st.mdot / (p.amb.Rho * st.pt.FlowArea)
+		if p.method == MethodChannel && p.fast && st.mdot > 0 {
+			// the friction correlations' ranges at the solved flow (the
+			// transition between is a blend)
+			re := p.amb.Rho * st.vel * st.pt.Dh / p.amb.Mu
+			if re <= airflow.ReLaminar {
+				log.Check("Shah apparent friction, parallel plates (Shah & London 1978)", "Reynolds number", re, 0, airflow.ReLaminar)
+			} else if re >= airflow.ReTurbulent {
+				log.Check("Konakov friction factor", "Reynolds number", re, airflow.ReTurbulent, 1e6)
+			}
+		}
 	}
 	return p, nil
 }

@@ -144,7 +144,7 @@ func TestCSVOneValuePerCell(t *testing.T) {
 	for _, args := range [][]string{
 		{"estimate", up}, {"estimate", up, lo}, {"compare", up, lo},
 		{"speeds", up, "--from", "60 km/h", "--to", "100 km/h", "--step", "20 km/h"},
-		{"tilt", up, "--step", "45 deg", "--samples", "100"},
+		{"tilt", up, "--step", "45 deg", "--samples", "100", "--speed", "150 km/h"},
 		{"march", lo},
 		{"sweep", up, "--vary", "head.pitch=4mm:10mm:2mm", "--vary", "air.speed=30km/h,150km/h"},
 	} {

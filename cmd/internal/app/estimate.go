@@ -279,5 +279,5 @@ func orientationNote(d *design.Design, r cylinder.Result) string {
 			parts = append(parts, fmt.Sprintf("the %s's longitudinal fins take the share along the axis (sin %.0f deg = %.2f)", s.Name, tilt, math.Sin(d.Case.Tilt)))
 		}
 	}
-	return "Orientation: " + strings.Join(parts, "; ") + ". The rest of the road air is credited over the fin envelope only (a lower bound)."
+	return "Orientation: " + strings.Join(parts, "; ") + ". The rest of the road air crosses the fins broadside: over the fin envelope, in the slots near their mouths and, across longitudinal fins, through the slots facing the stream (stated assumptions)."
 }

@@ -183,8 +183,8 @@ func (e *env) tilt(d *design.Design, step float64) error {
 // all.
 func tiltAirNote(d *design.Design) string {
 	if d.Case.Supply.Kind != cylinder.SupplyRam {
-		return "The cooling air comes from a " + string(d.Case.Supply.Kind) + " ([cooling]): the shroud or baffles route it whatever the tilt, so the tilt changes only natural convection's part (in this model, nothing); the styles differ by their passages."
+		return "The cooling air comes from a " + string(d.Case.Supply.Kind) + " ([cooling]): the shroud or baffles route it whatever the tilt, so the tilt changes only natural convection's part (by the fins' orientation); the styles differ by their passages."
 	}
 	return "Annular fins take the road-speed share in their plane (cos tilt); longitudinal fins the share along the axis (sin tilt), head first then barrel in series. " +
-		"The rest of the road air is credited over the fin envelope only (a lower bound), so at its unfavourable extreme each style is cooled little more than in still air."
+		"The rest of the road air crosses the fins broadside: it is credited over the fin envelope, in the slots between the fins near their mouths and, across longitudinal fins, through the slots facing the stream; these rest on stated assumptions (README 'Model and sources'), so each style's unfavourable extreme is its least certain row."
 }
