@@ -131,7 +131,7 @@ func Calibrate(d cylinder.Design, s cylinder.Settings, pts []Point, names ...str
 		return v
 	}
 	known := map[string]Param{
-		Recovery:     {Name: Recovery, Value: rec, Lo: 0.02, Hi: 1},
+		Recovery:     {Name: Recovery, Value: rec, Lo: 0.05, Hi: 1}, // the design file's own range of air.pressure_recovery, so that a calibrated design parses,
 		ForcedFactor: {Name: ForcedFactor, Value: one(s.ForcedFactor), Lo: 0.3, Hi: 3},
 		LoadFactor:   {Name: LoadFactor, Value: 1, Lo: 0.3, Hi: 3},
 		Offset:       {Name: Offset, Value: 0, Lo: -50, Hi: 100},

@@ -165,7 +165,7 @@ func TestNeedsARecoveryAboveOne(t *testing.T) {
 		if !ok || !(got > 0) || math.Abs(got-want) > 0.05+1e-9 {
 			t.Errorf("%.1f K below: the error states a miss of %v K (found %v), the design at recovery 1 misses by %.3f K: %v", below, got, ok, want, err)
 		}
-		if msg := err.Error(); !strings.Contains(msg, Recovery) || !strings.Contains(msg, "0.02 to 1") || !strings.Contains(msg, "beyond 1") {
+		if msg := err.Error(); !strings.Contains(msg, Recovery) || !strings.Contains(msg, "0.05 to 1") || !strings.Contains(msg, "beyond 1") {
 			t.Errorf("the error names neither the parameter, its range nor the value out of reach: %v", err)
 		}
 	}
