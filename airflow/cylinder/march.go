@@ -257,6 +257,19 @@ func (p *prepared) march(st *setState, tw, tin float64, keep bool) marchOut {
 		etaO := g.SurfaceEfficiency(etaF)
 		ua := etaO * h * aSeg
 		tOut, cp := pickUp(ua, mdot, tw, t, rise)
+		if p.meanState && !p.fast && p.c.FixedH == 0 {
+			// the segment again at the mean of its own inlet and outlet
+			// (tests: TestPredictedSegmentState bounds what the predictor
+			// costs)
+			tb = 0.5 * (t + tOut)
+			mu, kAir, cpB = airflow.Transport(tb)
+			re = reC / mu
+			h, _ = p.segmentH(&fp, pre, i, n, re, mu*cpB/kAir, mu, kAir, tb, tw, pt.Dh)
+			h *= p.set.ForcedFactor
+			etaF = cv.Efficiency(h, k, p.log)
+			ua = g.SurfaceEfficiency(etaF) * h * aSeg
+			tOut, cp = pickUp(ua, mdot, tw, t, tOut-t)
+		}
 		rise = tOut - t
 		qAir := mdot * cp * rise // = mdot (H(tOut) - H(t))
 		out.q += qAir * paths

@@ -48,6 +48,7 @@ type prepared struct {
 	segBuf    []Segment           // the march of the latest trial
 	pre       map[segKey][]segPre // position terms by path and segment count
 	exactFilm bool                // film powers exact at every segment (tests)
+	meanState bool                // each segment re-evaluated at its own mean air temperature (tests)
 	method    Method              // the forced-convection method, resolved
 	drop      float64             // Pa across the fins, a ducted supply
 	fan       FanPointResult      // a fan supply's operating point
