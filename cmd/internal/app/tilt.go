@@ -117,6 +117,19 @@ func (e *env) tilt(d *design.Design, step float64) error {
 		// CSV: the states in columns of their own, the temperatures numbers
 		g.Header = append(g.Header, "annular status", "longitudinal status")
 	}
+	// the head by each air-side method that applies to each style
+	mg := output.Grid{Title: "Head temperature by air-side method against tilt (the spread is model uncertainty)", Header: []string{"tilt (deg)"}}
+	type col struct {
+		style int
+		m     cylinder.Method
+	}
+	var cols []col
+	for k, v := range []*design.Design{an, lo} {
+		for _, m := range v.Case.Applicable() {
+			cols = append(cols, col{k, m})
+			mg.Header = append(mg.Header, []string{"annular", "longitudinal"}[k]+" by "+string(m)+" ("+T+")")
+		}
+	}
 	var warns [][]string
 	var rows []map[string]any
 	cell := func(_ outcome, r cylinder.SetResult) string { return wallText(u, r) }
@@ -154,6 +167,17 @@ func (e *env) tilt(d *design.Design, step float64) error {
 			row = append(row, string(a.Status()), string(l.Status()))
 		}
 		g.Rows = append(g.Rows, row)
+		mrow := []string{u.N(t, 0)}
+		for _, c := range cols {
+			cellText := noValue(u, "-")
+			for _, r := range outs[c.style].Result.Methods {
+				if r.Method == c.m && r.Applies {
+					cellText = methodWall(u, r.Head, r.HeadEq)
+				}
+			}
+			mrow = append(mrow, cellText)
+		}
+		mg.Rows = append(mg.Rows, mrow)
 		js := map[string]any{"tilt_deg": t, "annular": a.Result, "longitudinal": l.Result,
 			"annular_equilibrium": a.NoEquilibrium == nil, "longitudinal_equilibrium": l.NoEquilibrium == nil,
 		}
@@ -167,6 +191,9 @@ func (e *env) tilt(d *design.Design, step float64) error {
 	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: orientation check at %s %s, ambient %s %s", d.Name,
 		u.N(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), fmtT(u, d.Case.Ambient), u.Name(output.Temp)), Grids: []output.Grid{g}, Caution: true}
+	if len(cols) > 2 && !u.Full { // CSV keeps the one main table; JSON has every method in each row's result
+		doc.Grids = append(doc.Grids, mg)
+	}
 	doc.Notes = append(doc.Notes,
 		fmt.Sprintf("Annular variant: head %d fins at %s pitch, barrel %d fins at %s pitch. Longitudinal variant: head %d fins at %s root pitch, barrel %d fins at %s root pitch. Same heights, thicknesses and mean gap.",
 			hs.Count, lu(hs.Pitch), bs.Count, lu(bs.Pitch), hl.Count, lu(hl.Pitch), bl.Count, lu(bl.Pitch)),
