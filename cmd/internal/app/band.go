@@ -55,7 +55,7 @@ func percentileText(u output.Units, k float64) string {
 }
 
 // bandGrid is the band as a table: each set's percentiles and the
-// probability of passing its limit.
+// probability of going over its limit.
 func bandGrid(u output.Units, d *design.Design, b *uncertainty.Band) output.Grid {
 	T := u.Name(output.Temp)
 	g := output.Grid{Title: fmt.Sprintf("Uncertainty band (%d samples, seed %d; [uncertainty] in the design)", b.Samples, b.Seed),

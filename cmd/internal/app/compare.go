@@ -96,7 +96,7 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 	}
 	if bands[ds[0]] != nil {
 		add("head, 5 % to 95 %", u.Name(output.Temp), withBand(func(b *uncertainty.Band) string { return bandText(u, b.Head) }))
-		add("chance the head passes its limit", "%", withBand(func(b *uncertainty.Band) string { return u.N(100*b.HeadOver, 0) }))
+		add("chance the head is over its limit", "%", withBand(func(b *uncertainty.Band) string { return u.N(100*b.HeadOver, 0) }))
 	}
 	add("passage velocity head / barrel", u.Name(output.Vel), func(o outcome) string {
 		return u.N(u.Of(output.Vel, o.Result.Head.PassageVelocity), 1) + " / " + u.N(u.Of(output.Vel, o.Result.Barrel.PassageVelocity), 1)
