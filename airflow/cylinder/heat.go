@@ -154,7 +154,7 @@ func (p *prepared) setHeat(st *setState, tw, tin float64, keep bool) (SetResult,
 // up or down (the faces' mean |cos| over a turn is 2/pi; our assumption),
 // their faces Length x Height.
 func inclinedFins(s fins.Set, g fins.Geometry, tilt float64) airflow.InclinedFins {
-	f := airflow.InclinedFins{Gap: g.GapMean, FinHeight: s.Height}
+	f := airflow.InclinedFins{Gap: g.GapMean}
 	if s.Style == fins.StyleAnnular {
 		f.ChannelHeight, f.ChannelSine = g.TipDiameter, math.Sin(tilt)
 		f.FaceLength, f.FaceCosine = s.Height/2, math.Cos(tilt)
