@@ -12,14 +12,14 @@ import (
 // airflow.GibsonH, itself held to the reference pack's table) at the
 // approach speed sqrt(R) V of the road-speed component along the fins,
 // with the density of the approaching air: at recovery 1 (Gibson's
-// free wind tunnel) over 20 to 150 km/h, pitch 6 to 14 mm and fin length
-// 20 to 50 mm, to 1e-9. This holds the wiring (component, recovery,
+// free wind tunnel) over 10 to 150 km/h, pitch 5 to 15 mm and fin length
+// 15 to 50 mm, to 1e-9. This holds the wiring (component, recovery,
 // density, pitch of a tapered fin, the forced factor of 1) that the
 // correlation's own test cannot.
 func TestDefaultMeanHIsGibson(t *testing.T) {
-	for _, kmh := range []float64{20, 60, 100, 150} {
-		for _, pitch := range []float64{0.006, 0.010, 0.014} {
-			for _, fl := range []float64{0.020, 0.035, 0.050} {
+	for _, kmh := range []float64{10, 20, 60, 100, 150} {
+		for _, pitch := range []float64{0.005, 0.006, 0.010, 0.014, 0.015} {
+			for _, fl := range []float64{0.015, 0.020, 0.035, 0.050} {
 				c := demoCase(t, false)
 				c.Recovery, c.Speed = 1, kmh/3.6
 				c.Head.Set.Pitch, c.Head.Set.Height = pitch, fl
@@ -220,5 +220,30 @@ func TestFrontSlots(t *testing.T) {
 			t.Errorf("front slot flow %.3g kg/s at %g deg after %.3g", m, deg, prev)
 		}
 		prev = m
+	}
+}
+
+// A fixed forced coefficient ([override] h) stands instead of every forced
+// correlation: the envelope and front-slot credits are off, the forced
+// factor does not scale it, and the channel method carries it.
+func TestFixedHReplacesEveryCorrelation(t *testing.T) {
+	for _, lo := range []bool{false, true} {
+		c := demoCase(t, lo)
+		c.Tilt = math.Pi / 4 // both the passage and the cross components present
+		c.FixedH = 85
+		a, err := c.AtWall(450, 400, Settings{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		b, err := c.AtWall(450, 400, Settings{ForcedFactor: 1.5})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if a.Method != MethodChannel || a.Head.EnvelopeHeat != 0 || a.Barrel.EnvelopeHeat != 0 || math.Abs(a.Head.MeanH-85) > 1e-9 {
+			t.Errorf("laid over %v: method %s, envelope %.1f / %.1f W, mean h %.2f", lo, a.Method, a.Head.EnvelopeHeat, a.Barrel.EnvelopeHeat, a.Head.MeanH)
+		}
+		if a.Head.ForcedHeat != b.Head.ForcedHeat {
+			t.Errorf("laid over %v: the forced factor moved a fixed h: %.3f against %.3f W", lo, b.Head.ForcedHeat, a.Head.ForcedHeat)
+		}
 	}
 }
