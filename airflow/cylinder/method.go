@@ -93,11 +93,11 @@ func (c Case) Applicable() []Method {
 func (c Case) DefaultMethod() (Method, string) {
 	switch {
 	case c.Supply.ducted():
-		return MethodChannel, "in a shroud the fins are closed passages at a known drop: the channel march"
+		return MethodChannel, "in a shroud the fins are closed passages at a known drop"
 	case c.FixedH > 0:
-		return MethodChannel, "the forced coefficient is fixed ([override] h): the channel march carries it and the air's warming"
+		return MethodChannel, "the forced coefficient is fixed by [override] h, and the channel march carries it and the air's warming"
 	}
-	return MethodGibson, "open fins in the road air: Gibson's correlation, the one published correlation made on motorcycle finned cylinders in a free stream"
+	return MethodGibson, "the fins stand open in the road air, and Gibson's is the one published correlation made on motorcycle finned cylinders in a free stream (for longitudinal fins along the axis this project applies it beyond the annular fins it was fitted to)"
 }
 
 // Method resolves the settings' method for c: MethodAuto is the default,

@@ -47,7 +47,8 @@ type SetResult struct {
 	SurfaceEfficiency float64   `json:"surface_efficiency"`
 	AirIn             float64   `json:"air_inlet_K"`
 	AirOut            float64   `json:"air_outlet_K"`
-	PassageVelocity   float64   `json:"passage_velocity_m_s"`
+	PassageVelocity   float64   `json:"passage_velocity_m_s"` // the channel march's flow through the passages
+	ApproachSpeed     float64   `json:"approach_speed_m_s"`   // the road air's speed along the fins as it meets them, sqrt(recovery) times the component (ram air; 0 in a shroud)
 	ApproachComponent float64   `json:"approach_component_m_s"`
 	Reynolds          float64   `json:"reynolds"`
 	Regime            string    `json:"regime"`
@@ -94,6 +95,16 @@ type Result struct {
 	Method       Method         `json:"method"`
 	MethodReason string         `json:"method_reason"`
 	Methods      []MethodResult `json:"methods"`
+}
+
+// AlongSpeed is the speed of the air along a set's fins as the result's
+// method sees it: the approach speed for a free-stream method, the
+// passage velocity for the channel march.
+func (r Result) AlongSpeed(s SetResult) float64 {
+	if r.Method == MethodChannel || r.Supply != nil {
+		return s.PassageVelocity
+	}
+	return s.ApproachSpeed
 }
 
 // MethodSpread returns the spread of the head and barrel walls over the
@@ -160,12 +171,15 @@ func own(r *SetResult) {
 
 func (p *prepared) result(hr, br SetResult, log *validity.Log, conv bool) Result {
 	hr.PassageVelocity, br.PassageVelocity = p.sets[head].vel, p.sets[barrel].vel
+	if !p.c.Supply.ducted() {
+		hr.ApproachSpeed, br.ApproachSpeed = p.approach(&p.sets[head]), p.approach(&p.sets[barrel])
+	}
 	r := Result{Head: hr, Barrel: br, Ambient: p.c.Ambient, Pressure: p.c.Pressure, Speed: p.c.Speed,
 		TiltDeg: p.c.Tilt * 180 / math.Pi, Converged: conv, Method: p.method}
 	if m, why := p.c.DefaultMethod(); m == p.method {
 		r.MethodReason = why
 	} else {
-		r.MethodReason = "chosen in the settings"
+		r.MethodReason = "it is named in the design ([air] method)"
 	}
 	r.MaxImbal = max(hr.AirImbalance, br.AirImbalance, hr.LoadImbalance, br.LoadImbalance)
 	r.Warnings = log.Warnings()

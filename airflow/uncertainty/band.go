@@ -49,8 +49,8 @@ type Spread struct {
 //   - emissivity +-0.1 (a finish's spread with age and dirt; common
 //     practice);
 //   - the air-side method drawn among the published methods that apply,
-//     with equal weight (the model-form term: no published method is
-//     known to be the better for a motorcycle cylinder on the road).
+//     the configuration's default with half the weight and the others
+//     sharing the rest (the model-form term; the weighting is ours).
 func DefaultSpread() Spread {
 	return Spread{Recovery: 0.2, CoolShare: 0.2, Thermal: 0.15, HeadShare: 0.1,
 		Forced: 0.25, Natural: 0.25, Conductivity: 0.05, Emissivity: 0.1, Methods: true}
@@ -192,16 +192,34 @@ func draw(d cylinder.Design, s cylinder.Settings, sp Spread, x [dims]float64) (c
 	c.Head.Emissivity = clamp(c.Head.Emissivity+at(7, sp.Emissivity), 0.02, 1)
 	c.Barrel.Emissivity = clamp(c.Barrel.Emissivity+at(8, sp.Emissivity), 0.02, 1)
 	// the model-form term: each sample takes one of the air-side methods
-	// that apply, with equal weight, so that the spread between the
+	// that apply, the configuration's default with half the weight and
+	// the others sharing the rest, so that the spread between the
 	// published methods widens the band beside the inputs' scatter (a
 	// method named in the settings is kept)
 	s.OneMethod = true
 	if sp.Methods && s.Method == cylinder.MethodAuto {
-		if ms := d.Case.Applicable(); len(ms) > 0 {
-			s.Method = ms[min(int(x[9]*float64(len(ms))), len(ms)-1)]
-		}
+		s.Method = pickMethod(d.Case, x[9])
 	}
 	return d, s
+}
+
+// pickMethod returns the air-side method of a sample whose coordinate is
+// u in [0, 1): the case's default for u < 1/2, else one of the other
+// applicable methods, evenly (our weighting: the default is the method
+// this project judges the best founded for the configuration, and the
+// others widen the band without moving its middle past it).
+func pickMethod(c cylinder.Case, u float64) cylinder.Method {
+	def, _ := c.DefaultMethod()
+	var others []cylinder.Method
+	for _, m := range c.Applicable() {
+		if m != def {
+			others = append(others, m)
+		}
+	}
+	if u < 0.5 || len(others) == 0 {
+		return def
+	}
+	return others[min(int((u-0.5)*2*float64(len(others))), len(others)-1)]
 }
 
 func clamp(v, lo, hi float64) float64 { return math.Min(hi, math.Max(lo, v)) }

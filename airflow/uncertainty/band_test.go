@@ -159,3 +159,31 @@ func BenchmarkBand1000(b *testing.B) {
 		}
 	}
 }
+
+// The model-form draw: the default method takes the lower half of the
+// coordinate, the others share the upper half evenly; with one method
+// only (a shroud) every sample takes it.
+func TestPickMethod(t *testing.T) {
+	c := demotest.Upright(t).Case
+	count := map[cylinder.Method]int{}
+	const n = 1000
+	for i := 0; i < n; i++ {
+		count[pickMethod(c, (float64(i)+0.5)/n)]++
+	}
+	def, _ := c.DefaultMethod()
+	others := len(c.Applicable()) - 1
+	if count[def] != n/2 || others != 2 {
+		t.Fatalf("default %s drawn %d times of %d, %d others", def, count[def], n, others)
+	}
+	for _, m := range c.Applicable() {
+		if m != def && count[m] != n/4 {
+			t.Errorf("%s drawn %d times, want %d", m, count[m], n/4)
+		}
+	}
+	c.Supply = cylinder.Supply{Kind: cylinder.SupplyDuct, Drop: 300}
+	for _, u := range []float64{0, 0.3, 0.7, 0.999} {
+		if m := pickMethod(c, u); m != cylinder.MethodChannel {
+			t.Errorf("in a shroud u = %g draws %s", u, m)
+		}
+	}
+}

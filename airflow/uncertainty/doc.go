@@ -3,8 +3,8 @@
 // shares and efficiencies, each correlation's scatter, the alloy's
 // conductivity, the finish's emissivity) and, as a model-form term, the
 // air-side method (each sample takes one of the published methods that
-// apply to the design, cylinder.Case.Applicable, with equal weight, so
-// that the spread between methods widens the band) by randomised
+// apply to the design, cylinder.Case.Applicable, the default with half the
+// weight, so that the spread between methods widens the band) by randomised
 // quasi-Monte Carlo:
 // the Sobol' sequence with a random digital shift from a fixed seed, a
 // sampling "like Latin hypercube" that stratifies every coordinate and

@@ -98,8 +98,8 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 		add("head, 5 % to 95 %", u.Name(output.Temp), withBand(func(b *uncertainty.Band) string { return bandText(u, b.Head) }))
 		add("chance the head is over its limit", "%", withBand(func(b *uncertainty.Band) string { return u.N(100*b.HeadOver, 0) }))
 	}
-	add("passage velocity head / barrel", u.Name(output.Vel), func(o outcome) string {
-		return u.N(u.Of(output.Vel, o.Result.Head.PassageVelocity), 1) + " / " + u.N(u.Of(output.Vel, o.Result.Barrel.PassageVelocity), 1)
+	add("air speed along the fins head / barrel", u.Name(output.Vel), func(o outcome) string {
+		return u.N(u.Of(output.Vel, o.Result.AlongSpeed(o.Result.Head)), 1) + " / " + u.N(u.Of(output.Vel, o.Result.AlongSpeed(o.Result.Barrel)), 1)
 	})
 	add("air rise head / barrel", u.Name(output.TempDiff), func(o outcome) string {
 		return fmtDT(u, o.Result.Head.AirOut-o.Result.Head.AirIn) + " / " + fmtDT(u, o.Result.Barrel.AirOut-o.Result.Barrel.AirIn)
@@ -179,10 +179,14 @@ func explain(u output.Units, a, b outcome, la, lb rune) string {
 		}
 		var w string
 		switch df.Kind {
-		case cylinder.DiffPassageVelocity:
-			w = "head passage air at " + pair(output.Vel, 1)
-			if df.Series {
-				w += " (only the share of road speed along the axis drives it, through head and barrel passages in series)"
+		case cylinder.DiffAirSpeed:
+			if df.Passage {
+				w = "head passage air at " + pair(output.Vel, 1)
+				if df.Series {
+					w += " (only the share of road speed along the axis drives it, through head and barrel passages in series)"
+				}
+			} else {
+				w = "road air along the head fins at " + pair(output.Vel, 1)
 			}
 		case cylinder.DiffMeanH:
 			w = "mean h on the head " + pair(output.H, 0)

@@ -104,7 +104,7 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		row("air at outlet", u.Name(output.Temp), pair(func(r cylinder.SetResult) string { return fmtT(u, r.AirOut) })),
 		row("air rise along the path", u.Name(output.TempDiff), pair(func(r cylinder.SetResult) string { return fmtDT(u, r.AirOut-r.AirIn) })),
 		row("road speed along the fins", u.Name(output.Road), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Road, r.ApproachComponent), 0) })),
-		row("passage velocity", u.Name(output.Vel), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Vel, r.PassageVelocity), 2) })),
+		row(speedLabel(o.Result), u.Name(output.Vel), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Vel, o.Result.AlongSpeed(r)), 2) })),
 		row("Reynolds number (2 x gap)", "-", pair(func(r cylinder.SetResult) string { return u.N(r.Reynolds, 0) })),
 		row("flow regime", "", pair(func(r cylinder.SetResult) string { return r.Regime })),
 		row("parallel air paths", "", pair(func(r cylinder.SetResult) string { return strconv.Itoa(r.Paths) })),
@@ -280,4 +280,13 @@ func orientationNote(d *design.Design, r cylinder.Result) string {
 		}
 	}
 	return "Orientation: " + strings.Join(parts, "; ") + ". The rest of the road air crosses the fins broadside: over the fin envelope, in the slots near their mouths and, across longitudinal fins, through the slots facing the stream (stated assumptions)."
+}
+
+// speedLabel names the air speed along the fins as the estimate's method
+// sees it.
+func speedLabel(r cylinder.Result) string {
+	if r.Method == cylinder.MethodChannel || r.Supply != nil {
+		return "passage velocity"
+	}
+	return "road air along the fins (approach)"
 }

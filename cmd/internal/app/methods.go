@@ -36,7 +36,9 @@ func methodsGrid(u output.Units, r cylinder.Result) *output.Grid {
 		switch {
 		case m.Default:
 			note = "the estimate"
-		case len(m.Warnings) > 0:
+		case len(m.Warnings) == 1:
+			note = "1 range warning (JSON)"
+		case len(m.Warnings) > 1:
 			note = fmt.Sprintf("%d range warnings (JSON)", len(m.Warnings))
 		}
 		g.Rows = append(g.Rows, []string{string(m.Method), methodWall(u, m.Head, m.HeadEq), methodWall(u, m.Barrel, m.BarrelEq),
@@ -47,7 +49,7 @@ func methodsGrid(u output.Units, r cylinder.Result) *output.Grid {
 
 // methodNote names the estimate's method and why, and the spread.
 func methodNote(u output.Units, r cylinder.Result) string {
-	s := fmt.Sprintf("Air-side method: %s (%s), because %s.", r.Method, cylinder.Method(r.Method).Describe(), strings.TrimSuffix(r.MethodReason, "."))
+	s := fmt.Sprintf("Air-side method: %s (%s), because %s.", r.Method, r.Method.Describe(), strings.TrimSuffix(r.MethodReason, "."))
 	if len(r.Methods) == 0 {
 		return s
 	}
@@ -56,7 +58,7 @@ func methodNote(u output.Units, r cylinder.Result) string {
 	if noEq {
 		s += ", and at least one finds no equilibrium"
 	}
-	return s + "; the band draws the method with the other inputs."
+	return s + "; the band draws the method with the other inputs, this one with half the weight, so its middle can sit away from the estimate toward the others."
 }
 
 // applicable counts the methods that apply.

@@ -66,7 +66,7 @@ func TestReportContent(t *testing.T) {
 	}
 	// the key numbers: the head temperature the estimate prints
 	est, _, _ := run(t, "estimate", up)
-	m := regexp.MustCompile(`wall temperature at fin roots \| C\s+\|\s+([0-9.]+) \|`).FindStringSubmatch(est)
+	m := regexp.MustCompile(`wall temperature at fin roots\s+\| C\s+\|\s+([0-9.]+) \|`).FindStringSubmatch(est)
 	if m == nil {
 		t.Fatalf("no head temperature in the estimate:\n%s", est)
 	}
