@@ -60,8 +60,9 @@ const (
 // rho/GibsonRefDensity; 0 means GibsonRefDensity). The checked range (an
 // assumption, see the constants above): speed 10 to 150 km/h, pitch 5 to
 // 15 mm, fin length 15 to 50 mm; no air (speed 0) is 0 without a
-// warning. Past about 80 mm of fin the bracket is held at a fifth of its
-// constant.
+// warning. Where the bracket would fall below a fifth of its constant
+// (from about 57 mm of fin at 5 mm pitch to 99 mm at 15 mm) it is held
+// there.
 func GibsonH(finLength, pitch, speed, rho float64, log *validity.Log) float64 {
 	const name = "Gibson motorcycle-fin correlation (Yoshida et al. 2006, Eq. 1)"
 	if rho <= 0 {

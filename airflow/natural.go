@@ -35,7 +35,7 @@ func Rayleigh(a Air, L, dT float64) float64 {
 
 // NaturalModel is a natural-convection correlation for a fin set: a
 // replaceable part of the cylinder estimator (its Settings field Natural;
-// nil means BarCohenRohsenow).
+// nil means the fins at their real orientation, InclinedFinsH).
 type NaturalModel interface {
 	// H returns the mean coefficient W/(m2 K) of fins whose passages are
 	// gap (m) wide and height (m) tall, dT (K) above the ambient, with air
@@ -119,10 +119,17 @@ func inclinedViews(air Air, f InclinedFins, dT float64, log *validity.Log) (hv, 
 	}
 	if ch := math.Abs(f.FaceCosine); ch > 1e-9 && f.FaceLength > 0 && f.ChannelHeight > 0 {
 		ra := ch * Rayleigh(air, f.FaceLength, dT)
-		nu := 0.5 * (HorizontalPlateMcAdamsNu(ra, true, log) + HorizontalPlateMcAdamsNu(ra, false, log))
-		hh = nu * air.K / f.FaceLength
+		plate := func(log *validity.Log) float64 {
+			return 0.5 * (HorizontalPlateMcAdamsNu(ra, true, log) + HorizontalPlateMcAdamsNu(ra, false, log)) * air.K / f.FaceLength
+		}
 		el := Rayleigh(air, f.Gap, dT) * f.Gap / f.ChannelHeight
-		hh = math.Min(hh, VerticalChannelNaturalNu(el, nil)*air.K/f.Gap)
+		standing := func(log *validity.Log) float64 { return VerticalChannelNaturalNu(el, log) * air.K / f.Gap }
+		// the one that sets the answer reports its ranges
+		if hh = plate(nil); hh < standing(nil) {
+			plate(log)
+		} else {
+			hh = standing(log)
+		}
 	}
 	return hv, hh
 }

@@ -5,8 +5,11 @@
 // parallel flow, fin passages as VDI gaps, pipe-flow forms of Gnielinski's
 // equation and gas property-ratio exponents. Each is tested against the
 // example values of its source, or of the library it was read in, in
-// published_test.go. None is called by the cylinder estimator; they are
-// there to be chosen, compared and cross-checked.
+// published_test.go. The cylinder estimator calls two of them,
+// FlatPlateVDINu (the air along annular fins' envelope) and
+// HorizontalPlateMcAdamsNu (horizontal fins in still air, through
+// InclinedFinsH); the rest are there to be chosen, compared and
+// cross-checked.
 
 package airflow
 

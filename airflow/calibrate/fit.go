@@ -513,7 +513,8 @@ func count(b []bool) int {
 // takes a point past its equilibrium is refused like one that raises the
 // sum (the capped temperature no longer moves: the fit would stall there
 // with a Jacobian of zero); a start at which a point has no equilibrium is
-// replaced, when one exists, by the value on a grid of ninths of each
+// replaced, when one exists, by the value on a grid of nine points (the
+// eighths) of each
 // parameter's range (one at a time) with the fewest such points and the
 // least sum of squares. edged reports whether a step was refused for a
 // point that lost its equilibrium.

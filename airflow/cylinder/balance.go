@@ -44,7 +44,7 @@ func (p *prepared) balance(load HeatLoad, log *validity.Log) (Result, error) {
 		br.Equilibrium = false
 	}
 	res := p.result(hr, br, log, errH == nil && errB == nil)
-	if !p.set.OneMethod {
+	if !p.set.OneMethod && !p.set.TotalsOnly {
 		res.Methods = p.alternatives(load, res)
 	}
 	return res, errors.Join(errH, errB)

@@ -93,8 +93,9 @@ type Settings struct {
 	// that does not apply to the case falls back to it.
 	Method Method
 	// OneMethod skips the other applicable methods, which an estimate
-	// otherwise runs beside its own (Result.Methods) to show the spread:
-	// sweeps, the optimiser and the band need only their own.
+	// otherwise runs beside its own (Result.Methods) to show the spread;
+	// TotalsOnly skips them too (sweeps, the optimiser, calibration, rides
+	// and the band need only their own).
 	OneMethod bool
 	// TotalsOnly leaves SetResult.March empty: sweeps and the optimiser
 	// need the totals, not the segment-by-segment profile.

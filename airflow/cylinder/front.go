@@ -65,16 +65,16 @@ func (p *prepared) frontFlows() error {
 // frontHeat is the heat (W) the front slots of a set take from a wall at
 // tw (K), fed with ambient air: each path's mean coefficient by the
 // channel correlation (airflow.ChannelNu at the ambient air's properties
-// over half the finned length, the gas heating factor at the outlet's
-// mean), the fin efficiency at it, and the exact pick-up m cp (T_w -
-// T_a)(1 - exp(-NTU)).
+// over half the finned length, the gas heating factor at the inlet air),
+// the fin efficiency at it, and the exact pick-up m cp (T_w - T_a)(1 -
+// exp(-NTU)).
 func (p *prepared) frontHeat(st *setState, tw float64) float64 {
 	if st.frontMdot <= 0 || tw <= p.c.Ambient {
 		return 0
 	}
 	pt, a := st.frontPath, p.amb
 	re := st.frontMdot / pt.FlowArea * pt.Dh / a.Mu
-	nu, _ := airflow.ChannelNu(re, a.Pr, pt.Length/pt.Dh, airflow.GasHeatingFactor(a.T, tw, nil), nil)
+	nu, _ := airflow.ChannelNu(re, a.Pr, pt.Length/pt.Dh, airflow.GasHeatingFactor(a.T, tw, p.log), p.log)
 	h := p.set.ForcedFactor * nu * a.K / pt.Dh
 	eta := st.cv.Efficiency(h, p.set.ConductivityFactor*st.fs.Alloy.Conductivity(tw), p.log)
 	ua := st.g.SurfaceEfficiency(eta) * h * pt.AreaPerPath

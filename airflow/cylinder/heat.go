@@ -43,8 +43,9 @@ func (p *prepared) natural(st *setState, tw float64) (float64, float64, float64)
 // annular fins the component along the axis, V sin(tilt), runs along the
 // envelope as along a flat plate of the finned length by the VDI form for
 // all regimes, sqrt(Nu_lam^2 + Nu_turb^2) (airflow.FlatPlateVDINu; VDI Heat
-// Atlas Gd 1 Eq. 3), turbulent from the first fin's rim, which trips the
-// boundary layer (our reading of the geometry); for
+// Atlas Gd 1 Eq. 3), which adds the turbulent part at every Reynolds
+// number: our choice for an envelope whose fin rims disturb the boundary
+// layer; for
 // longitudinal fins the component across the axis, V cos(tilt), crosses
 // the envelope as a cylinder of the tip diameter in crossflow
 // (CylinderCrossflowNu, Churchill & Bernstein 1977). The approach speed
@@ -54,13 +55,14 @@ func (p *prepared) natural(st *setState, tw float64) (float64, float64, float64)
 // envelope area A_e; spread over the finned surface A_t it is h A_e/A_t,
 // which takes the fin efficiency as natural convection does. The gaps
 // between the fins are slots under that stream, ventilated near their
-// mouths: the whole finned surface takes a share slotShare of the
-// envelope coefficient besides,
+// mouths. The envelope coefficient acts on the fin tips, the part of the
+// envelope that is metal (A_tip = A_e tipShare), and a share s
+// (slotShare) of it on the rest of the finned surface, the slot walls:
 //
-//	Q = eta_o h (A_e/A_t + s) A_t (T_w - T_a),
+//	Q = eta_o h (A_tip/A_t + s (1 - A_tip/A_t)) A_t (T_w - T_a);
 //
-// and, across longitudinal fins, the slots facing the stream carry a flow
-// of their own (frontHeat).
+// across longitudinal fins the slots facing the stream carry a flow of
+// their own (frontHeat) and take no slot share.
 func (p *prepared) envelope(st *setState, tw float64) (float64, float64) {
 	dT := tw - p.c.Ambient
 	if dT <= 0 || p.c.Speed <= 0 || p.c.Supply.ducted() || p.c.FixedH > 0 {
@@ -88,7 +90,16 @@ func (p *prepared) envelope(st *setState, tw float64) (float64, float64) {
 		h = airflow.FlatPlateVDINu(air.Rho*v*L/air.Mu, air.Pr, p.log) * air.K / L
 	}
 	h *= p.set.ForcedFactor
-	hEq := h * (g.EnvelopeArea/g.TotalArea + slotShare(g.GapMean, fs.Set.Height))
+	// the envelope's coefficient on the metal it meets there, the fin
+	// tips (the rest of the envelope is the slots' mouths), and a share of
+	// it on the slot walls, but for the slots facing a cross stream, which
+	// carry a flow of their own (frontHeat)
+	tips := g.EnvelopeArea * tipShare(fs.Set, g)
+	s := slotShare(g.GapMean, fs.Set.Height)
+	if st.frontMdot > 0 {
+		s *= 1 - FrontShare
+	}
+	hEq := h * (tips/g.TotalArea + s*(1-tips/g.TotalArea))
 	eta := st.cv.Efficiency(hEq, p.set.ConductivityFactor*fs.Alloy.Conductivity(tw), p.log)
 	// the front slots of longitudinal fins take the cross flow's
 	// stagnation pressure through them (front.go)
@@ -163,6 +174,17 @@ func inclinedFins(s fins.Set, g fins.Geometry, tilt float64) airflow.InclinedFin
 	f.ChannelHeight, f.ChannelSine = s.Length, math.Cos(tilt)
 	f.FaceLength, f.FaceCosine = s.Length*s.Height/(2*(s.Length+s.Height)), 2/math.Pi*math.Sin(tilt)
 	return f
+}
+
+// tipShare is the share of a set's envelope that is fin tip: the tip
+// thickness over the pitch at the tips (annular: the axial pitch;
+// longitudinal: the pitch at the tip circle).
+func tipShare(s fins.Set, g fins.Geometry) float64 {
+	pitch := s.Pitch
+	if s.Style == fins.StyleLongitudinal {
+		pitch = s.Pitch * g.TipDiameter / s.RootDiameter
+	}
+	return math.Min(1, s.TipThickness/pitch)
 }
 
 // SlotLip is the share of the outer stream's coefficient the fin surfaces

@@ -240,11 +240,12 @@ func (p *prepared) march(st *setState, tw, tin float64, keep bool) marchOut {
 		} else {
 			if p.fast && re > airflow.ReLaminar {
 				// the ranges the built-in correlation's turbulent end is
-				// used over: Gnielinski's entrance factor from the first
-				// segment's x (the segment means integrate from the
-				// entrance), and the gas heating factor at every segment
+				// used over: Gnielinski's entrance factor on the passage
+				// (the segment means integrate the same correlation from
+				// the entrance, at every mesh), and the gas heating factor
+				// at every segment
 				if i == 1 {
-					p.log.Check(gnielinskiName, "Dh/L", pt.Dh/x, 0, 1)
+					p.log.Check(gnielinskiName, "Dh/L", pt.Dh/pt.Length, 0, 1)
 				}
 				if tw > tb {
 					p.log.Check(heatingName, "Tb/Tw", tb/tw, 0.5, 1)

@@ -124,14 +124,14 @@ func (p *prepared) approach(st *setState) float64 {
 // wall temperature tw (K) with air approaching at tin (K): the method's
 // mean coefficient h (times the forced factor), the fin efficiency at h,
 // and Q = eta_o h A (T_w - T_in). The air that meets the set's fin gaps at
-// the approach speed, rho u (paths x passage area), carries the heat away:
+// the approach speed, rho u times their frontal area (frontal), carries the heat away:
 // its mixed-out temperature is the air a downstream set (the barrel on a
 // series path) meets. That mixing, the whole frontal stream of the fin
 // gaps taking the heat, is our assumption: the channel march, where only
 // the slower passage flow takes it, is the other bound, and the spread of
 // the methods carries the difference.
 func (p *prepared) freeStream(st *setState, tw, tin float64) marchOut {
-	fs, g, pt := st.fs, st.g, st.pt
+	fs, g := st.fs, st.g
 	out := marchOut{tOut: tin}
 	u := p.approach(st)
 	air := airflow.Properties(tin, p.c.Pressure, p.log)
@@ -161,9 +161,21 @@ func (p *prepared) freeStream(st *setState, tw, tin float64) marchOut {
 	a := g.TotalArea
 	out.q = g.SurfaceEfficiency(eta) * h * a * (tw - tin)
 	out.hA, out.etaA, out.area = h*a, eta*a, a
-	mdot := air.Rho * u * float64(pt.Paths) * pt.FlowArea
-	out.tOut, out.mdot = mixOut(tin, out.q, mdot), mdot
+	out.tOut, out.mdot = mixOut(tin, out.q, p.frontal(st, air.Rho, u)), p.frontal(st, air.Rho, u)
 	return out
+}
+
+// frontal returns the mass flow (kg/s) of air at density rho approaching a
+// set's fin gaps at speed u: through each gap's frontal area, the gap
+// times the tip diameter for annular fins in cross flow (the air meeting
+// the root's projected width runs round it within the gap), the gap times
+// the fin height for longitudinal fins along the axis.
+func (p *prepared) frontal(st *setState, rho, u float64) float64 {
+	g := st.g
+	if st.fs.Set.Style == fins.StyleAnnular {
+		return rho * u * float64(g.Passages) * g.GapMean * g.TipDiameter
+	}
+	return rho * u * float64(st.pt.Paths) * st.pt.FlowArea
 }
 
 // mixOut returns the temperature of air at tin (K) whose mass flow mdot
@@ -189,7 +201,7 @@ func mixOut(tin, q, mdot float64) float64 {
 // uncertainty, can be read.
 type MethodResult struct {
 	Method      Method  `json:"method"`
-	Default     bool    `json:"default"` // the method the estimate uses
+	Used        bool    `json:"used"` // the method the estimate uses (its default, or the one the settings name)
 	Applies     bool    `json:"applies"`
 	Why         string  `json:"why_not,omitempty"` // why it does not apply
 	Head        float64 `json:"head_wall_temperature_K"`
@@ -228,7 +240,7 @@ func (p *prepared) alternatives(load HeatLoad, primary Result) []MethodResult {
 	var out []MethodResult
 	for _, m := range Methods {
 		ok, why := p.c.Applies(m)
-		mr := MethodResult{Method: m, Default: m == p.method, Applies: ok, Why: why, Warnings: []validity.Warning{}}
+		mr := MethodResult{Method: m, Used: m == p.method, Applies: ok, Why: why, Warnings: []validity.Warning{}}
 		var r Result
 		switch {
 		case !ok:
@@ -236,12 +248,15 @@ func (p *prepared) alternatives(load HeatLoad, primary Result) []MethodResult {
 			continue
 		case m == p.method:
 			r = primary
-			mr.Warnings = nil // the estimate's own warnings
+			mr.Warnings = primary.Warnings // the estimate's own
 		default:
 			var log validity.Log
 			q := *p
 			q.method, q.log, q.segBuf, q.scratch = m, &log, nil, validity.Log{}
 			q.set.TotalsOnly, q.set.OneMethod = true, true
+			if m == MethodChannel {
+				q.frictionRanges(&log)
+			}
 			r, _ = q.balance(load, &log)
 			mr.Warnings = r.Warnings
 		}

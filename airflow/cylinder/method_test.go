@@ -1,6 +1,7 @@
 package cylinder
 
 import (
+	"errors"
 	"math"
 	"testing"
 
@@ -17,6 +18,20 @@ import (
 // density, pitch of a tapered fin, the forced factor of 1) that the
 // correlation's own test cannot.
 func TestDefaultMeanHIsGibson(t *testing.T) {
+	// the recovery, the tilt and the air's density each enter: at R =
+	// 0.5, 30 deg and a 40 C day the approach speed is sqrt(0.5) V cos 30
+	// at the ambient air's density
+	c := demoCase(t, false)
+	c.Recovery, c.Tilt, c.Ambient = 0.5, math.Pi/6, 313.15
+	r, err := c.AtWall(450, 400, Settings{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	rho := airflow.Properties(c.Ambient, c.Pressure, nil).Rho
+	s := c.Head.Set
+	if want := airflow.GibsonH(s.Height, s.Pitch, math.Sqrt(0.5)*c.Speed*math.Cos(c.Tilt), rho, nil); math.Abs(r.Head.MeanH-want) > 1e-9*want {
+		t.Errorf("R 0.5, 30 deg, 40 C: mean h %.6f, Gibson %.6f", r.Head.MeanH, want)
+	}
 	for _, kmh := range []float64{10, 20, 60, 100, 150} {
 		for _, pitch := range []float64{0.005, 0.006, 0.010, 0.014, 0.015} {
 			for _, fl := range []float64{0.015, 0.020, 0.035, 0.050} {
@@ -90,7 +105,7 @@ func TestMethodsBesideTheEstimate(t *testing.T) {
 				continue
 			}
 			one := mustBalance(t, c, demoLoad, Settings{Method: m.Method, OneMethod: true})
-			if math.Abs(one.Head.WallTemp-m.Head) > 1e-9 || math.Abs(one.Barrel.WallTemp-m.Barrel) > 1e-9 || m.Default != (m.Method == all.Method) {
+			if math.Abs(one.Head.WallTemp-m.Head) > 1e-9 || math.Abs(one.Barrel.WallTemp-m.Barrel) > 1e-9 || m.Used != (m.Method == all.Method) {
 				t.Errorf("laid over %v, %s: beside %.6f / %.6f K, alone %.6f / %.6f K", lo, m.Method, m.Head, m.Barrel, one.Head.WallTemp, one.Barrel.WallTemp)
 			}
 		}
@@ -156,26 +171,35 @@ func BenchmarkEstimateMethods(b *testing.B) {
 }
 
 // The tilt table at the demo's full cruise load (2.7 kW head, 1.45 kW
-// barrel at 90 km/h) is finite from 0 to 90 deg for both fin styles on
-// the default method, each style at its unfavourable extreme cooled by
-// the broadside air (annular fins laid over: the envelope in turbulent
-// parallel flow and the slots under it; longitudinal fins upright: the
-// envelope in cross flow, the slots and the front slots' own flow), and
-// smooth: no 5 deg step moves a wall by more than 60 K, and each style
-// warms monotonically toward its unfavourable extreme.
-func TestTiltFiniteAndSmoothAtCruise(t *testing.T) {
+// barrel at 90 km/h) on the default method: finite from 10 to 80 deg for
+// both fin styles, and smooth there (no 5 deg step moves the head by more
+// than 80 K), each style warming monotonically toward its unfavourable
+// extreme; at the extremes themselves only the broadside air cools the
+// fins (annular fins laid over: the envelope's tips and the slots under
+// it; longitudinal fins upright: those and the front slots' own flow), and
+// the demo's head may find no equilibrium there, but not for want of more
+// than a third of its load at 500 C: the broadside credit is doing real
+// work.
+func TestTiltSmoothAtCruise(t *testing.T) {
 	for _, lo := range []bool{false, true} {
 		c := demoCase(t, lo)
 		prev := 0.0
 		for deg := 0.0; deg <= 90; deg += 5 {
 			c.Tilt = deg * math.Pi / 180
 			r, err := c.Balance(demoLoad, Settings{OneMethod: true})
+			if errors.Is(err, ErrNoEquilibrium) && (deg < 10 || deg > 80) {
+				if short := r.Head.Shortfall / demoLoad.Head; !(short < 1.0/3) {
+					t.Errorf("longitudinal %v at %g deg: %.0f %% of the load short at 500 C", lo, deg, 100*short)
+				}
+				prev = SaneWallLimit
+				continue
+			}
 			if err != nil {
 				t.Fatalf("longitudinal %v at %g deg: %v", lo, deg, err)
 			}
 			w := r.Head.WallTemp
-			if deg > 0 {
-				if math.Abs(w-prev) > 60 {
+			if deg > 0 && prev < SaneWallLimit {
+				if math.Abs(w-prev) > 80 {
 					t.Errorf("longitudinal %v: head %.1f K at %g deg after %.1f K", lo, w, deg, prev)
 				}
 				if lo && w > prev+1e-6 || !lo && w < prev-1e-6 {
@@ -244,6 +268,57 @@ func TestFixedHReplacesEveryCorrelation(t *testing.T) {
 		}
 		if a.Head.ForcedHeat != b.Head.ForcedHeat {
 			t.Errorf("laid over %v: the forced factor moved a fixed h: %.3f against %.3f W", lo, b.Head.ForcedHeat, a.Head.ForcedHeat)
+		}
+	}
+}
+
+// Natural convection at the fins' orientation (airflow.InclinedFinsH):
+// annular fins laid over are vertical channels as tall as the tip
+// diameter under full gravity (Bar-Cohen & Rohsenow); upright they are
+// horizontal plates (McAdams) held to what the same fins give standing
+// vertical, which binds for annular fins (their faces' short A/P against
+// the tall channel), so annular fins get the same coefficient at every
+// tilt; longitudinal fins upright are vertical channels along the finned
+// length, laid over their faces (the mean |cos| of a turn, 2/pi) as
+// horizontal plates held the same way. No tilt beats the standing fins.
+func TestNaturalByOrientation(t *testing.T) {
+	air := airflow.Properties(0.5*(450+308.15), 101325, nil)
+	dT := 450 - 308.15
+	channel := func(gap, height float64) float64 {
+		return airflow.VerticalChannelNaturalNu(airflow.Rayleigh(air, gap, dT)*gap/height, nil) * air.K / gap
+	}
+	plate := func(L, share float64) float64 {
+		ra := share * airflow.Rayleigh(air, L, dT)
+		return 0.5 * (airflow.HorizontalPlateMcAdamsNu(ra, true, nil) + airflow.HorizontalPlateMcAdamsNu(ra, false, nil)) * air.K / L
+	}
+	for _, lo := range []bool{false, true} {
+		c := demoCase(t, lo)
+		s := c.Head.Set
+		g, err := s.Geometry()
+		if err != nil {
+			t.Fatal(err)
+		}
+		h := func(deg float64) (float64, string) {
+			return airflow.InclinedFinsH(air, inclinedFins(s, g, deg*math.Pi/180), dT, nil)
+		}
+		var standing, upright, laid float64
+		if !lo {
+			standing = channel(g.GapMean, g.TipDiameter)
+			upright, laid = math.Min(plate(s.Height/2, 1), standing), standing
+		} else {
+			standing = channel(g.GapMean, s.Length)
+			upright, laid = standing, math.Min(plate(s.Length*s.Height/(2*(s.Length+s.Height)), 2/math.Pi), standing)
+		}
+		if v, _ := h(0); math.Abs(v-upright) > 1e-12*upright {
+			t.Errorf("longitudinal %v upright: %.6f, want %.6f", lo, v, upright)
+		}
+		if v, _ := h(90); math.Abs(v-laid) > 1e-12*laid {
+			t.Errorf("longitudinal %v laid over: %.6f, want %.6f", lo, v, laid)
+		}
+		for deg := 0.0; deg <= 90; deg += 10 {
+			if v, view := h(deg); !(v > 0 && v <= standing*(1+1e-12)) {
+				t.Errorf("longitudinal %v, %g deg: %.4f (%s) against the standing fins' %.4f", lo, deg, v, view, standing)
+			}
 		}
 	}
 }

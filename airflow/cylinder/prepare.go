@@ -96,16 +96,9 @@ func (c Case) prepare(s Settings, log *validity.Log) (*prepared, error) {
 	for i := range p.sets {
 		st := &p.sets[i]
 		st.vel = st.mdot / (p.amb.Rho * st.pt.FlowArea)
-		if p.method == MethodChannel && p.fast && st.mdot > 0 {
-			// the friction correlations' ranges at the solved flow (the
-			// transition between is a blend)
-			re := p.amb.Rho * st.vel * st.pt.Dh / p.amb.Mu
-			if re <= airflow.ReLaminar {
-				log.Check("Shah apparent friction, parallel plates (Shah & London 1978)", "Reynolds number", re, 0, airflow.ReLaminar)
-			} else if re >= airflow.ReTurbulent {
-				log.Check("Konakov friction factor", "Reynolds number", re, airflow.ReTurbulent, 1e6)
-			}
-		}
+	}
+	if p.method == MethodChannel {
+		p.frictionRanges(log)
 	}
 	return p, nil
 }
@@ -142,4 +135,20 @@ func (p *prepared) setFlows(dpHead, dpBarrel float64) error {
 		}
 	}
 	return nil
+}
+
+// frictionRanges checks, at the solved passage flows, the range of the
+// friction correlation in use where it states one: Konakov's 1e4 to 1e6
+// in turbulent flow (Shah's laminar form holds over all of laminar flow,
+// and the transition between is a blend).
+func (p *prepared) frictionRanges(log *validity.Log) {
+	if !p.fast {
+		return
+	}
+	for i := range p.sets {
+		st := &p.sets[i]
+		if re := p.amb.Rho * st.vel * st.pt.Dh / p.amb.Mu; st.mdot > 0 && re >= airflow.ReTurbulent {
+			log.Check("Konakov friction factor", "Reynolds number", re, airflow.ReTurbulent, 1e6)
+		}
+	}
 }

@@ -13,7 +13,7 @@
 // wall temperatures (Harrell-Davis estimates) and the probability that
 // each exceeds its limit. Every input is drawn uniformly within the
 // half-width of its Spread, whose defaults carry their sources. At 1000
-// samples the percentiles move by under 1.5 K (one standard deviation) from
+// samples the percentiles move by under 1 K (one standard deviation) from
 // seed to seed (TestBandStableBetweenSeeds); plain Latin hypercube
 // sampling moved the head's 95th percentile by 3 K.
 package uncertainty

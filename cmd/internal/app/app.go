@@ -141,7 +141,7 @@ upright with annular fins against laid over with longitudinal fins.`,
 	pf.StringVar(&e.opt.ambient, "ambient", "", "ambient air temperature, overriding air.ambient, e.g. \"40 C\"")
 	pf.StringVar(&e.opt.altitude, "altitude", "", "altitude, overriding air.altitude, e.g. \"1500 m\"")
 	pf.StringVarP(&e.opt.out, "output", "o", "", "write the result to this file instead of standard output")
-	pf.IntVar(&e.opt.samples, "samples", -1, "samples of the uncertainty band, 0 (none) or 10 to 100000 (default: the design's [uncertainty] samples, 1000)")
+	pf.IntVar(&e.opt.samples, "samples", -1, "samples of the uncertainty band, 0 (none) or 10 to 100000; without it, the design's [uncertainty] samples (1000 unless it says)")
 	pf.BoolVar(&e.opt.force, "force", false, "allow --output (and new) to replace an existing file")
 	pf.BoolVarP(&e.opt.quiet, "quiet", "q", false, "do not print warnings on standard error")
 	pf.BoolVar(&e.opt.strict, "strict", false, "treat a correlation used outside its validity range as an error (exit 4)")

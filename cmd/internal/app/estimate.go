@@ -243,6 +243,14 @@ func energyNote(r cylinder.Result, fixed bool) string {
 		return fmt.Sprintf("%.1e", v)
 	}
 	air := show(math.Max(r.Head.AirImbalance, r.Barrel.AirImbalance))
+	if r.Method != cylinder.MethodChannel && r.Supply == nil {
+		// a free-stream method's air warming is computed from its heat: no
+		// independent check is left of it
+		if fixed {
+			return "Energy check: none applies at fixed walls under a free-stream method (the air's enthalpy check belongs to the channel march)."
+		}
+		return "Energy check: heat rejected equals the load to " + show(math.Max(r.Head.LoadImbalance, r.Barrel.LoadImbalance)) + " (relative); the air's enthalpy check belongs to the channel march (a free-stream method's air warming is computed from its heat)."
+	}
 	if fixed {
 		return "Energy check: the air's enthalpy rise (from inlet and outlet) equals the forced heat to " + air + " (relative)."
 	}
@@ -269,8 +277,13 @@ func orientationNote(d *design.Design, r cylinder.Result) string {
 	for _, s := range []cylinder.SetResult{r.Head, r.Barrel} {
 		switch {
 		case s.Style == "annular":
-			parts = append(parts, fmt.Sprintf("the %s's annular fins take the road-speed share in their plane (cos %.0f deg = %.2f) on %d short paths round half the circumference, each fed with ambient air",
-				s.Name, tilt, math.Cos(d.Case.Tilt), s.Paths))
+			if r.Method == cylinder.MethodChannel {
+				parts = append(parts, fmt.Sprintf("the %s's annular fins take the road-speed share in their plane (cos %.0f deg = %.2f) on %d paths round half the circumference, each fed with ambient air",
+					s.Name, tilt, math.Cos(d.Case.Tilt), s.Paths))
+			} else {
+				parts = append(parts, fmt.Sprintf("the %s's annular fins take the road-speed share in their plane (cos %.0f deg = %.2f), with ambient air",
+					s.Name, tilt, math.Cos(d.Case.Tilt)))
+			}
 		case s.Series && s.Name == "head":
 			parts = append(parts, fmt.Sprintf("the head's longitudinal fins take the share along the axis (sin %.0f deg = %.2f) and pass their warmed air on to the barrel fins", tilt, math.Sin(d.Case.Tilt)))
 		case s.Series:

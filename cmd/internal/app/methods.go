@@ -34,7 +34,7 @@ func methodsGrid(u output.Units, r cylinder.Result) *output.Grid {
 		}
 		note := ""
 		switch {
-		case m.Default:
+		case m.Used:
 			note = "the estimate"
 		case len(m.Warnings) == 1:
 			note = "1 range warning (JSON)"

@@ -193,6 +193,7 @@ func (e *env) tilt(d *design.Design, step float64) error {
 		u.N(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), fmtT(u, d.Case.Ambient), u.Name(output.Temp)), Grids: []output.Grid{g}, Caution: true}
 	if len(cols) > 2 && !u.Full { // CSV keeps the one main table; JSON has every method in each row's result
 		doc.Grids = append(doc.Grids, mg)
+		doc.Notes = append(doc.Notes, "By method: Briggs & Young applies to annular fins only. Where a style's along-fin share of the road speed is nil (annular at 90 deg, longitudinal at 0 deg) the methods agree, because only what they share is left there: the broadside credit, natural convection and radiation; that agreement is not certainty.")
 	}
 	doc.Notes = append(doc.Notes,
 		fmt.Sprintf("Annular variant: head %d fins at %s pitch, barrel %d fins at %s pitch. Longitudinal variant: head %d fins at %s root pitch, barrel %d fins at %s root pitch. Same heights, thicknesses and mean gap.",
