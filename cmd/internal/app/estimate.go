@@ -151,6 +151,9 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 	}
 	doc.Warnings = o.warnings()
 	doc.Alerts = limitAlerts(u, o)
+	if n := leverNote(u, d, o); n != "" {
+		doc.Notes = append(doc.Notes, n)
+	}
 	if a := overRated(u, d, o); a != "" {
 		doc.Alerts = append(doc.Alerts, a)
 		doc.Notes = append(doc.Notes, a+".")
@@ -302,4 +305,19 @@ func speedLabel(r cylinder.Result) string {
 		return "passage velocity"
 	}
 	return "road air along the fins (approach)"
+}
+
+// leverNote, for a head over its limit on the road load, says what its
+// temperature rests on and what moves it: the heat (the cooling share and
+// the head's share of it) and the fins' conductance (area, h, the
+// recovery), and that a measured head temperature anchors both.
+func leverNote(u output.Units, d *design.Design, o outcome) string {
+	h := o.Result.Head
+	if o.Fixed || d.Load.Direct || !h.Equilibrium || o.HeadMargin() >= 0 {
+		return ""
+	}
+	r := d.Load.Road
+	need := 100 * (h.WallTemp - d.HeadLimit) / (h.WallTemp - d.Case.Ambient)
+	return fmt.Sprintf("To bring the head to its limit: about %.0f%% less heat to the head fins, or that much more conductance (fin area, h, the air's pressure recovery), since the head's rise over the ambient scales with the heat over the conductance. Its %s %s is %.0f%% of the fuel power to the fins (load.cooling_share, the default %.0f%% from a handbook range of 17 to 26%%; an oil cooler takes part of it) and %.0f%% of that through the head (load.head_share); a head temperature measured on the engine ('finmarch calibrate') anchors both the heat and the air side.",
+		need, u.N(u.Of(output.Power, h.HeatLoad), 0), u.Name(output.Power), 100*r.CoolShare, 100*cylinder.DefaultCoolShare, 100*r.HeadShare)
 }
