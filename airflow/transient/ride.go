@@ -125,8 +125,18 @@ type Trace struct {
 	Starts                           [][2]float64 // K, the walls at each segment's start
 	Evals                            int          // air-side evaluations
 	// Runaway is set when a wall passed cylinder.SaneWallLimit: the trace
-	// stops there (no equilibrium below 500 C).
-	Runaway  bool
+	// stops there (no equilibrium below 500 C). End is then the time it
+	// passed, located on the dense output (an event: the root of
+	// T(t) - SaneWallLimit on the step's interpolant), and RunawayWall is
+	// the wall that passed first (0 head, 1 barrel); Final is the walls
+	// there and the last sample is taken there.
+	Runaway     bool
+	RunawayWall int
+	// Steps are the integrator's accepted steps end to end from 0 to End
+	// (the last cut at a runaway): the dense output the summary reads
+	// (Summarise, Trace.At), apart from the samples and the same whatever
+	// the output interval.
+	Steps    []Step
 	Warnings []string
 }
 
@@ -190,11 +200,21 @@ var ErrRunaway = errors.New("a wall passed 500 C: no equilibrium")
 // Run integrates the ride from the wall temperatures start (K, head and
 // barrel) with the Dormand–Prince pair (Integrate), segment by segment
 // (the conditions change only between segments, so no step straddles a
-// change), and samples the state every `every` seconds and at the end.
+// change), keeps every accepted step (Trace.Steps, the dense output), and
+// samples the state every `every` seconds and at the end. The output
+// interval changes the samples only: the steps, and so the summary read
+// from them, do not depend on it.
+//
+// A wall passing cylinder.SaneWallLimit anywhere on a step's interpolant
+// stops the ride at the first such time (event location on the dense
+// output, Brent's method): the trace is Runaway and ends there.
 func (m *Model) Run(ride []Segment, start [2]float64, every float64) (Trace, error) {
 	var tr Trace
-	if every <= 0 {
+	if !(every > 0) || math.IsInf(every, 1) {
 		return tr, errors.New("the output interval must be positive")
+	}
+	if !(start[0] <= cylinder.SaneWallLimit && start[1] <= cylinder.SaneWallLimit) {
+		return tr, fmt.Errorf("the walls at the start, %g and %g K, are not below the model's %g K cap", start[0], start[1], cylinder.SaneWallLimit)
 	}
 	y := []float64{start[0], start[1], 0, 0}
 	t0, h := 0.0, 10.0 // s, the first trial step
@@ -210,6 +230,7 @@ func (m *Model) Run(ride []Segment, start [2]float64, every float64) (Trace, err
 		return nil
 	}
 	overRated, reached := false, 0.0
+	stopAt := make([]float64, 4) // the state where a runaway stops the ride
 	for si, sg := range ride {
 		if !(sg.Duration > 0) {
 			return tr, fmt.Errorf("segment %d: duration %g s must be positive", si+1, sg.Duration)
@@ -245,22 +266,51 @@ func (m *Model) Run(ride []Segment, start [2]float64, every float64) (Trace, err
 		t1 := t0 + sg.Duration
 		out := make([]float64, 4)
 		n, hl, err := Integrate(f, t0, t1, y, h, Tolerances{Abs: Tol.Abs, Rel: Tol.Rel, MaxStep: sg.Duration}, func(s *Step) error {
-			reached = s.T1
-			if s.Y1[0] > cylinder.SaneWallLimit || s.Y1[1] > cylinder.SaneWallLimit {
-				return ErrRunaway
+			stop, wall := s.T1, -1
+			for i := 0; i < 2; i++ {
+				cs, err := s.crossings(i, cylinder.SaneWallLimit)
+				if err != nil {
+					return err
+				}
+				// the step starts at or below the cap, so its first
+				// crossing is upward
+				if len(cs) > 0 && (wall < 0 || cs[0].Time < stop) {
+					stop, wall = cs[0].Time, i
+				}
 			}
-			for next <= s.T1+1e-9 {
+			end := s.T1
+			if wall >= 0 {
+				end = stop
+				if end > s.T0 {
+					tr.Steps = append(tr.Steps, s.sub(s.T0, end))
+				}
+			} else {
+				tr.Steps = append(tr.Steps, s.clone())
+			}
+			reached = end
+			for next <= end+1e-9 {
 				s.At(next, out)
 				if err := sample(next, out[0], out[1], sg, qin); err != nil {
 					return err
 				}
 				next += every
 			}
+			if wall >= 0 {
+				tr.Runaway, tr.RunawayWall = true, wall
+				s.At(end, out)
+				if tr.Samples[len(tr.Samples)-1].Time < end-1e-9 {
+					if err := sample(end, out[0], out[1], sg, qin); err != nil {
+						return err
+					}
+				}
+				copy(stopAt, out)
+				return ErrRunaway
+			}
 			return nil
 		})
 		tr.Evals += n
 		if errors.Is(err, ErrRunaway) {
-			tr.Runaway = true
+			copy(y, stopAt)
 			break
 		}
 		if err != nil {

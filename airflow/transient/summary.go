@@ -7,69 +7,110 @@ import (
 	"finmarch/airflow/cylinder"
 )
 
-// Summary is what a trace says against the limits.
+// Summary is what a trace says against the limits, read from the
+// integrator's accepted steps and their dense output (dense.go), not from
+// the samples: the same whatever the output interval.
 type Summary struct {
+	// PeakHead and PeakBarrel are the highest walls of the ride, K, and
+	// PeakHeadAt and PeakBarrelAt when, s: the largest of each step's end
+	// values and of its interpolant at the interior stationary points. In
+	// a runaway there is no peak: the walls were still climbing where the
+	// ride stopped, so the peaks are 0 K at -1 s (see Runaway).
 	PeakHead, PeakHeadAt     float64 // K, s
 	PeakBarrel, PeakBarrelAt float64 // K, s
 	// AboveHead and AboveBarrel are the time each wall spends above its
-	// limit, s (the samples joined by straight lines).
+	// limit, s: summed between the crossings of the limit (up to the
+	// runaway, in one).
 	AboveHead, AboveBarrel float64
 	// FirstOverHead and FirstOverBarrel are when each wall first passes its
-	// limit, s; -1 when it never does.
+	// limit, s (the start when it starts over); -1 when it never does. A
+	// crossing is an event located on the dense output: the root of
+	// T(t) - limit on the step's interpolant, by Brent's method.
 	FirstOverHead, FirstOverBarrel float64
+	// Runaway is set when a wall passed cylinder.SaneWallLimit (no
+	// equilibrium): RunawayAt is when, s (-1 without a runaway), and
+	// RunawayWall which wall passed first (0 head, 1 barrel).
+	Runaway     bool
+	RunawayAt   float64
+	RunawayWall int
 }
 
 // Summarise finds the peaks, the time over each limit and the first
-// passing of each, from the trace's samples.
-func Summarise(tr Trace, lim cylinder.Limits) Summary {
-	s := Summary{FirstOverHead: -1, FirstOverBarrel: -1}
-	for i, p := range tr.Samples {
-		if p.Head > s.PeakHead || i == 0 {
-			s.PeakHead, s.PeakHeadAt = p.Head, p.Time
+// passing of each, from the trace's steps (its dense output).
+func Summarise(tr Trace, lim cylinder.Limits) (Summary, error) {
+	s := Summary{FirstOverHead: -1, FirstOverBarrel: -1, RunawayAt: -1}
+	if len(tr.Steps) == 0 {
+		return s, errors.New("the trace has no steps to summarise")
+	}
+	peak, at := [2]float64{}, [2]float64{}
+	first := [2]float64{-1, -1}
+	var above [2]float64
+	for i, l := range []float64{lim.Head, lim.Barrel} {
+		s0 := &tr.Steps[0]
+		peak[i], at[i] = s0.Y0[i], s0.T0
+		over, since := s0.Y0[i] > l, s0.T0
+		if over {
+			first[i] = s0.T0
 		}
-		if p.Barrel > s.PeakBarrel || i == 0 {
-			s.PeakBarrel, s.PeakBarrelAt = p.Barrel, p.Time
+		for k := range tr.Steps {
+			st := &tr.Steps[k]
+			for _, t := range append(st.stationary(i), st.T1) {
+				if v := st.value(i, t); v > peak[i] {
+					peak[i], at[i] = v, t
+				}
+			}
+			cs, err := st.crossings(i, l)
+			if err != nil {
+				return s, err
+			}
+			for _, c := range cs {
+				if c.Up == over {
+					// not expected: the steps join end to end, so the
+					// crossings alternate; one that changes nothing is
+					// skipped
+					continue
+				}
+				if over {
+					above[i] += c.Time - since
+				} else if first[i] < 0 {
+					first[i] = c.Time
+				}
+				over, since = c.Up, c.Time
+			}
 		}
-		if i == 0 {
-			continue
-		}
-		q := tr.Samples[i-1]
-		above, first := overSpan(q.Time, p.Time, q.Head-lim.Head, p.Head-lim.Head)
-		s.AboveHead += above
-		if s.FirstOverHead < 0 && first >= 0 {
-			s.FirstOverHead = first
-		}
-		above, first = overSpan(q.Time, p.Time, q.Barrel-lim.Barrel, p.Barrel-lim.Barrel)
-		s.AboveBarrel += above
-		if s.FirstOverBarrel < 0 && first >= 0 {
-			s.FirstOverBarrel = first
+		if end := tr.Steps[len(tr.Steps)-1].T1; over {
+			above[i] += end - since
 		}
 	}
-	if len(tr.Samples) > 0 {
-		if p := tr.Samples[0]; p.Head > lim.Head {
-			s.FirstOverHead = p.Time
-		}
-		if p := tr.Samples[0]; p.Barrel > lim.Barrel {
-			s.FirstOverBarrel = p.Time
-		}
+	s.PeakHead, s.PeakHeadAt, s.PeakBarrel, s.PeakBarrelAt = peak[0], at[0], peak[1], at[1]
+	s.AboveHead, s.AboveBarrel = above[0], above[1]
+	s.FirstOverHead, s.FirstOverBarrel = first[0], first[1]
+	if tr.Runaway {
+		s.Runaway, s.RunawayAt, s.RunawayWall = true, tr.End, tr.RunawayWall
+		s.PeakHead, s.PeakHeadAt, s.PeakBarrel, s.PeakBarrelAt = 0, -1, 0, -1
 	}
-	return s
+	return s, nil
 }
 
-// overSpan is the time above zero of a quantity going linearly from a at
-// t0 to b at t1, and when it first passes zero upward (-1: it does not).
-func overSpan(t0, t1, a, b float64) (above, first float64) {
-	switch {
-	case a > 0 && b > 0:
-		return t1 - t0, -1
-	case a <= 0 && b <= 0:
-		return 0, -1
+// backUnder is the first time component i comes back down to level
+// after starting over it, s; -1 when it starts at or under it or does not
+// come back on the trace (an event on the dense output, as Summarise).
+func backUnder(tr Trace, i int, level float64) (float64, error) {
+	if len(tr.Steps) == 0 || !(tr.Steps[0].Y0[i] > level) {
+		return -1, nil
 	}
-	tc := t0 + (t1-t0)*a/(a-b) // the zero crossing
-	if b > 0 {
-		return t1 - tc, tc
+	for k := range tr.Steps {
+		cs, err := tr.Steps[k].crossings(i, level)
+		if err != nil {
+			return -1, err
+		}
+		for _, c := range cs {
+			if !c.Up {
+				return c.Time, nil
+			}
+		}
 	}
-	return tc - t0, -1
+	return -1, nil
 }
 
 // Soak is how a hot cylinder fares standing still at idle after moving.
@@ -99,7 +140,8 @@ var ErrNoStandstill = errors.New("the ride has no standstill after moving")
 
 // Soak follows the first standstill after moving in the ride: from the
 // walls at its start (tr.Starts), the standing segment continued for up to
-// horizon seconds, until each wall reaches its limit or settles.
+// horizon seconds, until each wall reaches its limit or settles. The
+// times are events on the standing run's dense output (see Summarise).
 func (m *Model) Soak(ride []Segment, tr Trace, lim cylinder.Limits, horizon float64) (*Soak, error) {
 	k := -1
 	for i := 1; i < len(ride) && i < len(tr.Starts); i++ {
@@ -122,24 +164,18 @@ func (m *Model) Soak(ride []Segment, tr Trace, lim cylinder.Limits, horizon floa
 	}
 	sk.Settle, sk.Equilibrium = settle, eq
 	sg.Duration = horizon
-	st, err := m.Run([]Segment{sg}, tr.Starts[k], 1)
+	// sampled at its ends only: the summary reads the steps
+	st, err := m.Run([]Segment{sg}, tr.Starts[k], horizon)
 	if err != nil {
 		return nil, err
 	}
-	s := Summarise(st, lim)
-	sk.Cooled = [2]float64{-1, -1}
+	s, err := Summarise(st, lim)
+	if err != nil {
+		return nil, err
+	}
 	for i, l := range []float64{lim.Head, lim.Barrel} {
-		for j, p := range st.Samples {
-			w := []float64{p.Head, p.Barrel}[i]
-			if j == 0 && w <= l {
-				break // not over when it stops
-			}
-			if w <= l {
-				q := st.Samples[j-1]
-				wq := []float64{q.Head, q.Barrel}[i]
-				sk.Cooled[i] = q.Time + (p.Time-q.Time)*(wq-l)/(wq-w)
-				break
-			}
+		if sk.Cooled[i], err = backUnder(st, i, l); err != nil {
+			return nil, err
 		}
 	}
 	for i, w := range []*float64{&sk.Head, &sk.Barrel} {

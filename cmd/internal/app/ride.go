@@ -42,7 +42,14 @@ at each moment (the road load at the moment's speed and grade, the idle heat whe
 standing) and cooled by the fins at the present walls (the steady air side,
 quasi-steady). It reports the peak of each wall and when, the time over each
 limit, and, for the first standstill after moving, the minutes until each wall
-reaches its limit standing (or that it never does).
+reaches its limit standing (or that it never does). These are read from every
+step the integrator accepted, not from the rows printed, so --every does not
+change them: a peak is the largest of each step's cubic Hermite interpolant
+(its ends and any interior extremum), a limit crossing the root of T(t) - limit
+on it by Brent's method (event location on the dense output: Hairer, Norsett and
+Wanner 1993, Sec. II.6), the time over a limit summed between crossings. A wall
+passing 500 C ends the ride there ("runaway at minute X"): no equilibrium, and no
+peak is reported.
 
 Built-in profiles (invented scenarios): ` + strings.Join(demo.RideNames(), ", ") + `. A CSV
 profile has a header naming time and speed (optionally grade, ambient, head_heat and
@@ -135,7 +142,10 @@ func (e *env) ride(d *design.Design, name, what string, ride []transient.Segment
 		return modelError(d.Name, err)
 	}
 	lim := cylinder.Limits{Head: d.HeadLimit, Barrel: d.BarrelLimit}
-	sum := transient.Summarise(tr, lim)
+	sum, err := transient.Summarise(tr, lim)
+	if err != nil {
+		return modelError(d.Name, err)
+	}
 	soak, err := m.Soak(ride, tr, lim, soakHorizon)
 	if err != nil && !errors.Is(err, transient.ErrNoStandstill) {
 		return modelError(d.Name, err)
@@ -175,7 +185,10 @@ func (e *env) rideNotes(u output.Units, d *design.Design) []string {
 		return []string{"Heat soak not computed: " + err.Error()}
 	}
 	lim := cylinder.Limits{Head: d.HeadLimit, Barrel: d.BarrelLimit}
-	sum := transient.Summarise(tr, lim)
+	sum, err := transient.Summarise(tr, lim)
+	if err != nil {
+		return []string{"Heat soak not computed: " + err.Error()}
+	}
 	soak, _ := m.Soak(ride, tr, lim, soakHorizon)
 	doc := rideDoc(u, d, m, reportRide, what, "cold (ambient)", tr, sum, soak)
 	var out []string
@@ -201,11 +214,22 @@ func rideDoc(u output.Units, d *design.Design, m *transient.Model, name, what, s
 	doc := output.Doc{Title: fmt.Sprintf("%s: ride %s, ambient %s %s", d.Name, name, fmtT(u, d.Case.Ambient), T), Grids: []output.Grid{g}, Caution: true}
 	minutes := func(s float64) string { return u.N(s/60, 1) + " min" }
 	deg := func(k float64) string { return fmtT(u, k) + " " + T }
-	doc.Notes = append(doc.Notes,
-		"Profile: "+what+". Start: "+startWhat+fmt.Sprintf(", head %s, barrel %s.", deg(tr.Starts[0][0]), deg(tr.Starts[0][1])),
-		fmt.Sprintf("Peak: head %s at minute %s, barrel %s at minute %s (limits %s and %s).",
-			deg(sum.PeakHead), u.N(sum.PeakHeadAt/60, 1), deg(sum.PeakBarrel), u.N(sum.PeakBarrelAt/60, 1), deg(d.HeadLimit), deg(d.BarrelLimit)),
-		fmt.Sprintf("Over the limit: head %s, barrel %s of the ride.", minutes(sum.AboveHead), minutes(sum.AboveBarrel)))
+	doc.Notes = append(doc.Notes, "Profile: "+what+". Start: "+startWhat+fmt.Sprintf(", head %s, barrel %s.", deg(tr.Starts[0][0]), deg(tr.Starts[0][1])))
+	// the summary is read from the integrator's steps (events on the dense
+	// output), not from the rows above: the same at any --every
+	if sum.Runaway {
+		walls := [2]string{"head", "barrel"}
+		ran, other := sum.RunawayWall, 1-sum.RunawayWall
+		doc.Notes = append(doc.Notes,
+			fmt.Sprintf("Peak: none, runaway at minute %s: the %s passed %s (no equilibrium) and the ride stops there, still climbing; the %s was at %s then (limits %s and %s).",
+				u.N(sum.RunawayAt/60, 1), walls[ran], deg(cylinder.SaneWallLimit), walls[other], deg(tr.Final[other]), deg(d.HeadLimit), deg(d.BarrelLimit)),
+			fmt.Sprintf("Over the limit: head %s, barrel %s of the ride, up to the runaway at minute %s.", minutes(sum.AboveHead), minutes(sum.AboveBarrel), u.N(sum.RunawayAt/60, 1)))
+	} else {
+		doc.Notes = append(doc.Notes,
+			fmt.Sprintf("Peak: head %s at minute %s, barrel %s at minute %s (limits %s and %s).",
+				deg(sum.PeakHead), u.N(sum.PeakHeadAt/60, 1), deg(sum.PeakBarrel), u.N(sum.PeakBarrelAt/60, 1), deg(d.HeadLimit), deg(d.BarrelLimit)),
+			fmt.Sprintf("Over the limit: head %s, barrel %s of the ride.", minutes(sum.AboveHead), minutes(sum.AboveBarrel)))
+	}
 	if soak != nil {
 		doc.Notes = append(doc.Notes, soakNote(u, soak, d))
 	}
@@ -220,7 +244,7 @@ func rideDoc(u output.Units, d *design.Design, m *transient.Model, name, what, s
 			u.N(m.Capacity[0], 0), kg(fh), kg(m.Metal.Head), u.N(m.Capacity[1], 0), kg(fb), kg(m.Metal.Barrel), source, u.N(m.Link, 1)),
 		"Model: two lumped masses heated by the load of each moment (the road load at its speed and grade, the idle heat when standing) and cooled by the fins at the present walls, by the steady air-side model (quasi-steady); integrated by the Dormand-Prince 5(4) pair with error control (Dormand and Prince 1980).")
 	if tr.Runaway {
-		doc.Notes = append(doc.Notes, fmt.Sprintf("NO EQUILIBRIUM: a wall passed 500 C at minute %.1f; the trace stops there.", tr.End/60))
+		doc.Notes = append(doc.Notes, fmt.Sprintf("NO EQUILIBRIUM: the %s passed %s at minute %s; the trace stops there.", [2]string{"head", "barrel"}[tr.RunawayWall], deg(cylinder.SaneWallLimit), u.N(tr.End/60, 1)))
 	}
 	doc.Warnings = tr.Warnings
 	if sum.FirstOverHead >= 0 {
@@ -274,13 +298,24 @@ func rideJSON(d *design.Design, m *transient.Model, name string, ride []transien
 		}
 		return t
 	}
+	peak := func(v float64) any {
+		if sum.Runaway {
+			return nil // no peak: the wall ran away (runaway_at_s)
+		}
+		return v
+	}
+	var runawayWall any
+	if sum.Runaway {
+		runawayWall = [2]string{"head", "barrel"}[sum.RunawayWall]
+	}
 	js := map[string]any{"design": d.Name, "inputs": d.Cylinder().Resolved(), "profile": map[string]any{"name": name, "segments": segs},
 		"start_K": w0, "capacity_J_K": m.Capacity, "metal_kg": [2]float64{m.Metal.Head, m.Metal.Barrel}, "link_W_K": m.Link,
 		"samples": tr.Samples, "end_s": tr.End, "runaway": tr.Runaway,
 		"energy": map[string]any{"in_J": tr.EnergyIn, "out_J": tr.EnergyOut, "stored_J": tr.Stored},
-		"summary": map[string]any{"peak_head_K": sum.PeakHead, "peak_head_at_s": sum.PeakHeadAt, "peak_barrel_K": sum.PeakBarrel, "peak_barrel_at_s": sum.PeakBarrelAt,
+		"summary": map[string]any{"peak_head_K": peak(sum.PeakHead), "peak_head_at_s": peak(sum.PeakHeadAt), "peak_barrel_K": peak(sum.PeakBarrel), "peak_barrel_at_s": peak(sum.PeakBarrelAt),
 			"above_head_limit_s": sum.AboveHead, "above_barrel_limit_s": sum.AboveBarrel,
-			"first_over_head_limit_s": never(sum.FirstOverHead), "first_over_barrel_limit_s": never(sum.FirstOverBarrel)},
+			"first_over_head_limit_s": never(sum.FirstOverHead), "first_over_barrel_limit_s": never(sum.FirstOverBarrel),
+			"runaway_at_s": never(sum.RunawayAt), "runaway_wall": runawayWall},
 		"head_limit_K": d.HeadLimit, "barrel_limit_K": d.BarrelLimit, "warnings": tr.Warnings, "caution": output.Caution}
 	if soak != nil {
 		js["standstill"] = map[string]any{"start_s": soak.Start, "head_to_limit_s": never(soak.Head), "barrel_to_limit_s": never(soak.Barrel),
