@@ -96,6 +96,7 @@ func (gr *group) fold(r Row) {
 	hot.BarrelWall = max(w.BarrelWall, r.BarrelWall)
 	hot.HeadMargin, hot.BarrelMargin = min(w.HeadMargin, r.HeadMargin), min(w.BarrelMargin, r.BarrelMargin)
 	hot.Equilibrium = w.Equilibrium && r.Equilibrium
+	hot.OverRated = w.OverRated || r.OverRated
 	hot.HeadEquilibrium = w.HeadEquilibrium && r.HeadEquilibrium
 	hot.BarrelEquilibrium = w.BarrelEquilibrium && r.BarrelEquilibrium
 	if statusRank[w.Status] > statusRank[r.Status] {

@@ -70,6 +70,11 @@ type Row struct {
 	// Uncastable lists the casting limits of the design's process that the
 	// point's fins break (cylinder.Design.Castability); empty when castable
 	Uncastable []string
+	// OverRated is set when the road asks more than the engine's rated
+	// power or top-gear speed at the point (cylinder.HeatLoad.OverRated):
+	// the engine cannot hold it, and the temperatures are what it would
+	// need.
+	OverRated bool
 	// Points is the number of operating points a design's worst-case row
 	// stands for (Summary with operating axes); 0 on a row of one point.
 	Points int
@@ -165,6 +170,7 @@ func evalPoint(g Grid, i int, build Builder, ws *cylinder.Workspace) Row {
 	r.HeadEquilibrium, r.BarrelEquilibrium = o.Result.Head.Equilibrium, o.Result.Barrel.Equilibrium
 	r.HeadFins, r.BarrelFins = d.Case.Head.Set.Count, d.Case.Barrel.Set.Count
 	r.Uncastable = d.Castability()
+	r.OverRated = o.Load.OverRated
 	r.HeadWall, r.BarrelWall = o.Result.Head.WallTemp, o.Result.Barrel.WallTemp
 	r.HeadMargin, r.BarrelMargin = o.HeadMargin(), o.BarrelMargin()
 	r.FinMass = o.Result.FinMass()

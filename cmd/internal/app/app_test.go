@@ -220,10 +220,11 @@ func TestStrict(t *testing.T) {
 	src := strings.Replace(string(demo.Upright), `ambient = "35 C"`, `ambient = "-45 C"`, 1)
 	os.WriteFile(p, []byte(src), 0o644)
 	out, errs, code := run(t, "estimate", p)
-	if code != 0 || !strings.Contains(errs, "warning: air properties") || out == "" {
+	// every warning names the design it belongs to (issue 21)
+	if code != 0 || !strings.Contains(errs, "warning: demo single, upright, annular fins: air properties") || out == "" {
 		t.Fatalf("without --strict: exit %d, stderr %s", code, errs)
 	}
-	if n := strings.Count(errs, "warning: air properties (Sutherland"); n != 1 {
+	if n := strings.Count(errs, "air properties (Sutherland"); n != 1 {
 		t.Errorf("the same cause warned %d times", n)
 	}
 	out, errs, code = run(t, "estimate", "--strict", p)

@@ -133,6 +133,9 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 	doc.Warnings = warningsOf(warns...)
 	for _, o := range os {
 		doc.Alerts = append(doc.Alerts, limitAlerts(u, o)...)
+		if a := overRated(u, o.d, o); a != "" {
+			doc.Alerts = append(doc.Alerts, a)
+		}
 	}
 	var js []map[string]any
 	for _, o := range os {

@@ -101,8 +101,18 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 	}
 	g.Rows = append(g.Rows,
 		row("air at inlet", u.Name(output.Temp), pair(func(r cylinder.SetResult) string { return fmtT(u, r.AirIn) })),
-		row("air at outlet", u.Name(output.Temp), pair(func(r cylinder.SetResult) string { return fmtT(u, r.AirOut) })),
-		row("air rise along the path", u.Name(output.TempDiff), pair(func(r cylinder.SetResult) string { return fmtDT(u, r.AirOut-r.AirIn) })),
+		row("air at outlet", u.Name(output.Temp), pair(func(r cylinder.SetResult) string {
+			if !r.Equilibrium && !o.Fixed {
+				return noValue(u, "-") // computed at the search's cap: not a state of the engine
+			}
+			return fmtT(u, r.AirOut)
+		})),
+		row("air rise along the path", u.Name(output.TempDiff), pair(func(r cylinder.SetResult) string {
+			if !r.Equilibrium && !o.Fixed {
+				return noValue(u, "-")
+			}
+			return fmtDT(u, r.AirOut-r.AirIn)
+		})),
 		row("road speed along the fins", u.Name(output.Road), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Road, r.ApproachComponent), 0) })),
 		row(speedLabel(o.Result), u.Name(output.Vel), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Vel, o.Result.AlongSpeed(r)), 2) })),
 		row("Reynolds number (2 x gap)", "-", pair(func(r cylinder.SetResult) string { return u.N(r.Reynolds, 0) })),

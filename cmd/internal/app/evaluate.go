@@ -48,14 +48,15 @@ func evaluateWith(d *design.Design, v float64, ws *cylinder.Workspace, totalsOnl
 }
 
 // warnings are the correlation range warnings and the casting limits the
-// design's fins break (its cylinder.casting process).
+// design's fins break (its cylinder.casting process), each naming the
+// design, so that a run of several designs says whose they are.
 func (o outcome) warnings() []string {
 	var out []string
 	for _, w := range o.Result.Warnings {
-		out = append(out, w.String())
+		out = append(out, o.d.Name+": "+w.String())
 	}
 	for _, c := range o.d.Cylinder().Castability() {
-		out = append(out, "casting: "+c)
+		out = append(out, o.d.Name+": casting: "+c)
 	}
 	return out
 }

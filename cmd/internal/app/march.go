@@ -42,12 +42,16 @@ func (e *env) march(d *design.Design) error {
 				u.N(u.Of(output.H, sg.H), 1), u.N(sg.FinEff, 3), u.N(u.Of(output.Flux, sg.Flux), 0), u.N(u.Of(output.Power, sg.Heat), 1)})
 		}
 	}
-	doc := output.Doc{Title: fmt.Sprintf("%s: channel march at %s %s (head wall %s %s, barrel wall %s %s)", d.Name,
-		u.N(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), fmtT(u, o.Result.Head.WallTemp), T, fmtT(u, o.Result.Barrel.WallTemp), T),
+	doc := output.Doc{Title: fmt.Sprintf("%s: channel march at %s %s (head wall %s, barrel wall %s)", d.Name,
+		u.N(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), wallPhrase(u, o.Result.Head), wallPhrase(u, o.Result.Barrel)),
 		Grids: []output.Grid{g}, Caution: true}
 	for _, s := range []cylinder.SetResult{o.Result.Head, o.Result.Barrel} {
 		if len(s.March) == 0 {
 			doc.Notes = append(doc.Notes, fmt.Sprintf("The %s fins get no forced flow at this tilt and speed: natural convection and radiation only.", s.Name))
+			continue
+		}
+		if !s.Equilibrium {
+			doc.Notes = append(doc.Notes, fmt.Sprintf("%s: no equilibrium below %s %s: the march is drawn at that cap, a state the fins never reach, so its air temperatures are not shown as results.", title(s.Name), fmtT(u, cylinder.SaneWallLimit), T))
 			continue
 		}
 		first, last := s.March[0], s.March[len(s.March)-1]
@@ -73,4 +77,13 @@ func (e *env) march(d *design.Design) error {
 		return modelError(d.Name, o.NoEquilibrium)
 	}
 	return nil
+}
+
+// wallPhrase is a set's wall in a sentence: the temperature with its
+// unit, or "no equilibrium", never the search's cap.
+func wallPhrase(u output.Units, r cylinder.SetResult) string {
+	if !r.Equilibrium {
+		return noEquilibrium
+	}
+	return fmtT(u, r.WallTemp) + " " + u.Name(output.Temp)
 }

@@ -354,6 +354,10 @@ func sweepCells(r sweep.Row, axes sweep.Grid, u output.Units) []string {
 		status += ", uncastable"
 		note = strings.TrimPrefix(note+"; "+strings.Join(r.Uncastable, "; "), "; ")
 	}
+	if r.OverRated {
+		status += ", past rated"
+		note = strings.TrimPrefix(note+"; the engine cannot hold this speed (load.rated_power or load.top_gear_speed)", "; ")
+	}
 	return append(c, strconv.Itoa(r.HeadFins), strconv.Itoa(r.BarrelFins), ht, bt, hm, bm,
 		u.N(u.Of(output.Mass, r.FinMass), 3), u.N(u.Of(output.PerMass, r.HeatPerFinMass), 0), status, note)
 }
@@ -382,6 +386,9 @@ func sweepJSON(r sweep.Row, axes sweep.Grid) map[string]any {
 		m["note"] = r.Note
 	}
 	m["uncastable"] = r.Uncastable
+	if r.Evaluated {
+		m["over_rated"] = r.OverRated
+	}
 	stampJSON(m, "sweep")
 	return m
 }

@@ -132,6 +132,7 @@ func (e *env) tilt(d *design.Design, step float64) error {
 	}
 	var warns [][]string
 	var rows []map[string]any
+	rated := "" // the speed past the engine's rated power: the same at every tilt
 	cell := func(_ outcome, r cylinder.SetResult) string { return wallText(u, r) }
 	var tilts []float64
 	for i := 0; float64(i)*step < 90-1e-9; i++ {
@@ -153,6 +154,9 @@ func (e *env) tilt(d *design.Design, step float64) error {
 			}
 			outs = append(outs, o)
 			warns = append(warns, o.warnings())
+			if a := overRated(u, &cp, o); a != "" {
+				rated = a
+			}
 		}
 		a, l := outs[0], outs[1]
 		better := "annular"
@@ -202,6 +206,9 @@ func (e *env) tilt(d *design.Design, step float64) error {
 		tiltAirNote(d),
 		noteWall)
 	doc.Warnings = warningsOf(warns...)
+	if rated != "" {
+		doc.Alerts = append(doc.Alerts, rated)
+	}
 	doc.JSON = map[string]any{"design": d.Name, "inputs": d.Cylinder().Resolved(), "rows": rows, "warnings": doc.Warnings, "caution": output.Caution}
 	return e.emit(doc)
 }
