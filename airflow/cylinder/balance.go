@@ -28,12 +28,11 @@ func (c Case) Balance(load HeatLoad, s Settings) (Result, error) {
 // balance is Balance on a prepared case (its flows, and a fan's operating
 // point, already solved), recording warnings in log.
 func (p *prepared) balance(load HeatLoad, log *validity.Log) (Result, error) {
-	c := p.c
 	if !(load.Head >= 0) || !(load.Barrel >= 0) || math.IsInf(load.Head, 0) || math.IsInf(load.Barrel, 0) {
 		return Result{}, fmt.Errorf("heat load must be finite and not negative (head %g W, barrel %g W)", load.Head, load.Barrel)
 	}
-	hr, hm, errH := p.solveWall(&p.sets[head], c.Ambient, load.Head)
-	tin := c.Ambient
+	hr, hm, errH := p.solveWall(&p.sets[head], p.inlet, load.Head)
+	tin := p.inlet
 	if p.series {
 		tin = hm.tOut
 	}
@@ -63,10 +62,10 @@ func (c Case) AtWall(headT, barrelT float64, s Settings) (Result, error) {
 			return Result{}, fmt.Errorf("wall temperature %g K must lie between ambient (%g K) and 1000 K", t, c.Ambient)
 		}
 	}
-	hr, hm := p.setHeat(&p.sets[head], headT, c.Ambient, true)
+	hr, hm := p.setHeat(&p.sets[head], headT, p.inlet, true)
 	own(&hr)
 	hr.Equilibrium = true // a given wall is a state, not a search
-	tin := c.Ambient
+	tin := p.inlet
 	if p.series {
 		tin = hm.tOut
 	}

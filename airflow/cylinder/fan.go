@@ -146,6 +146,9 @@ type FanPointResult struct {
 	AirPower   float64 `json:"air_power_W"`    // Q p
 	Efficiency float64 `json:"efficiency"`     // 0: not given; the shaft power is then the air power (a lower bound)
 	Power      float64 `json:"shaft_power_W"`
+	// Warming is the rise of the air the fan moves from the shaft power
+	// it dissipates, K: all of it is taken as heat in the fins' inlet air
+	Warming float64 `json:"inlet_warming_K"`
 }
 
 // fanPoint finds where the fan's curve meets the system's: the pressure

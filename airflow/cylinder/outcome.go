@@ -107,6 +107,22 @@ type Outcome struct {
 	Limits        Limits
 }
 
+// LoadAt is the heat load of the design at its operating point under
+// settings s, as Evaluate takes it: the road load plus, with a fan supply,
+// the fan's shaft power as crank power (its operating point solved with
+// the settings' passage model).
+func (d Design) LoadAt(s Settings) (HeatLoad, error) {
+	load := d.Load
+	if d.Case.Supply.Kind == SupplyFan && !d.Load.Direct {
+		op, err := d.Case.FanOperatingPoint(s)
+		if err != nil {
+			return HeatLoad{}, err
+		}
+		load.Road.AccessoryPower += op.Power
+	}
+	return load.At(d.Case)
+}
+
 // Evaluate estimates the design with settings s: the wall balance at the
 // design's load, or the heat at fixed walls. The absence of an
 // equilibrium is part of the outcome; an error is a failure (bad input, a

@@ -52,6 +52,7 @@ type prepared struct {
 	method    Method              // the forced-convection method, resolved
 	drop      float64             // Pa across the fins, a ducted supply
 	fan       FanPointResult      // a fan supply's operating point
+	inlet     float64             // K, the air entering the fins: ambient, warmed by a fan's shaft power
 }
 
 func (c Case) prepare(s Settings, log *validity.Log) (*prepared, error) {
@@ -59,7 +60,7 @@ func (c Case) prepare(s Settings, log *validity.Log) (*prepared, error) {
 		return nil, err
 	}
 	c.Recovery = c.recovery()
-	p := &prepared{c: c, set: s.resolved(), log: log, passage: s.Passage, fast: s.Passage == nil}
+	p := &prepared{c: c, set: s.resolved(), log: log, passage: s.Passage, fast: s.Passage == nil, inlet: c.Ambient}
 	if p.fast {
 		p.passage = airflow.DevelopingPlates{}
 	}

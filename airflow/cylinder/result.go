@@ -64,8 +64,11 @@ type SetResult struct {
 	March             []Segment `json:"march,omitempty"`     // omitted when TotalsOnly
 }
 
-// MarshalJSON writes the set with a null wall temperature when it has no
-// equilibrium, so that no script reads the search's cap as a temperature.
+// MarshalJSON writes the set with a null wall temperature and air outlet,
+// and without its march, when it has no equilibrium, so that no script reads the search's cap, or
+// the air leaving fins held at it, as a temperature (the heats at the cap
+// stay: they are the most the fins reject below it, and the shortfall is
+// the load less them).
 func (r SetResult) MarshalJSON() ([]byte, error) {
 	type plain SetResult
 	if r.Equilibrium {
@@ -73,7 +76,9 @@ func (r SetResult) MarshalJSON() ([]byte, error) {
 	}
 	return json.Marshal(struct {
 		plain
-		WallTemp *float64 `json:"wall_temperature_K"`
+		WallTemp *float64  `json:"wall_temperature_K"`
+		AirOut   *float64  `json:"air_outlet_K"`
+		March    []Segment `json:"march,omitempty"` // a march at the cap: left out
 	}{plain: plain(r)})
 }
 

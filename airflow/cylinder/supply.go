@@ -86,6 +86,15 @@ func (p *prepared) ductFlows() error {
 		if err != nil {
 			return err
 		}
+		// the fan's shaft power ends as heat in the air it moves (its
+		// losses at once, the air power as the pressure is lost in the
+		// shroud and the fins): counted all at the fins' inlet, which
+		// overstates the first segments' air temperature by at most that
+		// rise (a conservative simplification: about 1 K at cruise)
+		if op.Flow > 0 && op.Power > 0 {
+			p.inlet = mixOut(p.c.Ambient, op.Power, p.amb.Rho*op.Flow)
+			op.Warming = p.inlet - p.c.Ambient
+		}
 		p.fan = op
 		dp = op.Drop
 	case s.MassFlow > 0:

@@ -257,3 +257,28 @@ func TestFanNoEquilibrium(t *testing.T) {
 		t.Errorf("err %v, no equilibrium %v, status %s, head %.1f K", err, o.NoEquilibrium, o.Status(), o.Result.Head.WallTemp)
 	}
 }
+
+// The fan's shaft power warms the air it moves: the fins' inlet air is
+// ambient plus P / (rho Q cp), with cp of air near 300 K (1007 J/kg K,
+// Cengel's Table A-15, to 0.5 %), and the head's passage heat is taken from
+// that inlet (the air's enthalpy balance still holds).
+func TestFanWarmsItsAir(t *testing.T) {
+	c := fanCase(t, 60/3.6)
+	r, err := c.AtWall(450, 400, Settings{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	f := r.Supply.Fan
+	rho := c.Pressure / (287.05 * c.Ambient)
+	want := f.Power / (rho * f.Flow * 1007)
+	if !(want > 0.05) || math.Abs(f.Warming-want) > 0.005*want {
+		t.Errorf("warming %.4f K, P/(rho Q cp) = %.4f K (%.1f W, %.4f m3/s)", f.Warming, want, f.Power, f.Flow)
+	}
+	if math.Abs(r.Head.AirIn-(c.Ambient+f.Warming)) > 1e-9 || math.Abs(r.Barrel.AirIn-(c.Ambient+f.Warming)) > 1e-9 {
+		t.Errorf("inlet air %.4f / %.4f K, ambient %.2f K + %.4f K", r.Head.AirIn, r.Barrel.AirIn, c.Ambient, f.Warming)
+	}
+	if r.Head.AirImbalance > 1e-3 {
+		t.Errorf("air imbalance %g", r.Head.AirImbalance)
+	}
+	t.Logf("fan %.1f W shaft into %.4f m3/s: inlet +%.3f K", f.Power, f.Flow, f.Warming)
+}

@@ -166,7 +166,7 @@ func (m *Model) HeatIn(sg Segment) ([2]float64, bool, error) {
 		return *sg.Heat, false, nil
 	}
 	d := m.at(sg)
-	l, err := d.Load.At(d.Case)
+	l, err := d.LoadAt(m.Settings) // a fan's shaft power included, as the steady estimate takes it
 	if err != nil {
 		return [2]float64{}, false, err
 	}
@@ -326,7 +326,7 @@ func (m *Model) Run(ride []Segment, start [2]float64, every float64) (Trace, err
 	tr.EnergyIn, tr.EnergyOut, tr.End, tr.Final = y[2], y[3], reached, [2]float64{y[0], y[1]}
 	tr.Stored = m.Capacity[0]*(y[0]-start[0]) + m.Capacity[1]*(y[1]-start[1])
 	if overRated {
-		tr.Warnings = append(tr.Warnings, "the road asks more than the engine's rated power (or speed) in part of the ride: the heat there is what that speed would need")
+		tr.Warnings = append(tr.Warnings, "the road asks more than the engine's rated power (or speed) in part of the ride, a speed the engine cannot hold: the heat there is what that speed would need")
 	}
 	return tr, nil
 }

@@ -153,7 +153,7 @@ func explain(u output.Units, a, b outcome, la, lb rune) string {
 	db := b.Result.Barrel.WallTemp - a.Result.Barrel.WallTemp
 	// each set's difference, or which side has no equilibrium (its wall
 	// is the search's cap, not a temperature)
-	cap := fmtT(u, cylinder.SaneWallLimit) + " " + u.Name(output.Temp)
+	cap := capText(u)
 	word := func(set string, ra, rb cylinder.SetResult, d float64) string {
 		switch {
 		case !ra.Equilibrium && !rb.Equilibrium:

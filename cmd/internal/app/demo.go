@@ -63,6 +63,8 @@ func (e *env) runDemo() error {
 		return err
 	}
 	doc.Notes = append(doc.Notes, "Try your own: 'finmarch new my-cylinder.toml' writes a commented design; "+
-		"'finmarch estimate my-cylinder.toml' estimates it; 'finmarch --help' lists the other commands.")
+		"'finmarch estimate my-cylinder.toml' estimates it; 'finmarch --help' lists the other commands. "+
+		"From the source tree, 'go install ./cmd/finmarch' puts finmarch in $(go env GOPATH)/bin (add that to your PATH), "+
+		"or put 'go run ./cmd/finmarch' where these say 'finmarch'.")
 	return e.emit(doc)
 }

@@ -113,7 +113,12 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 			}
 			return fmtDT(u, r.AirOut-r.AirIn)
 		})),
-		row("road speed along the fins", u.Name(output.Road), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Road, r.ApproachComponent), 0) })),
+		row("road speed along the fins", u.Name(output.Road), pair(func(r cylinder.SetResult) string {
+			if o.Result.Supply != nil {
+				return noValue(u, "- (shrouded)") // inside a shroud or baffles the road air does not reach the fins
+			}
+			return u.N(u.Of(output.Road, r.ApproachComponent), 0)
+		})),
 		row(speedLabel(o.Result), u.Name(output.Vel), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Vel, o.Result.AlongSpeed(r)), 2) })),
 		row("Reynolds number (2 x gap)", "-", pair(func(r cylinder.SetResult) string { return u.N(r.Reynolds, 0) })),
 		row("flow regime", "", pair(func(r cylinder.SetResult) string { return r.Regime })),
@@ -197,8 +202,8 @@ func limitAlerts(u output.Units, o outcome) []string {
 	}{{"head", o.Result.Head, o.d.HeadLimit, o.HeadMargin()}, {"barrel", o.Result.Barrel, o.d.BarrelLimit, o.BarrelMargin()}} {
 		switch {
 		case !x.r.Equilibrium:
-			out = append(out, fmt.Sprintf("%s: the %s fins find no equilibrium below %s %s: there they reject %.0f W of the %.0f W load, %.0f W short",
-				o.d.Name, x.name, fmtT(u, cylinder.SaneWallLimit), u.Name(output.Temp), x.r.HeatRejected, x.r.HeatLoad, x.r.Shortfall))
+			out = append(out, fmt.Sprintf("%s: the %s fins find no equilibrium below %s: there they reject %.0f W of the %.0f W load, %.0f W short",
+				o.d.Name, x.name, capText(u), x.r.HeatRejected, x.r.HeatLoad, x.r.Shortfall))
 		case x.margin < 0:
 			out = append(out, fmt.Sprintf("%s: the %s runs at %s %s, %s %s over its %s %s limit",
 				o.d.Name, x.name, fmtT(u, x.r.WallTemp), u.Name(output.Temp), fmtDT(u, -x.margin), u.Name(output.TempDiff), fmtT(u, x.limit), u.Name(output.Temp)))

@@ -37,6 +37,9 @@ func (e *env) march(d *design.Design) error {
 	g := output.Grid{Title: "March along one air path of each fin set (heat and flux summed over all parallel paths)",
 		Header: []string{"set", "segment", "x (" + L + ")", "air in (" + T + ")", "air out (" + T + ")", "h (" + u.Name(output.H) + ")", "fin eff", "flux (" + u.Name(output.Flux) + ")", "heat (" + u.Name(output.Power) + ")"}, Left: 1}
 	for _, s := range []cylinder.SetResult{o.Result.Head, o.Result.Barrel} {
+		if !s.Equilibrium && !o.Fixed {
+			continue // a march at the search's cap is not a state: the note says so
+		}
 		for i, sg := range s.March {
 			g.Rows = append(g.Rows, []string{s.Name, fmt.Sprint(i + 1), u.N(u.Of(output.Len, sg.X), u.Dec(output.Len)), fmtT(u, sg.AirIn), fmtT(u, sg.AirOut),
 				u.N(u.Of(output.H, sg.H), 1), u.N(sg.FinEff, 3), u.N(u.Of(output.Flux, sg.Flux), 0), u.N(u.Of(output.Power, sg.Heat), 1)})
@@ -51,7 +54,7 @@ func (e *env) march(d *design.Design) error {
 			continue
 		}
 		if !s.Equilibrium {
-			doc.Notes = append(doc.Notes, fmt.Sprintf("%s: no equilibrium below %s %s: the march is drawn at that cap, a state the fins never reach, so its air temperatures are not shown as results.", title(s.Name), fmtT(u, cylinder.SaneWallLimit), T))
+			doc.Notes = append(doc.Notes, fmt.Sprintf("%s: no equilibrium below %s: its march would be drawn at that cap, a state the fins never reach, so it is left out of the table and the JSON.", title(s.Name), capText(u)))
 			continue
 		}
 		first, last := s.March[0], s.March[len(s.March)-1]
@@ -60,11 +63,11 @@ func (e *env) march(d *design.Design) error {
 			u.N(u.Of(output.Flux, first.Flux), 0), u.N(u.Of(output.Flux, last.Flux), 0), u.Name(output.Flux), u.N(100*last.Flux/first.Flux, 0)))
 	}
 	if o.NoEquilibrium != nil {
-		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.NoEquilibrium.Error()+"; the march is shown at the search limit.")
+		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.NoEquilibrium.Error()+".")
 	}
 	if o.Result.Method != def.Result.Method {
-		doc.Notes = append(doc.Notes, fmt.Sprintf("This is the channel method's march (air along closed fin passages). The estimate itself uses %s (%s), which has a mean coefficient and no path: head %s %s, barrel %s %s ('finmarch estimate' compares the methods).",
-			def.Result.Method, def.Result.Method.Describe(), wallText(u, def.Result.Head), T, wallText(u, def.Result.Barrel), T))
+		doc.Notes = append(doc.Notes, fmt.Sprintf("This is the channel method's march (air along closed fin passages). The estimate itself uses %s (%s), which has a mean coefficient and no path: head %s, barrel %s ('finmarch estimate' compares the methods).",
+			def.Result.Method, def.Result.Method.Describe(), wallPhrase(u, def.Result.Head), wallPhrase(u, def.Result.Barrel)))
 	}
 	doc.Notes = append(doc.Notes, energyNote(o.Result, o.Fixed))
 	doc.Warnings = o.warnings()
@@ -77,6 +80,12 @@ func (e *env) march(d *design.Design) error {
 		return modelError(d.Name, o.NoEquilibrium)
 	}
 	return nil
+}
+
+// capText is the search's cap as a threshold in a sentence, "500 C" (whole
+// degrees: it is a limit of the search, never a result).
+func capText(u output.Units) string {
+	return u.N(u.Of(output.Temp, cylinder.SaneWallLimit), 0) + " " + u.Name(output.Temp)
 }
 
 // wallPhrase is a set's wall in a sentence: the temperature with its

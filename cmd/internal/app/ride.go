@@ -222,7 +222,7 @@ func rideDoc(u output.Units, d *design.Design, m *transient.Model, name, what, s
 		ran, other := sum.RunawayWall, 1-sum.RunawayWall
 		doc.Notes = append(doc.Notes,
 			fmt.Sprintf("Peak: none, runaway at minute %s: the %s passed %s (no equilibrium) and the ride stops there, still climbing; the %s was at %s then (limits %s and %s).",
-				u.N(sum.RunawayAt/60, 1), walls[ran], deg(cylinder.SaneWallLimit), walls[other], deg(tr.Final[other]), deg(d.HeadLimit), deg(d.BarrelLimit)),
+				u.N(sum.RunawayAt/60, 1), walls[ran], capText(u), walls[other], deg(tr.Final[other]), deg(d.HeadLimit), deg(d.BarrelLimit)),
 			fmt.Sprintf("Over the limit: head %s, barrel %s of the ride, up to the runaway at minute %s.", minutes(sum.AboveHead), minutes(sum.AboveBarrel), u.N(sum.RunawayAt/60, 1)))
 	} else {
 		doc.Notes = append(doc.Notes,
@@ -244,9 +244,9 @@ func rideDoc(u output.Units, d *design.Design, m *transient.Model, name, what, s
 			u.N(m.Capacity[0], 0), kg(fh), kg(m.Metal.Head), u.N(m.Capacity[1], 0), kg(fb), kg(m.Metal.Barrel), source, u.N(m.Link, 1)),
 		"Model: two lumped masses heated by the load of each moment (the road load at its speed and grade, the idle heat when standing) and cooled by the fins at the present walls, by the steady air-side model (quasi-steady); integrated by the Dormand-Prince 5(4) pair with error control (Dormand and Prince 1980).")
 	if tr.Runaway {
-		doc.Notes = append(doc.Notes, fmt.Sprintf("NO EQUILIBRIUM: the %s passed %s at minute %s; the trace stops there.", [2]string{"head", "barrel"}[tr.RunawayWall], deg(cylinder.SaneWallLimit), u.N(tr.End/60, 1)))
+		doc.Notes = append(doc.Notes, fmt.Sprintf("NO EQUILIBRIUM: the %s passed %s at minute %s; the trace stops there.", [2]string{"head", "barrel"}[tr.RunawayWall], capText(u), u.N(tr.End/60, 1)))
 	}
-	doc.Warnings = tr.Warnings
+	doc.Warnings = rideWarnings(d, tr)
 	if sum.FirstOverHead >= 0 {
 		doc.Alerts = append(doc.Alerts, fmt.Sprintf("%s: the head passes its %s limit at minute %s of the ride", d.Name, deg(d.HeadLimit), u.N(sum.FirstOverHead/60, 1)))
 	}
@@ -277,6 +277,16 @@ func soakNote(u output.Units, s *transient.Soak, d *design.Design) string {
 	}
 	return fmt.Sprintf("Standing at idle from minute %s (the first stop after moving): %s; %s.", u.N(s.Start/60, 1),
 		part("head", s.Head, s.Settle[0], d.HeadLimit, s.Cooled[0]), part("barrel", s.Barrel, s.Settle[1], d.BarrelLimit, s.Cooled[1]))
+}
+
+// rideWarnings are the ride's warnings, each naming the design, as every
+// command's warnings do.
+func rideWarnings(d *design.Design, tr transient.Trace) []string {
+	out := []string{}
+	for _, w := range tr.Warnings {
+		out = append(out, d.Name+": "+w)
+	}
+	return out
 }
 
 // rideJSON is the ride in SI.
@@ -316,7 +326,7 @@ func rideJSON(d *design.Design, m *transient.Model, name string, ride []transien
 			"above_head_limit_s": sum.AboveHead, "above_barrel_limit_s": sum.AboveBarrel,
 			"first_over_head_limit_s": never(sum.FirstOverHead), "first_over_barrel_limit_s": never(sum.FirstOverBarrel),
 			"runaway_at_s": never(sum.RunawayAt), "runaway_wall": runawayWall},
-		"head_limit_K": d.HeadLimit, "barrel_limit_K": d.BarrelLimit, "warnings": tr.Warnings, "caution": output.Caution}
+		"head_limit_K": d.HeadLimit, "barrel_limit_K": d.BarrelLimit, "warnings": rideWarnings(d, tr), "caution": output.Caution}
 	if soak != nil {
 		js["standstill"] = map[string]any{"start_s": soak.Start, "head_to_limit_s": never(soak.Head), "barrel_to_limit_s": never(soak.Barrel),
 			"head_never": soak.Head < 0, "barrel_never": soak.Barrel < 0, "settle_K": soak.Settle, "equilibrium": soak.Equilibrium, "horizon_s": soak.Horizon,

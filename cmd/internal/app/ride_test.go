@@ -110,7 +110,7 @@ func TestRideFile(t *testing.T) {
 	}
 	hot := write("hot.csv", "time (min),speed (km/h)\n0,170\n30,170\n")
 	out, errs, code = run(t, "ride", up, "--profile", hot, "--every", "1 min")
-	if code != ExitModel || !strings.Contains(errs, "passed 500 C") || !strings.Contains(out, "NO EQUILIBRIUM: the head passed 500.0 C at minute") || !strings.Contains(out, "Peak: none, runaway at minute") {
+	if code != ExitModel || !strings.Contains(errs, "passed 500 C") || !strings.Contains(out, "NO EQUILIBRIUM: the head passed 500 C at minute") || !strings.Contains(out, "Peak: none, runaway at minute") {
 		t.Errorf("runaway: exit %d %s\n%s", code, errs, out)
 	}
 }
@@ -278,7 +278,7 @@ func TestRideRunaway(t *testing.T) {
 		t.Errorf("schema: %v", err)
 	}
 	out, _, _ := run(t, "ride", hot, "--profile", "mountain-pass")
-	want := fmt.Sprintf("Peak: none, runaway at minute %.1f: the head passed 500.0 C", at/60)
+	want := fmt.Sprintf("Peak: none, runaway at minute %.1f: the head passed 500 C", at/60)
 	if !strings.Contains(out, want) || strings.Contains(out, "Peak: head") || !strings.Contains(out, fmt.Sprintf("up to the runaway at minute %.1f", at/60)) {
 		t.Errorf("want %q, no peak\n%s", want, out)
 	}

@@ -51,6 +51,7 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 	var warns [][]string
 	var rows []map[string]any
 	stopped := ""
+	pastRated := -1.0 // the first speed of the sweep past the engine's rating, m/s
 	for i := 0; ; i++ {
 		v := from + float64(i)*step
 		if v > to+1e-9 {
@@ -62,7 +63,7 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 		}
 		if o.Load.OverRated {
 			// the engine cannot hold this speed: the sweep stops here
-			stopped = topSpeedNote(u, d)
+			stopped, pastRated = topSpeedNote(u, d), v
 			break
 		}
 		warns = append(warns, o.warnings())
@@ -85,8 +86,12 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 			row = append(row, bandText(u, band.Head), u.N(100*band.HeadOver, 0))
 		}
 		g.Rows = append(g.Rows, row)
-		rows = append(rows, putBand(map[string]any{"speed_m_s": v, "load": o.Load, "head": summary(o.Result.Head), "barrel": summary(o.Result.Barrel),
-			"head_margin_K": marginJSON(o.Result.Head, o.HeadMargin()), "status": o.Status(), "equilibrium": o.NoEquilibrium == nil}, "band", band))
+		js := map[string]any{"speed_m_s": v, "load": o.Load, "head": summary(o.Result.Head), "barrel": summary(o.Result.Barrel),
+			"head_margin_K": marginJSON(o.Result.Head, o.HeadMargin()), "status": o.Status(), "equilibrium": o.NoEquilibrium == nil}
+		if fan {
+			js["fan"] = o.Result.Supply.Fan // the operating point the table's fan columns show
+		}
+		rows = append(rows, putBand(js, "band", band))
 	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: road-speed sweep, ambient %s %s, tilt %.0f deg", d.Name, fmtT(u, d.Case.Ambient), T, d.Case.Tilt*180/math.Pi),
 		Grids: []output.Grid{g}, Caution: true}
@@ -100,6 +105,7 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 		doc.Notes = append(doc.Notes, note)
 		if stopped != "" {
 			doc.Notes = append(doc.Notes, stopped)
+			doc.Alerts = append(doc.Alerts, d.Name+": "+stopped) // on standard error too, where CSV leaves notes out
 		}
 	} else {
 		doc.Notes = append(doc.Notes, "The heat load is the design's fixed head_heat and barrel_heat at every speed.")
@@ -107,6 +113,9 @@ func (e *env) speeds(d *design.Design, from, to, step float64) error {
 	doc.Notes = append(doc.Notes, noteWall)
 	doc.Warnings = warningsOf(warns...)
 	doc.JSON = map[string]any{"design": d.Name, "inputs": d.Cylinder().Resolved(), "rows": rows, "warnings": doc.Warnings, "caution": output.Caution}
+	if pastRated >= 0 {
+		doc.JSON.(map[string]any)["past_rated_from_m_s"] = pastRated // the sweep stops there: the engine cannot hold it
+	}
 	return e.emit(doc)
 }
 

@@ -3,6 +3,7 @@ package app
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -37,8 +38,10 @@ casting process allows). Beside each head temperature is its uncertainty band, t
 	return cmd
 }
 
-// restyled is the design with both fin sets of style st at the same mean
-// gap, kept castable by the design's process where a count can do it; it
+// restyled is the design with both fin sets of style st: a set already
+// of that style is kept as drawn (the user's own fins); a set laid the
+// other way keeps the mean gap, kept castable by the design's process
+// where a count can do it, at sizes a pattern maker draws (pasteable); it
 // says which sets it thinned out.
 func restyled(d *design.Design, st fins.Style) (*design.Design, []string, error) {
 	cp := *d
@@ -48,11 +51,18 @@ func restyled(d *design.Design, st fins.Style) (*design.Design, []string, error)
 		dst  *fins.Set
 		src  fins.Set
 	}{{"head", &cp.Case.Head.Set, d.Case.Head.Set}, {"barrel", &cp.Case.Barrel.Set, d.Case.Barrel.Set}} {
+		if x.src.Style == st {
+			continue // as drawn
+		}
 		same, err := x.src.Restyle(st)
 		if err != nil {
 			return nil, nil, fmt.Errorf("%s fins as %s: %w", x.name, st, err)
 		}
-		if *x.dst, _, err = x.src.RestyleFor(st, d.Casting); err != nil {
+		v, _, err := x.src.RestyleFor(st, d.Casting)
+		if err != nil {
+			return nil, nil, fmt.Errorf("%s fins as %s: %w", x.name, st, err)
+		}
+		if *x.dst, err = pasteable(v, d.Casting); err != nil {
 			return nil, nil, fmt.Errorf("%s fins as %s: %w", x.name, st, err)
 		}
 		if x.dst.Count < same.Count {
@@ -65,6 +75,68 @@ func restyled(d *design.Design, st fins.Style) (*design.Design, []string, error)
 		cp.Case.Supply.Series = false
 	}
 	return &cp, thinned, nil
+}
+
+// pitchStep is the step of a suggested variant's pitch: 0.1 mm, the
+// precision its TOML is printed at (common practice for a pattern
+// drawing's fin spacing).
+const pitchStep = 1e-4
+
+// pasteable is a restyled set at a pitch on the pitchStep grid, so that
+// the TOML printed for it is exactly the set estimated: a longitudinal
+// set's root pitch rounded down (the fins still go round the root), an
+// annular set's to the nearest step with as many fins as fit; where that
+// breaks a casting limit the set loses a fin (or opens a step) until it
+// keeps them, as RestyleFor does.
+func pasteable(s fins.Set, p fins.Process) (fins.Set, error) {
+	out := s
+	grid := func(v float64) float64 { return math.Round(v/pitchStep) * pitchStep }
+	switch s.Style {
+	case fins.StyleLongitudinal:
+		out.Pitch = math.Floor(s.Pitch/pitchStep+1e-6) * pitchStep
+	default:
+		out.Pitch = grid(s.Pitch)
+		out.Count = min(s.Count, out.Fitting())
+	}
+	castable := func(x fins.Set) bool {
+		for _, v := range p.Check(x) {
+			if v.Slack < -1e-9 {
+				return false
+			}
+		}
+		return true
+	}
+	wasCastable := castable(s)
+	for i := 0; i < 200 && wasCastable && !castable(out) && out.Count > 1; i++ {
+		if out.Style == fins.StyleLongitudinal {
+			out.Count--
+			out.Pitch = math.Floor(math.Pi*out.RootDiameter/float64(out.Count)/pitchStep+1e-6) * pitchStep
+		} else {
+			out.Pitch = grid(out.Pitch + pitchStep)
+			out.Count = min(out.Count, out.Fitting())
+		}
+	}
+	if _, err := out.Geometry(); err != nil {
+		return fins.Set{}, err
+	}
+	return out, nil
+}
+
+// variantTOML is the fin keys of a tilt variant's sets laid another way
+// than drawn, as design-file text to paste over the same keys of the
+// design's tables; "" when the variant is the design as drawn.
+func variantTOML(d, v *design.Design) string {
+	var b strings.Builder
+	for _, x := range []struct {
+		name     string
+		was, now fins.Set
+	}{{"head", d.Case.Head.Set, v.Case.Head.Set}, {"barrel", d.Case.Barrel.Set, v.Case.Barrel.Set}} {
+		if x.was.Style == x.now.Style {
+			continue
+		}
+		fmt.Fprintf(&b, "[%s]\nstyle = %q\ncount = %d\npitch = \"%.1f mm\"\n", x.name, x.now.Style.String(), x.now.Count, x.now.Pitch*1e3)
+	}
+	return b.String()
 }
 
 // castNote says how the restyled variants keep the design's casting
@@ -101,6 +173,11 @@ func (e *env) tilt(d *design.Design, step float64) error {
 	lo, thinL, err := restyled(d, fins.StyleLongitudinal)
 	if err != nil {
 		return fail(ExitDesign, err)
+	}
+	// which columns are the design as drawn: the style of both its sets
+	drawn := ""
+	if hs, bs := d.Case.Head.Set.Style, d.Case.Barrel.Set.Style; hs == bs {
+		drawn = hs.String()
 	}
 	T := u.Name(output.Temp)
 	g := output.Grid{Title: "Head and barrel temperature against tilt",
@@ -139,6 +216,11 @@ func (e *env) tilt(d *design.Design, step float64) error {
 		tilts = append(tilts, float64(i)*step) // not a running sum: 15, not 14.999999999999998
 	}
 	tilts = append(tilts, 90)
+	own := math.Round(d.Case.Tilt*180/math.Pi*1e6) / 1e6 // the design's own tilt: a row of its own
+	if !slices.ContainsFunc(tilts, func(t float64) bool { return math.Abs(t-own) < 1e-6 }) {
+		tilts = append(tilts, own)
+		slices.Sort(tilts)
+	}
 	for _, t := range tilts {
 		var outs []outcome
 		var bands [2]*uncertainty.Band
@@ -163,7 +245,11 @@ func (e *env) tilt(d *design.Design, step float64) error {
 		if math.Max(l.Result.Head.WallTemp, l.Result.Barrel.WallTemp) < math.Max(a.Result.Head.WallTemp, a.Result.Barrel.WallTemp) {
 			better = "longitudinal"
 		}
-		row := []string{u.N(t, 0), cell(a, a.Result.Head), cell(a, a.Result.Barrel), cell(l, l.Result.Head), cell(l, l.Result.Barrel), better}
+		label := u.N(t, 0)
+		if math.Abs(t-own) < 1e-6 && !u.Full && drawn != "" {
+			label += " (yours)"
+		}
+		row := []string{label, cell(a, a.Result.Head), cell(a, a.Result.Barrel), cell(l, l.Result.Head), cell(l, l.Result.Barrel), better}
 		if n > 0 {
 			row = []string{row[0], row[1], bandText(u, bands[0].Head), row[2], row[3], bandText(u, bands[1].Head), row[4], row[5]}
 		}
@@ -171,7 +257,7 @@ func (e *env) tilt(d *design.Design, step float64) error {
 			row = append(row, string(a.Status()), string(l.Status()))
 		}
 		g.Rows = append(g.Rows, row)
-		mrow := []string{u.N(t, 0)}
+		mrow := []string{label}
 		for _, c := range cols {
 			cellText := noValue(u, "-")
 			for _, r := range outs[c.style].Result.Methods {
@@ -199,9 +285,25 @@ func (e *env) tilt(d *design.Design, step float64) error {
 		doc.Grids = append(doc.Grids, mg)
 		doc.Notes = append(doc.Notes, "By method: Briggs & Young applies to annular fins only. Where a style's along-fin share of the road speed is nil (annular at 90 deg, longitudinal at 0 deg) the methods agree, because only what they share is left there: the broadside credit, natural convection and radiation; that agreement is not certainty.")
 	}
+	yours := "Your design mixes the styles, so neither column is it as drawn ('finmarch estimate' gives it); each column lays the other set the same way."
+	if drawn != "" {
+		yours = fmt.Sprintf("The %s columns are your design as drawn (the row at its own tilt, %s deg, marked, is what 'finmarch estimate' gives); the %s columns are a variant with its fins laid the other way.",
+			drawn, u.N(own, 0), map[string]string{"annular": "longitudinal", "longitudinal": "annular"}[drawn])
+	}
+	doc.Notes = append(doc.Notes, yours,
+		fmt.Sprintf("Annular: head %d fins at %s pitch, barrel %d fins at %s pitch. Longitudinal: head %d fins at %s root pitch, barrel %d fins at %s root pitch. Same heights, thicknesses and mean gap.",
+			hs.Count, lu(hs.Pitch), bs.Count, lu(bs.Pitch), hl.Count, lu(hl.Pitch), bl.Count, lu(bl.Pitch)))
+	variants := map[string]any{}
+	for _, v := range []struct {
+		name string
+		d    *design.Design
+	}{{"annular", an}, {"longitudinal", lo}} {
+		if t := variantTOML(d, v.d); t != "" {
+			variants[v.name] = t
+			doc.Blocks = append(doc.Blocks, output.Block{Caption: fmt.Sprintf("The %s variant as design keys (paste them over the same keys of your tables; the rest stays as it is):", v.name), Text: t})
+		}
+	}
 	doc.Notes = append(doc.Notes,
-		fmt.Sprintf("Annular variant: head %d fins at %s pitch, barrel %d fins at %s pitch. Longitudinal variant: head %d fins at %s root pitch, barrel %d fins at %s root pitch. Same heights, thicknesses and mean gap.",
-			hs.Count, lu(hs.Pitch), bs.Count, lu(bs.Pitch), hl.Count, lu(hl.Pitch), bl.Count, lu(bl.Pitch)),
 		castNote(d.Casting.Name, thinA, thinL, an, lo),
 		tiltAirNote(d),
 		noteWall)
@@ -209,7 +311,7 @@ func (e *env) tilt(d *design.Design, step float64) error {
 	if rated != "" {
 		doc.Alerts = append(doc.Alerts, rated)
 	}
-	doc.JSON = map[string]any{"design": d.Name, "inputs": d.Cylinder().Resolved(), "rows": rows, "warnings": doc.Warnings, "caution": output.Caution}
+	doc.JSON = map[string]any{"design": d.Name, "inputs": d.Cylinder().Resolved(), "rows": rows, "variants": variants, "over_rated": rated != "", "warnings": doc.Warnings, "caution": output.Caution}
 	return e.emit(doc)
 }
 

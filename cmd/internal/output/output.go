@@ -56,10 +56,18 @@ type Doc struct {
 	Title    string
 	Grids    []Grid   // the first is the primary grid, the one CSV writes
 	Notes    []string // explanations printed after the tables
+	Blocks   []Block  // verbatim text after the notes (design keys to paste); CSV leaves them out
 	Warnings []string // correlation range warnings; also sent to stderr by the caller
 	Alerts   []string // results the user must see (a limit exceeded); sent to stderr, not affected by --strict
 	Caution  bool
 	JSON     any // the structured payload for --format json
+}
+
+// Block is text printed as it is, under a caption: lines a user can copy
+// (design-file keys), never wrapped.
+type Block struct {
+	Caption string
+	Text    string
 }
 
 // Write renders d to w in format f.
@@ -255,6 +263,9 @@ func write(w io.Writer, d Doc, f Format) error {
 		for _, n := range d.Notes {
 			fmt.Fprintf(w, "- %s\n", n)
 		}
+		for _, b := range d.Blocks {
+			fmt.Fprintf(w, "\n%s\n\n```toml\n%s\n```\n", b.Caption, strings.TrimRight(b.Text, "\n"))
+		}
 		if len(d.Warnings)+len(d.Alerts) > 0 {
 			fmt.Fprintln(w)
 			for _, n := range d.Alerts {
@@ -288,8 +299,14 @@ func write(w io.Writer, d Doc, f Format) error {
 		for _, n := range d.Notes {
 			fmt.Fprintln(w, wrap(n, 100, "  "))
 		}
+		for _, b := range d.Blocks {
+			fmt.Fprintf(w, "\n%s\n\n", wrap(b.Caption, 100, "  "))
+			for _, l := range strings.Split(strings.TrimRight(b.Text, "\n"), "\n") {
+				fmt.Fprintf(w, "    %s\n", l)
+			}
+		}
 		if d.Caution {
-			if len(d.Notes) > 0 { // a grid already ends with a blank line
+			if len(d.Notes)+len(d.Blocks) > 0 { // a grid already ends with a blank line
 				fmt.Fprintln(w)
 			}
 			fmt.Fprintf(w, "%s\n", wrap(Caution, 100, ""))
