@@ -19,11 +19,16 @@ type Constraint struct {
 // and the temperature limits at the optimum, each in its own SI unit;
 // label names a limit of the k-th varied set (a prefix when both vary).
 // A casting limit is active within 2 % of its own size, a temperature
-// limit within 1 K, a bound when the optimum sits on it.
+// limit within 1 K, a bound when the optimum sits on it (with a Step, on
+// the bound's nearest multiple of the step inside the box).
 func (pr Problem) Constraints(sol Solution, label func(k int, name string) string) []Constraint {
 	p, opt := pr.Process, sol.Optimum
 	out := []Constraint{}
-	for k, vs := range pr.Vars {
+	for k := range pr.Vars {
+		vs, err := pr.OnStep(k) // the bounds as the search took them
+		if err != nil {
+			vs = pr.Vars[k]
+		}
 		s := pr.Set(k, opt.X)
 		for _, v := range p.Check(s) {
 			c := Constraint{Name: label(k, v.Constraint), Kind: "casting"}

@@ -23,7 +23,10 @@ func TestSolveAgainstGrid(t *testing.T) {
 	vars[4].Lo, vars[4].Hi = 7, 7
 	for _, goal := range []Goal{GoalCool, GoalLight} {
 		p := Problem{Base: d, Sets: []int{Head}, Vars: [][]Var{vars}, Goal: goal, Limit: 478.15, Process: proc}
-		sol := Solve(p)
+		sol, err := Solve(p)
+		if err != nil {
+			t.Fatal(err)
+		}
 		if !sol.Found {
 			t.Fatalf("%s: no optimum", goal)
 		}
@@ -80,7 +83,10 @@ func TestSolveUnreachable(t *testing.T) {
 	proc, _ := fins.LookupProcess("sand")
 	vars := DefaultVars(d.Case.Head.Set, proc)
 	FitCount(vars, d.Case.Head.Set)
-	sol := Solve(Problem{Base: d, Sets: []int{Head}, Vars: [][]Var{vars}, Goal: GoalLight, Limit: 320, Process: proc, Levels: 3})
+	sol, err := Solve(Problem{Base: d, Sets: []int{Head}, Vars: [][]Var{vars}, Goal: GoalLight, Limit: 320, Process: proc, Levels: 3})
+	if err != nil {
+		t.Fatal(err)
+	}
 	if sol.Found || sol.Closest == nil || !(sol.Closest.Wall > 320) {
 		t.Fatalf("found %v, closest %+v", sol.Found, sol.Closest)
 	}
@@ -103,5 +109,67 @@ func TestPareto(t *testing.T) {
 	f = Pareto(long, 12)
 	if len(f) != 12 || f[0].Mass != 0 || f[11].Mass != 99 {
 		t.Errorf("thinned front: %d rows from %g to %g", len(f), f[0].Mass, f[len(f)-1].Mass)
+	}
+}
+
+// On a step, Solve's optimum is the best design of an exhaustive search
+// over every pitch, height, root and tip on the step in a box of the
+// upright demo's head (die-casting) and every count that fits: the
+// coolest head, and the lightest fins at or below 200 C; and every length
+// of it is a whole multiple of the step.
+func TestSolveOnStepAgainstExhaustive(t *testing.T) {
+	d := demotest.Upright(t)
+	proc, _ := fins.LookupProcess("die-casting")
+	s := d.Case.Head.Set
+	vars := DefaultVars(s, proc)
+	vars[0].Lo, vars[0].Hi = 0.0055, 0.0075
+	vars[1].Lo, vars[1].Hi = 0.024, 0.032
+	vars[2].Lo, vars[2].Hi = 0.002, 0.0035
+	vars[3].Lo, vars[3].Hi = 0.0015, 0.0025
+	FitCount(vars, s)
+	for _, goal := range []Goal{GoalCool, GoalLight} {
+		p := Problem{Base: d, Sets: []int{Head}, Vars: [][]Var{vars}, Goal: goal, Limit: 473.15, Process: proc, Step: 0.0005}
+		sol, err := Solve(p)
+		if err != nil || !sol.Found {
+			t.Fatalf("%s: %v, found %v", goal, err, sol.Found)
+		}
+		for i, v := range sol.Optimum.X[:4] {
+			if k := v / p.Step; math.Abs(k-math.Round(k)) > 1e-9 {
+				t.Errorf("%s: %s %.9f m is not on the step", goal, vars[i].Name, v)
+			}
+		}
+		best, bx := 1e9, []float64(nil)
+		for pi := 11; pi <= 15; pi++ {
+			for hi := 48; hi <= 64; hi++ {
+				for ri := 4; ri <= 7; ri++ {
+					for ti := 3; ti <= 5 && ti <= ri; ti++ {
+						q := s
+						q.Pitch, q.Height, q.RootThickness, q.TipThickness = float64(pi)*0.0005, float64(hi)*0.0005, float64(ri)*0.0005, float64(ti)*0.0005
+						if !proc.Feasible(q) {
+							continue
+						}
+						for n := 1; n <= min(int(vars[4].Hi), q.Fitting()); n++ {
+							x := []float64{q.Pitch, q.Height, q.RootThickness, q.TipThickness, float64(n)}
+							wall, mass, _, ok := p.measure(x, true)
+							f := wall
+							if goal == GoalLight {
+								f = mass
+							}
+							if ok && (goal == GoalCool || wall <= p.Limit) && f < best {
+								best, bx = f, x
+							}
+						}
+					}
+				}
+			}
+		}
+		got := sol.Optimum.Wall
+		if goal == GoalLight {
+			got = sol.Optimum.Mass
+		}
+		if got > best+1e-9 {
+			t.Errorf("%s: optimum %.6f at %v, exhaustive %.6f at %v", goal, got, sol.Optimum.X, best, bx)
+		}
+		t.Logf("%s: %.4f at %v (exhaustive %.4f), %d evaluations", goal, got, sol.Optimum.X, best, sol.Evals)
 	}
 }

@@ -3,6 +3,7 @@ package app
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -15,7 +16,7 @@ import (
 )
 
 func (e *env) optimiseCmd() *cobra.Command {
-	var set, goal, process, limit, minThick, maxAspect, draft string
+	var set, goal, process, limit, minThick, maxAspect, draft, stepFlag, write string
 	ranges := map[string]*string{}
 	var levels int
 	cmd := &cobra.Command{
@@ -30,8 +31,13 @@ minimises the set's wall temperature; --goal light minimises its fin mass with t
 wall at or below the limit. --set both varies head and barrel fins together (the
 bounds flags then apply to both), for the head's wall with the barrel kept within
 its limit: the way to win back what laying a cylinder over costs, where the air
-passes both sets in series. It prints the optimum, the constraints that hold it, and
-the trade-off front of temperature against fin mass from every design it evaluated.`,
+passes both sets in series. Lengths are searched on whole multiples of --step
+(0.5 mm unless given), the sizes a pattern maker works to, so the optimum is
+estimated as it would be made; the search starts from the design and from many
+points spread over the bounds, so that it finds the same optimum from any bounds
+that hold it. It prints the optimum, the constraints that hold it, the trade-off
+front of temperature against fin mass from every design it evaluated, and the
+optimum's keys for the design file (--write FILE writes the design with them).`,
 		Args:              cobra.ExactArgs(1),
 		ValidArgsFunction: tomlArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
@@ -104,15 +110,22 @@ the trade-off front of temperature against fin mass from every design it evaluat
 			if n := math.Pow(float64(levels), float64(5*len(names))); n > 2e6 {
 				return fail(ExitUsage, fmt.Errorf("--levels %d with --set both is a grid of %.0f designs; at most 2 million (use 3 or 4)", levels, n))
 			}
+			step, err := design.ParseValue[design.Length](stepFlag)
+			if err == nil && !(step >= minStep && step <= maxStep) {
+				err = fmt.Errorf("allowed %g to %g mm", minStep*1e3, maxStep*1e3)
+			}
+			if err != nil {
+				return fail(ExitUsage, fmt.Errorf("--step %q: %v", stepFlag, err))
+			}
 			var vars [][]optimise.Var
 			for _, n := range names {
-				v, err := optBounds(d, n, p, ranges)
+				v, err := optBounds(d, n, p, ranges, step, stepFlag)
 				if err != nil {
 					return err
 				}
 				vars = append(vars, v)
 			}
-			return e.optimise(d, names, goal, p, lim, vars, levels)
+			return e.optimise(d, names, goal, p, lim, vars, levels, step, write)
 		},
 	}
 	f := cmd.Flags()
@@ -127,6 +140,8 @@ the trade-off front of temperature against fin mass from every design it evaluat
 	f.StringVar(&maxAspect, "max-aspect", "", "override the process's maximum height-to-gap ratio")
 	f.StringVar(&draft, "draft", "", "override the process's minimum draft angle per face, e.g. \"1 deg\"")
 	f.IntVar(&levels, "levels", 5, "grid levels per variable before the pattern search")
+	f.StringVar(&stepFlag, "step", "0.5 mm", fmt.Sprintf("size step of the lengths (pitch, height, thicknesses): the optimum is a whole multiple of it, %g to %g mm", minStep*1e3, maxStep*1e3))
+	f.StringVar(&write, "write", "", "write the design with the optimum's fin keys set to this file")
 	for _, v := range []string{"pitch", "height", "root-thickness", "tip-thickness", "count"} {
 		s := ""
 		ranges[v] = &s
@@ -135,9 +150,15 @@ the trade-off front of temperature against fin mass from every design it evaluat
 	return cmd
 }
 
+// The range of --step: from a machinist's hundredth of a millimetre to a
+// coarse 5 mm.
+const minStep, maxStep = 1e-5, 5e-3
+
 // optBounds returns the variables of one fin set: the library's defaults
-// around the design, with the bounds the flags give.
-func optBounds(d *design.Design, set string, p fins.Process, ranges map[string]*string) ([]optimise.Var, error) {
+// around the design, with the bounds the flags give, narrowed to the
+// multiples of step within them (optimise.Problem.OnStep); a bound that
+// holds no multiple is an error naming its flag.
+func optBounds(d *design.Design, set string, p fins.Process, ranges map[string]*string, step float64, stepFlag string) ([]optimise.Var, error) {
 	s := d.Case.Head.Set
 	if set == "barrel" {
 		s = d.Case.Barrel.Set
@@ -166,7 +187,21 @@ func optBounds(d *design.Design, set string, p fins.Process, ranges map[string]*
 	if *ranges["count"] == "" {
 		optimise.FitCount(vars, s)
 	}
-	return vars, nil
+	on, err := optimise.Problem{Vars: [][]optimise.Var{vars}, Step: step}.OnStep(0)
+	if err != nil {
+		for _, v := range vars {
+			if v.Integer || math.Ceil(v.Lo/step-1e-9) <= math.Floor(v.Hi/step+1e-9) {
+				continue
+			}
+			mm := func(x float64) string { return strconv.FormatFloat(x*1e3, 'g', 6, 64) + " mm" }
+			if r := *ranges[v.Name]; r != "" {
+				return nil, fail(ExitUsage, fmt.Errorf("--%s %q holds no multiple of --step %s; widen it or give a finer --step", v.Name, r, stepFlag))
+			}
+			return nil, fail(ExitUsage, fmt.Errorf("--step %q: the %s %s bounds around the design, %s to %s, hold no multiple of it; give a finer --step or set --%s", stepFlag, set, v.Name, mm(v.Lo), mm(v.Hi), v.Name))
+		}
+		return nil, fail(ExitUsage, err)
+	}
+	return on, nil
 }
 
 // optimise searches the fin sets names (one set, or head and barrel
@@ -174,12 +209,12 @@ func optBounds(d *design.Design, set string, p fins.Process, ranges map[string]*
 // optimum, its constraints and the trade-off front. Each candidate is the
 // design with the keys of its fin sets changed, checked by the design
 // file's rules (Design.With).
-func (e *env) optimise(d *design.Design, names []string, goal string, p fins.Process, limit float64, vars [][]optimise.Var, levels int) error {
+func (e *env) optimise(d *design.Design, names []string, goal string, p fins.Process, limit float64, vars [][]optimise.Var, levels int, step float64, write string) error {
 	_, u, err := e.settings()
 	if err != nil {
 		return err
 	}
-	pr := optimise.Problem{Base: d.Cylinder(), Settings: d.Run, Vars: vars, Goal: optimise.Goal(goal), Limit: limit, Process: p, Levels: levels}
+	pr := optimise.Problem{Base: d.Cylinder(), Settings: d.Run, Vars: vars, Goal: optimise.Goal(goal), Limit: limit, Process: p, Levels: levels, Step: step}
 	for _, n := range names {
 		pr.Sets = append(pr.Sets, map[string]int{"head": optimise.Head, "barrel": optimise.Barrel}[n])
 	}
@@ -195,12 +230,77 @@ func (e *env) optimise(d *design.Design, names []string, goal string, p fins.Pro
 		}
 		return v.Cylinder(), v.Run, nil
 	}
-	sol := optimise.Solve(pr)
+	sol, err := optimise.Solve(pr)
+	if err != nil {
+		return fail(ExitUsage, err)
+	}
 	if !sol.Found {
 		return fail(ExitModel, fmt.Errorf("%s: %s", d.Name, e.noOptimum(pr, sol, u)))
 	}
 	doc := e.optimumDoc(d, pr, sol, u)
+	kvs := optimumKeys(pr, sol.Optimum.X)
+	if write != "" {
+		if err := e.writeOptimum(d, pr, sol, kvs, write); err != nil {
+			return err
+		}
+		doc.Notes = append(doc.Notes, fmt.Sprintf("Wrote %s: the design with the optimum's fin keys set; 'finmarch estimate %s' gives the same %s wall temperature (at this run's operating point).", write, write, optimise.SetNames[pr.Primary()]))
+	} else {
+		doc.Blocks = append(doc.Blocks, output.Block{Caption: "To make it, set these keys in the design (or run with --write FILE for the design with them set):", Text: keysTOML(kvs)})
+	}
 	return e.emit(doc)
+}
+
+// optimumKeys are the design keys of the optimum's fin sets, lengths in
+// millimetres as the step left them (to a nanometre).
+func optimumKeys(pr optimise.Problem, x []float64) []design.KV {
+	mm := func(v float64) string {
+		return strconv.Quote(strconv.FormatFloat(math.Round(v*1e9)/1e6, 'f', -1, 64) + " mm")
+	}
+	var kvs []design.KV
+	for k, i := range pr.Sets {
+		n, y := optimise.SetNames[i], x[5*k:5*k+5]
+		kvs = append(kvs, design.KV{Key: n + ".count", Value: strconv.Itoa(int(y[4]))},
+			design.KV{Key: n + ".pitch", Value: mm(y[0])}, design.KV{Key: n + ".height", Value: mm(y[1])},
+			design.KV{Key: n + ".root_thickness", Value: mm(y[2])}, design.KV{Key: n + ".tip_thickness", Value: mm(y[3])})
+	}
+	return kvs
+}
+
+// keysTOML writes the keys as TOML lines under their tables' headers,
+// text to paste over the same keys of a design file.
+func keysTOML(kvs []design.KV) string {
+	var b strings.Builder
+	tbl := ""
+	for _, kv := range kvs {
+		t, key, _ := strings.Cut(kv.Key, ".")
+		if t != tbl {
+			fmt.Fprintf(&b, "[%s]\n", t)
+			tbl = t
+		}
+		fmt.Fprintf(&b, "%s = %s\n", key, kv.Value)
+	}
+	return b.String()
+}
+
+// writeOptimum writes the design with the optimum's keys set, after
+// checking that the text parses and estimates (at this run's operating
+// point) to the optimum's own temperatures: what is written is what was
+// reported.
+func (e *env) writeOptimum(d *design.Design, pr optimise.Problem, sol optimise.Solution, kvs []design.KV, path string) error {
+	out := design.SetKeys(e.sources[d.Source], kvs)
+	nd, err := e.parse(out, path)
+	if err != nil {
+		return fail(ExitInternal, fmt.Errorf("the optimised design does not parse: %w", err))
+	}
+	o, err := evaluate(nd, nd.Case.Speed)
+	if err != nil {
+		return err
+	}
+	walls := [2]float64{o.Result.Head.WallTemp, o.Result.Barrel.WallTemp}
+	if got := walls[pr.Primary()]; math.Abs(got-sol.Optimum.Wall) > 1e-6 {
+		return fail(ExitInternal, fmt.Errorf("the optimised design estimates to %.4f K, the search to %.4f K", got, sol.Optimum.Wall))
+	}
+	return e.write(path, out)
 }
 
 // noOptimum says why no design holds the limits, how close the search
@@ -289,7 +389,8 @@ func (e *env) optimumDoc(d *design.Design, pr optimise.Problem, sol optimise.Sol
 		Grids: []output.Grid{g, c, fg}, Caution: true,
 		Notes: []string{
 			fmt.Sprintf("Casting limits (%s): %s.", p.Name, processSource(p)),
-			fmt.Sprintf("%d designs evaluated: a grid of %d levels per variable, then compass search from the best grid points.", sol.Evals, pr.Levels),
+			fmt.Sprintf("Sizes are whole multiples of %s %s (--step), as a pattern maker works to: the optimum and every design on the front were estimated at those sizes, and no design a step away (in any combination of each set's pitch, height, thicknesses and count) does better.", strconv.FormatFloat(u.Of(output.Len, pr.Step), 'g', 4, 64), u.Name(output.Len)),
+			fmt.Sprintf("%d designs evaluated: a grid of %d levels per variable and %d points spread over the bounds, then compass search from %d starts (the design as drawn and the best points apart from each other).", sol.Evals, pr.Levels, sol.Sample, sol.Starts),
 			designNote(sol.Broken, p),
 			keepNote,
 		}}
@@ -297,9 +398,9 @@ func (e *env) optimumDoc(d *design.Design, pr optimise.Problem, sol optimise.Sol
 		y := x[5*k : 5*k+5]
 		return map[string]any{"pitch_m": y[0], "height_m": y[1], "root_thickness_m": y[2], "tip_thickness_m": y[3], "count": int(y[4])}
 	}
-	optimum := map[string]any{"wall_temperature_K": bt, "fin_mass_kg": bm, "other_set_wall_temperature_K": bo}
+	optimum := map[string]any{"wall_temperature_K": bt, "fin_mass_kg": bm, "other_set_wall_temperature_K": bo, "step_m": pr.Step}
 	if both {
-		optimum = map[string]any{"head": setJSON(0, opt.X), "barrel": setJSON(1, opt.X), "head_wall_temperature_K": bt, "barrel_wall_temperature_K": bo, "fin_mass_kg": bm}
+		optimum = map[string]any{"head": setJSON(0, opt.X), "barrel": setJSON(1, opt.X), "head_wall_temperature_K": bt, "barrel_wall_temperature_K": bo, "fin_mass_kg": bm, "step_m": pr.Step}
 	} else {
 		for k, v := range setJSON(0, opt.X) {
 			optimum[k] = v
