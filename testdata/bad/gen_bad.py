@@ -180,6 +180,19 @@ repl('cooling-route-series-annular', '[limits]', '[cooling]\nsource = "duct"\ndr
 repl('fan-curve-missing', '[limits]', '[cooling]\nsource = "fan"\nfan_curve_speed = "6000 rpm"\nengine_speed = "5000 rpm"\n\n[limits]', 'two or more [[fan_point]] tables', line=0)
 repl('fan-point-pressure-rising', 'name = "corpus base"', 'name = "corpus base"\n\n[cooling]\nsource = "fan"\nfan_curve_speed = "6000 rpm"\nengine_speed = "5000 rpm"\n\n[[fan_point]]\nflow = "0 m3/s"\npressure = "500 Pa"\n\n[[fan_point]]\nflow = "0.05 m3/s"\npressure = "700 Pa"', 'rises above the point before', mark='pressure = "700')
 repl('ride-metal-range', '[limits]', '[ride]\nhead_metal = "300 kg"\n\n[limits]', 'ride.head_metal', mark='head_metal')
+fan_head = '[cooling]\nsource = "fan"\nfan_curve_speed = "6000 rpm"\nengine_speed = "5000 rpm"\n\n'
+repl('fan-efficiency-partial', '[limits]', fan_head + '[[fan_point]]\nflow = "0 m3/s"\npressure = "500 Pa"\nefficiency = 0.3\n\n[[fan_point]]\nflow = "0.1 m3/s"\npressure = "0 Pa"\n\n[limits]', 'fan_point[2].efficiency: missing: the curve gives the efficiency at point 1 only', mark='[[fan_point]]\nflow = "0.1')
+repl('fan-rated-below-idle', 'cda = "0.45 m2"', 'cda = "0.45 m2"\ntop_gear_speed = "110 km/h"\n\n[cooling]\nsource = "fan"\nfan_curve_speed = "6000 rpm"\nidle_speed = "4000 rpm"\nrated_speed = "2000 rpm"\n\n[[fan_point]]\nflow = "0 m3/s"\npressure = "500 Pa"\n\n[[fan_point]]\nflow = "0.1 m3/s"\npressure = "0 Pa"', 'is not above idle_speed', mark='rated_speed')
+# readings ([[measurement]]): every key used as given or refused; none is a "not set" mark
+meas = '[[measurement]]\nspeed = "90 km/h"\nambient = "28 C"\nhead = "204 C"\n'
+def measurement(name, old, new, frag, mark=None):
+    m = meas.replace(old, new) if old else meas + new
+    repl(name, '[limits]', m + '\n[limits]', frag, mark=mark or new.split('=')[0].strip() or '[[measurement]]')
+measurement('measurement-uncertainty-zero', None, 'uncertainty = "0 K"\n', 'measurement[1].uncertainty: 0 K is outside the allowed 0.1 to 50 K')
+measurement('measurement-speed-missing', 'speed = "90 km/h"\n', '', 'measurement[1].speed: missing', mark='[[measurement]]')
+measurement('measurement-head-and-barrel', None, 'barrel = "150 C"\n', 'measurement[1].head: a reading is of the head or of the barrel, not both', mark='head =')
+measurement('measurement-plug-seat-no-offset', None, 'place = "plug-seat"\n', 'measurement[1].offset: missing: a plug-seat reading needs offset', mark='[[measurement]]')
+measurement('measurement-below-ambient', 'head = "204 C"', 'head = "20 C"', 'measurement[1].head: 20 C: the measured temperature must lie between the ambient (28 C) and 500 C', mark='head =')
 
 out = []
 for name, src, code, line, frag in cases:
@@ -196,7 +209,56 @@ open('testdata/bad/binary-garbage.toml', 'wb').write(bytes(range(256)) * 4)
 out.append('binary-garbage.toml\t3\t0\tnot text')
 open('testdata/bad/utf16.toml', 'wb').write(base.encode('utf-16'))
 out.append('utf16.toml\t3\t0\tnot text')
+
+# The readers of the other input files: ride files (finmarch ride DESIGN
+# --profile FILE) and points files (finmarch calibrate DESIGN --points
+# FILE), run on the upright demo by cmd/internal/app TestReaderCorpus; an
+# exit code of 0 names a fragment of the standard output.
+readers = []  # (command, file, content, exit, line, fragment)
+def reader(cmd, name, content, code, line, frag):
+    readers.append((cmd, name, content, code, line, frag))
+ride_head = 'time (s),speed (km/h),grade (%)\n'
+reader('ride', 'ride-speed-missing-cell.csv', ride_head + '0,50,0\n60\n120,0,0\n', 3, 3, 'speed: empty; every row but the last needs its road speed, 0 to 400 km/h')
+reader('ride', 'ride-speed-empty-cell.csv', ride_head + '0,50,0\n60,,0\n120,0,0\n', 3, 3, 'speed: empty')
+reader('ride', 'ride-grade-empty-cell.csv', ride_head + '0,50,0\n60,40,\n120,0,0\n', 3, 3, 'grade: empty; every row but the last needs its grade, -30 to 30 %')
+reader('ride', 'ride-time-empty-cell.csv', ride_head + '0,50,0\n,40,0\n120,0,0\n', 3, 3, 'time: empty; every row needs its time')
+reader('ride', 'ride-barrel-heat-empty-cell.csv', 'time (s),speed (km/h),head_heat (W),barrel_heat (W)\n0,50,800,400\n60,40,800,\n120,0,300,200\n', 3, 3, 'barrel_heat: empty; every row but the last needs the heat to the barrel fins, 0 to 5e+04 W')
+reader('ride', 'ride-heat-one-column.csv', 'time (s),speed (km/h),head_heat (W)\n0,50,800\n60,0,300\n', 3, 1, 'give head_heat and barrel_heat together')
+reader('ride', 'ride-extra-cell.csv', ride_head + '0,50,0,7\n60,0,0\n', 3, 2, 'column 4: 4 cells, but the header names 3 columns')
+reader('ride', 'ride-unknown-column.csv', 'time (s),speed (km/h),gear\n0,50,3\n60,0,1\n', 3, 1, 'gear: unknown column')
+reader('ride', 'ride-bare-time.csv', 'time,speed (km/h)\n0,50\n60,0\n', 3, 2, 'time: "0" has no unit')
+reader('ride', 'ride-speed-range.csv', ride_head + '0,500,0\n60,0,0\n', 3, 2, 'speed: 500 is outside the allowed 0 to 400 km/h')
+reader('ride', 'ride-time-backwards.csv', ride_head + '0,50,0\n60,40,0\n30,0,0\n', 3, 4, 'time: 30 s is not after the row before (60 s, line 3)')
+reader('ride', 'ride-time-not-zero.csv', ride_head + '5,50,0\n60,0,0\n', 3, 2, 'time: the ride starts at 0, not 5 s')
+reader('ride', 'ride-one-row.csv', ride_head + '0,50,0\n', 3, 0, 'a ride needs at least two rows')
+reader('ride', 'ride-quote.csv', ride_head + '0,5"0,0\n60,0,0\n', 3, 2, 'speed: bare " in non-quoted-field')
+reader('ride', 'ride-nul.csv', ride_head + '0,50,0\n60,0\x00,0\n', 3, 3, 'speed: a NUL byte')
+reader('ride', 'ride-latin1.csv', 'time (s),speed (km/h),ambient\n0,50,30\xb0C\n60,0,\n', 3, 2, 'ambient: byte 0xB0: not text in UTF-8')
+reader('ride', 'ride-nan.csv', ride_head + '0,NaN,0\n60,0,0\n', 3, 2, 'speed:')
+reader('ride', 'ride-byte-order-mark.csv', '\ufeff' + ride_head + '0,50,0\n10 min,0,0\n', 0, 0, '2 rows over 10.0 min')
+reader('ride', 'ride-last-row-time-only.csv', 'time (s),speed (km/h),ambient (C),head_heat (W),barrel_heat (W)\n0,50,,800,400\n600\n', 0, 0, '2 rows over 10.0 min')
+pt_head = 'speed (km/h),ambient (C),head (C),place,offset (K),uncertainty (K)\n'
+reader('calibrate', 'points-speed-empty-cell.csv', pt_head + ',28,204,plug-seat,15,5\n', 3, 2, 'speed: empty; every reading needs its road speed, 0 to 400 km/h')
+reader('calibrate', 'points-ambient-missing-cell.csv', 'speed (km/h),ambient (C),head (C)\n90\n', 3, 2, 'ambient: empty; every reading needs its ambient, -50 to 60 C')
+reader('calibrate', 'points-head-missing-cell.csv', 'speed (km/h),ambient (C),head (C)\n90,28\n', 3, 2, 'head: empty; every reading needs its measured head temperature')
+reader('calibrate', 'points-uncertainty-zero.csv', pt_head + '90,28,204,plug-seat,15,0\n', 3, 2, 'uncertainty: 0 K is outside the allowed 0.1 to 50 K (leave it out for 5 K)')
+reader('calibrate', 'points-offset-range.csv', pt_head + '90,28,204,plug-seat,300,5\n', 3, 2, 'offset: 300 K is outside the allowed range')
+reader('calibrate', 'points-head-and-barrel.csv', 'speed (km/h),ambient (C),head (C),barrel (C)\n90,28,204,150\n', 3, 2, 'head: a reading is of the head or of the barrel, not both')
+reader('calibrate', 'points-below-ambient.csv', pt_head + '90,28,20,plug-seat,15,5\n', 3, 2, 'head: 20 C: the measured temperature must lie between the ambient (28 C) and 500 C')
+reader('calibrate', 'points-no-unit.csv', 'speed,ambient (C),head (C)\n90,28,204\n', 3, 2, 'speed: "90" has no unit')
+reader('calibrate', 'points-unknown-column.csv', 'speed (km/h),ambient (C),temp (C)\n90,28,204\n', 3, 1, 'temp (C): unknown column')
+reader('calibrate', 'points-quote.csv', pt_head + '90,"28" C,204,plug-seat,15,5\n', 3, 2, 'ambient: extraneous or missing " in quoted-field')
+reader('calibrate', 'points-place-unknown.csv', pt_head + '90,28,204,exhaust,15,5\n', 3, 2, 'place: "exhaust": fin-root (the default) or plug-seat')
+reader('calibrate', 'points-too-many-rows.csv', pt_head + '90,28,204,plug-seat,15,5\n' * 201, 3, 202, 'more than 200 rows; a points file holds at most 200')
+reader('calibrate', 'points-byte-order-mark.csv', '\ufeff' + pt_head + '90,28,204,plug-seat,15,5\n', 0, 0, 'Fitted parameters')
+for cmd, name, content, code, line, frag in readers:
+    with open(os.path.join('testdata/bad', name), 'wb') as f:
+        f.write(content.encode('utf-8').replace(b'\xc2\xb0', b'\xb0'))
+with open('testdata/bad/readers.tsv', 'w') as f:
+    f.write('# command\tfile\texit code\tline (0: no line check)\tmessage fragment (of stderr; of stdout when the exit code is 0)\n')
+    f.write(''.join(f'{c}\t{n}\t{code}\t{line}\t{frag}\n' for c, n, _, code, line, frag in readers))
+
 with open('testdata/bad/expect.tsv', 'w') as f:
     f.write('# file\texit code\tline (0: no line check)\tmessage fragment\n')
     f.write('\n'.join(out) + '\n')
-print(len(out), 'cases')
+print(len(out), 'design cases,', len(readers), 'reader cases')

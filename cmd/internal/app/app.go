@@ -7,6 +7,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -65,6 +66,7 @@ type env struct {
 	stdin          io.Reader // the design given as "-"
 	opt            *options
 	inputs         []string          // design files read, which no output may replace
+	outputs        []opened          // outputs opened, of which no two may be one file
 	sources        map[string][]byte // the text of each design read, by its path
 	args           []string          // the command line, for the report
 	command        string            // the command running, named in its JSON
@@ -113,7 +115,12 @@ the fin passages. With no command it runs the built-in demo: one cylinder,
 upright with annular fins against laid over with longitudinal fins.`,
 		SilenceUsage:  true,
 		SilenceErrors: true,
-		Args:          cobra.NoArgs,
+		Args: func(c *cobra.Command, args []string) error {
+			if len(args) > 0 {
+				return unknownCommand(c, args[0])
+			}
+			return nil
+		},
 		RunE: func(c *cobra.Command, _ []string) error {
 			return e.runDemo()
 		},
@@ -131,17 +138,26 @@ upright with annular fins against laid over with longitudinal fins.`,
 				return fail(ExitUsage, fmt.Errorf("--%s: '%s' does not use it", name, c.CommandPath()))
 			}
 		}
+		// a count typed by the user is checked here: only the unset flag
+		// (-1) stands for the design's own
+		if n := e.opt.samples; c.Flags().Changed("samples") && (n < 0 || n > 0 && n < 10 || n > 100000) {
+			return fail(ExitUsage, fmt.Errorf("--samples %d: allowed 0 (no band) or 10 to 100000; leave it out for the design's [uncertainty] samples", n))
+		}
+		if n := e.opt.segments; c.Flags().Changed("segments") && (n < 1 || n > 10000) {
+			return fail(ExitUsage, fmt.Errorf("--segments %d: allowed 1 to 10000; leave it out for the design's (40 unless it says)", n))
+		}
 		return nil
 	}
 	pf := root.PersistentFlags()
 	pf.StringVarP(&e.opt.format, "format", "f", "", "output format: table, markdown, csv or json (default: by the --output extension, .md, .csv or .json, else table)")
 	pf.StringVarP(&e.opt.units, "units", "u", "metric", "display units: metric or us")
-	pf.IntVar(&e.opt.segments, "segments", -1, "march segments per air path, 1 to 10000 (overrides the design; default 40)")
+	e.opt.segments, e.opt.samples = -1, -1 // not given
+	pf.Var(optInt{&e.opt.segments}, "segments", "march segments per air path, 1 to 10000 (overrides the design; default: the design's, 40 unless it says)")
 	pf.StringVar(&e.opt.speed, "speed", "", "road speed, overriding the design's air.speed, e.g. \"110 km/h\"")
 	pf.StringVar(&e.opt.ambient, "ambient", "", "ambient air temperature, overriding air.ambient, e.g. \"40 C\"")
 	pf.StringVar(&e.opt.altitude, "altitude", "", "altitude, overriding air.altitude, e.g. \"1500 m\"")
 	pf.StringVarP(&e.opt.out, "output", "o", "", "write the result to this file instead of standard output")
-	pf.IntVar(&e.opt.samples, "samples", -1, "samples of the uncertainty band, 0 (none) or 10 to 100000; without it, the design's [uncertainty] samples (1000 unless it says)")
+	pf.Var(optInt{&e.opt.samples}, "samples", "samples of the uncertainty band, 0 (none) or 10 to 100000 (default: the design's [uncertainty] samples, 1000 unless it says)")
 	pf.BoolVar(&e.opt.force, "force", false, "allow --output (and new) to replace an existing file")
 	pf.BoolVarP(&e.opt.quiet, "quiet", "q", false, "do not print warnings on standard error")
 	pf.BoolVar(&e.opt.strict, "strict", false, "treat a correlation used outside its validity range as an error (exit 4)")
@@ -159,7 +175,105 @@ upright with annular fins against laid over with longitudinal fins.`,
 		ignores(e.finCmd(), operating...), ignores(e.alloysCmd(), append(operating, "strict")...),
 		ignores(e.newCmd(), append(operating, "format", "units", "output", "strict")...),
 		ignores(e.versionCmd(), append(operating, "units", "strict")...))
+	root.SetHelpCommand(helpCmd())
+	root.InitDefaultCompletionCmd()
+	guardParents(root)
 	return root
+}
+
+// optInt is an int flag that is -1 until given: its help shows no cobra
+// default (the flag's text says what leaving it out means).
+type optInt struct{ p *int }
+
+func (o optInt) String() string {
+	if o.p == nil || *o.p == -1 {
+		return ""
+	}
+	return strconv.Itoa(*o.p)
+}
+
+func (o optInt) Set(s string) error {
+	n, err := strconv.Atoi(strings.TrimSpace(s))
+	if err != nil {
+		return fmt.Errorf("%q is not a whole number", s)
+	}
+	*o.p = n
+	return nil
+}
+
+func (o optInt) Type() string { return "int" }
+
+// unknownCommand is the error of a command line naming a command that c
+// does not have, with cobra's "did you mean" where one is close.
+func unknownCommand(c *cobra.Command, name string) error {
+	msg := fmt.Sprintf("unknown command %q for %q", name, c.CommandPath())
+	if c.SuggestionsMinimumDistance <= 0 {
+		c.SuggestionsMinimumDistance = 2 // cobra's own default, set only where cobra suggests
+	}
+	if s := c.SuggestionsFor(name); len(s) > 0 {
+		msg += fmt.Sprintf("; did you mean %q?", s[0])
+	}
+	if c.HasParent() {
+		msg += " (its commands: " + strings.Join(commandNames(c), ", ") + ")"
+	} else {
+		msg += " ('finmarch --help' lists the commands)"
+	}
+	return fail(ExitUsage, errors.New(msg))
+}
+
+// commandNames lists the commands of c that a user may give.
+func commandNames(c *cobra.Command) []string {
+	var names []string
+	for _, sc := range c.Commands() {
+		if sc.IsAvailableCommand() {
+			names = append(names, sc.Name())
+		}
+	}
+	return names
+}
+
+// guardParents makes every command below c that only holds commands (plot,
+// completion) refuse a command line that names none of them, or one it
+// does not have (exit 2, with "did you mean"), instead of printing its
+// help and succeeding.
+func guardParents(c *cobra.Command) {
+	for _, sc := range c.Commands() {
+		guardParents(sc)
+		if !sc.HasSubCommands() || sc.Runnable() {
+			continue
+		}
+		sc.Args = func(c *cobra.Command, args []string) error {
+			if len(args) > 0 {
+				return unknownCommand(c, args[0])
+			}
+			return nil
+		}
+		sc.RunE = func(c *cobra.Command, _ []string) error {
+			return fail(ExitUsage, fmt.Errorf("'%s' needs one of its commands: %s ('%s --help' says what each does)", c.CommandPath(), strings.Join(commandNames(c), ", "), c.CommandPath()))
+		}
+	}
+}
+
+// helpCmd is 'finmarch help [command]': the help of a command, and an
+// unknown command refused (exit 2, with "did you mean") rather than
+// answered with the root's help and success.
+func helpCmd() *cobra.Command {
+	return &cobra.Command{
+		Use:   "help [command]",
+		Short: "Help about any command",
+		RunE: func(c *cobra.Command, args []string) error {
+			cmd, rest, err := c.Root().Find(args)
+			if err != nil || cmd == nil {
+				return unknownCommand(c.Root(), strings.Join(args, " "))
+			}
+			if len(rest) > 0 {
+				return unknownCommand(cmd, rest[0])
+			}
+			cmd.InitDefaultHelpFlag()
+			cmd.InitDefaultVersionFlag()
+			return cmd.Help()
+		},
+	}
 }
 
 // ignoredFlags is the annotation listing the global flags a command does

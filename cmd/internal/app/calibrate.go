@@ -2,6 +2,7 @@ package app
 
 import (
 	"fmt"
+	"math"
 	"slices"
 	"strconv"
 	"strings"
@@ -37,7 +38,7 @@ func (e *env) calibrateCmd() *cobra.Command {
 				return err
 			}
 			e.inputs = append(e.inputs, points)
-			pts, err := design.ReadPoints(src, points, d.Altitude)
+			pts, err := d.ReadPoints(src, points)
 			if err != nil {
 				return fail(ExitDesign, err)
 			}
@@ -45,6 +46,7 @@ func (e *env) calibrateCmd() *cobra.Command {
 		}
 		return e.calibrate(d, d.Source, names, write)
 	})
+	cmd.PreRunE = func(*cobra.Command, []string) error { return e.distinctOutputs(write) }
 	cmd.Long = `calibrate fits the design's poorly known parameters to the temperatures measured on the
 running engine, given in the design as [[measurement]] tables (speed, ambient, altitude,
 head or barrel, place fin-root or plug-seat with its offset, uncertainty). It fits the
@@ -57,8 +59,11 @@ within the estimator's own range reaches them, as with a pressure recovery above
 and by how many kelvin the estimate at the end of the range misses them: check the
 readings' speed, ambient, place and offset, and the design's load. It prints the fitted
 values with their standard errors and each point's residual; --write writes the
-calibrated design (the fitted values set, the band's half-widths narrowed to the fit)
-and never replaces a file without --force.
+calibrated design (the fitted values set, the band's half-widths narrowed to the fit,
+at most to each key's ceiling, with a note when the fit leaves a wider band) and never
+replaces a file without --force; --write - sends it to standard output, for
+'finmarch calibrate cal.toml --write - | finmarch estimate -', and the results go to
+standard error (or to the -o file). The two outputs are never the same file.
 
   [[measurement]]
   speed = "90 km/h"
@@ -75,7 +80,7 @@ per row; # starts a comment.
   90,28,204,plug-seat,15,5
   60,24,168,plug-seat,15,5`
 	cmd.Flags().StringVar(&fit, "fit", "", "parameters to fit: recovery, forced, load, offset (comma-separated; default recovery, or forced with a duct or a fan)")
-	cmd.Flags().StringVar(&write, "write", "", "write the calibrated design to this file")
+	cmd.Flags().StringVar(&write, "write", "", "write the calibrated design to this file; - for standard output (the results then go to standard error, or to the -o file)")
 	cmd.Flags().StringVar(&points, "points", "", "CSV file of measured points, added to the design's [[measurement]] tables")
 	return cmd
 }
@@ -121,17 +126,34 @@ func (e *env) calibrate(d *design.Design, path string, names []string, write str
 	doc := output.Doc{Title: fmt.Sprintf("%s: calibration against %s", d.Name, count(len(d.Points), "measured point")), Grids: []output.Grid{pg, rg}, Caution: true,
 		Notes: []string{"A residual is the model (plus the measuring place's offset) less the measurement; a plug seat runs hotter than the mean fin root the model gives.",
 			"Standard errors come from the fit's covariance, scaled by the residuals when the points outnumber the parameters and by the points' stated uncertainty (5 K unless given) otherwise."}}
-	kvs := calibratedKeys(f, d.Band.Spread, d.Case.Method(d.Run))
+	kvs, clamped := calibratedKeys(f, d.Band.Spread, d.Case.Method(d.Run))
+	doc.Notes = append(doc.Notes, clamped...)
+	doc.JSON = map[string]any{"design": d.Name, "inputs": d.Cylinder().Resolved(), "parameters": f.Params, "residuals_K": f.Residuals, "chi2": f.Chi2, "warnings": f.Warnings, "caution": output.Caution}
+	doc.Warnings = f.Warnings
 	if write != "" {
-		src := e.sources[path]
-		out := design.SetKeys(src, kvs)
-		if _, err := design.Parse(out, write); err != nil {
-			return fail(ExitInternal, fmt.Errorf("the calibrated design does not parse: %w", err))
+		if e.opt.strict && len(doc.Warnings) > 0 {
+			return e.emit(doc) // refused by --strict: nothing written
+		}
+		out, err := design.EditKeys(e.sources[path], kvs)
+		if err == nil {
+			err = checkCalibrated(out, write, kvs)
+		}
+		if err != nil {
+			return fail(ExitInternal, fmt.Errorf("the calibrated design: %w", err))
 		}
 		if err := e.write(write, out); err != nil {
 			return err
 		}
-		doc.Notes = append(doc.Notes, fmt.Sprintf("Wrote %s: the fitted values set and the band's half-widths narrowed to two standard errors; 'finmarch estimate %s' predicts with them.", write, write))
+		if write == "-" {
+			doc.Notes = append(doc.Notes, "Wrote the calibrated design to standard output (these results to standard error): the fitted values set and the band's half-widths narrowed to two standard errors; pipe it to 'finmarch estimate -' to predict with them.")
+			if e.opt.out == "" {
+				stdout := e.stdout
+				e.stdout = e.stderr
+				defer func() { e.stdout = stdout }()
+			}
+		} else {
+			doc.Notes = append(doc.Notes, fmt.Sprintf("Wrote %s: the fitted values set and the band's half-widths narrowed to two standard errors; 'finmarch estimate %s' predicts with them.", write, write))
+		}
 	} else {
 		var keys []string
 		for _, kv := range kvs {
@@ -139,15 +161,54 @@ func (e *env) calibrate(d *design.Design, path string, names []string, write str
 		}
 		doc.Notes = append(doc.Notes, "To use the fit, set in the design: "+strings.Join(keys, "; ")+" (or run with --write FILE).")
 	}
-	doc.JSON = map[string]any{"design": d.Name, "inputs": d.Cylinder().Resolved(), "parameters": f.Params, "residuals_K": f.Residuals, "chi2": f.Chi2, "warnings": f.Warnings, "caution": output.Caution}
-	doc.Warnings = f.Warnings
 	return e.emit(doc)
+}
+
+// distinctOutputs refuses a calibration whose two outputs, the calibrated
+// design (--write) and the results (-o, else standard output), are one
+// file or both standard output, before anything is written.
+func (e *env) distinctOutputs(write string) error {
+	if write == "" {
+		return nil
+	}
+	if write == "-" && e.opt.out == "-" {
+		return fail(ExitUsage, fmt.Errorf("--write - and -o - cannot both take standard output: with --write - the results go to standard error, or give -o FILE for them"))
+	}
+	if write != "-" && sameOutput(write, e.opt.out) {
+		return fail(ExitUsage, fmt.Errorf("--write %s and -o %s name the same file: the calibrated design and the results need a file each", write, e.opt.out))
+	}
+	return nil
+}
+
+// checkCalibrated checks the calibrated design text before it is written:
+// it parses, and each key written reads back as the value set.
+func checkCalibrated(out []byte, name string, kvs []design.KV) error {
+	d, err := design.Parse(out, name)
+	if err != nil {
+		return fmt.Errorf("does not parse: %w", err)
+	}
+	got := map[string]float64{"air.pressure_recovery": d.Case.Recovery, "calibration.forced_convection_factor": d.Run.ForcedFactor,
+		"uncertainty.pressure_recovery": d.Band.Spread.Recovery, "uncertainty.forced_convection": d.Band.Spread.Forced,
+		"uncertainty.cooling_share": d.Band.Spread.CoolShare, "uncertainty.thermal_efficiency": d.Band.Spread.Thermal, "uncertainty.head_share": d.Band.Spread.HeadShare}
+	for _, kv := range kvs {
+		want, err := strconv.ParseFloat(kv.Value, 64)
+		have, ok := got[kv.Key]
+		if err != nil || !ok {
+			continue // the load factor scales the load; the method and switches are words
+		}
+		if math.Abs(have-want) > 1e-12*math.Max(1, math.Abs(want)) {
+			return fmt.Errorf("%s reads back as %s, not %s", kv.Key, strconv.FormatFloat(have, 'g', 6, 64), kv.Value)
+		}
+	}
+	return nil
 }
 
 // calibratedKeys are the design keys a fit sets: each fitted value, and
 // the band's half-widths as the fit leaves them (calibrate.Fit.Narrow on
-// the design's spread sp).
-func calibratedKeys(f calibrate.Fit, sp uncertainty.Spread, m cylinder.Method) []design.KV {
+// the design's spread sp), each at most its key's ceiling; notes say where
+// a half-width was held to its ceiling.
+func calibratedKeys(f calibrate.Fit, sp uncertainty.Spread, m cylinder.Method) ([]design.KV, []string) {
+	var notes []string
 	var kvs []design.KV
 	if after := f.Narrow(sp); sp.Methods && !after.Methods {
 		// the fit anchors its own air-side method: the calibrated design keeps it
@@ -181,7 +242,23 @@ func calibratedKeys(f calibrate.Fit, sp uncertainty.Spread, m cylinder.Method) [
 		} else if h.after == h.before {
 			continue
 		}
-		kvs = append(kvs, design.KV{Key: "uncertainty." + h.key, Value: strconv.FormatFloat(h.after, 'g', 4, 64), Note: note})
+		key := "uncertainty." + h.key
+		if hi, ok := design.HalfWidthCeiling(key); ok && !(h.after <= hi) {
+			// scattered readings: two standard errors wider than a design
+			// may state; the band is written at the ceiling, and says so
+			notes = append(notes, fmt.Sprintf("The fit's two standard errors of the %s, %s, exceed the largest half-width a design takes, %s: %s is written as %s, so the band understates how loosely the readings hold it; readings over a wider range of speeds, or more of them, narrow it.",
+				strings.ReplaceAll(h.key, "_", " "), halfWidthText(h.after), output.Num(hi, 2), key, output.Num(hi, 2)))
+			h.after, note = hi, "the fit's two standard errors, held to the ceiling"
+		}
+		kvs = append(kvs, design.KV{Key: key, Value: strconv.FormatFloat(h.after, 'g', 4, 64), Note: note})
 	}
-	return kvs
+	return kvs, notes
+}
+
+// halfWidthText is a half-width for a message: 4 significant digits.
+func halfWidthText(v float64) string {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return "unbounded"
+	}
+	return strconv.FormatFloat(v, 'g', 4, 64)
 }

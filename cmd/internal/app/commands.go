@@ -97,6 +97,26 @@ func parseSpeedRange(from, to, step string) ([3]float64, error) {
 	return v, nil
 }
 
+// usRoadRange is the road-speed range of a speed table or figure: the
+// flags as given, but in US units the range the user left to its metric
+// default (0 to 140 km/h) runs from 0 to 90 mph in round steps of
+// usStep, not in steps of 6.2 mph (10 km/h).
+func usRoadRange(c *cobra.Command, units, from, to, step, usStep string) (string, string, string) {
+	if u, err := output.ParseUnits(units); err != nil || !u.US {
+		return from, to, step
+	}
+	if !c.Flags().Changed("from") {
+		from = "0 mph"
+	}
+	if !c.Flags().Changed("to") {
+		to = "90 mph"
+	}
+	if !c.Flags().Changed("step") {
+		step = usStep
+	}
+	return from, to, step
+}
+
 // count is "1 point" or "3 points": a number with its noun, singular or
 // plural (the plural adds s).
 func count(n int, noun string) string {

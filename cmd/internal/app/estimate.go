@@ -10,6 +10,7 @@ import (
 
 	"finmarch/airflow"
 	"finmarch/airflow/cylinder"
+	"finmarch/airflow/uncertainty"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
 )
@@ -133,11 +134,15 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 			return u.N(u.Of(output.PerMass, r.HeatRejected/r.FinMass), 0)
 		})),
 	)
-	doc.Grids = append(doc.Grids, g)
 	band, err := e.band(d, c.Speed)
 	if err != nil {
 		return output.Doc{}, o, err
 	}
+	if !u.Full && !o.Fixed {
+		// the answer first; CSV keeps the heat balance as its one grid
+		doc.Grids = append(doc.Grids, headlineGrid(u, d, o, band))
+	}
+	doc.Grids = append(doc.Grids, g)
 	if mg := methodsGrid(u, o.Result); mg != nil {
 		doc.Grids = append(doc.Grids, *mg)
 	}
@@ -186,10 +191,37 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 	return doc, o, nil
 }
 
+// headlineGrid is the answer in a few cells: each set's wall temperature,
+// its band, the limit, the margin, the chance over it and the status, by
+// the estimate's own air-side method.
+func headlineGrid(u output.Units, d *design.Design, o outcome, band *uncertainty.Band) output.Grid {
+	T := u.Name(output.Temp)
+	g := output.Grid{Title: fmt.Sprintf("Headline: wall temperature at the fin roots (air-side method: %s)", o.Result.Method),
+		Header: []string{"set", "temperature (" + T + ")", "5 % to 95 % (" + T + ")", "limit (" + T + ")", "margin (" + u.Name(output.TempDiff) + ")", "chance over the limit", "status (nominal)"}, Left: 1}
+	for _, x := range []struct {
+		name   string
+		r      cylinder.SetResult
+		limit  float64
+		margin float64
+	}{{"head", o.Result.Head, d.HeadLimit, o.HeadMargin()}, {"barrel", o.Result.Barrel, d.BarrelLimit, o.BarrelMargin()}} {
+		bt, over := "-", "-"
+		if band != nil {
+			p, ov := band.Head, band.HeadOver
+			if x.name == "barrel" {
+				p, ov = band.Barrel, band.BarrelOver
+			}
+			bt, over = bandText(u, p), u.N(100*ov, 0)+" %"
+		}
+		g.Rows = append(g.Rows, []string{x.name, wallText(u, x.r), bt, fmtT(u, x.limit), marginText(u, x.r, x.margin), over, setStatus(o.NoEquilibrium, x.r, x.margin)})
+	}
+	return g
+}
+
 // limitAlerts says which wall is over its limit, and by how much, or which
 // set finds no equilibrium below the search's cap and how much heat it
 // cannot reject there.
 func limitAlerts(u output.Units, o outcome) []string {
+	u.Full = false // a message: the precision shown, not the CSV rows' full one
 	if o.Fixed {
 		return nil
 	}
@@ -216,6 +248,7 @@ func limitAlerts(u output.Units, o outcome) []string {
 // rated power, or a speed past its top-gear speed: the speed cannot be
 // held, and the top speed it can.
 func overRated(u output.Units, d *design.Design, o outcome) string {
+	u.Full = false // a message: the precision shown, not the CSV rows' full one
 	if !o.Load.OverRated {
 		return ""
 	}
@@ -237,6 +270,7 @@ func overRated(u output.Units, d *design.Design, o outcome) string {
 
 // topSpeedNote says where and why a speed sweep stops.
 func topSpeedNote(u output.Units, d *design.Design) string {
+	u.Full = false // a message: the precision shown, not the CSV rows' full one
 	r, rho := d.Load.Road, d.Case.Pressure/(airflow.RAir*d.Case.Ambient)
 	top, _ := r.TopSpeed(rho)
 	why := fmt.Sprintf("past it the road asks more than the rated %s %s (load.rated_power)", u.N(u.Of(output.Engine, r.RatedPower), 1), u.Name(output.Engine))

@@ -62,6 +62,18 @@ func (s *stream) Abort() {
 // block device or a design file this run reads is refused, even with
 // force.
 func (e *env) openOutput(path string, force bool) (sink, error) {
+	// no two outputs of one run are the same file, or the same stream as
+	// standard output (which calibrate --write - turns to standard error)
+	o := opened{path: path}
+	if path == "" || path == "-" {
+		o.w = e.stdout
+	}
+	for _, p := range e.outputs {
+		if p.w != nil && p.w == o.w || p.w == nil && o.w == nil && sameOutput(p.path, o.path) {
+			return nil, fail(ExitUsage, fmt.Errorf("%s is already an output of this run; give each output its own file", displayPath(path)))
+		}
+	}
+	e.outputs = append(e.outputs, o)
 	if path == "" || path == "-" {
 		return &stream{Writer: e.stdout, path: "standard output"}, nil
 	}
@@ -106,6 +118,43 @@ func (e *env) openOutput(path string, force bool) (sink, error) {
 		return &stream{Writer: f, path: path, f: f}, nil
 	}
 	return nil, fail(ExitIO, fmt.Errorf("%s is a %s, not a file; results are written only to files, character devices, FIFOs or standard output", path, kindOf(m)))
+}
+
+// opened is an output opened by a run: a file's path, or the stream
+// standard output stood for.
+type opened struct {
+	path string
+	w    io.Writer // nil for a file
+}
+
+// sameOutput reports whether two output paths name one file: both
+// standard output ("" or "-"); one file (os.SameFile, through links); or,
+// for a file not yet there, the same path once cleaned, made absolute and
+// its folder's links followed.
+func sameOutput(a, b string) bool {
+	stdout := func(p string) bool { return p == "" || p == "-" }
+	if stdout(a) || stdout(b) {
+		return stdout(a) && stdout(b)
+	}
+	if fa, err := os.Stat(a); err == nil {
+		if fb, err := os.Stat(b); err == nil {
+			return os.SameFile(fa, fb)
+		}
+	}
+	return canonicalPath(a) == canonicalPath(b)
+}
+
+// canonicalPath is path made absolute and clean, with its folder's links
+// followed (the name itself may not exist yet).
+func canonicalPath(path string) string {
+	abs, err := filepath.Abs(path)
+	if err != nil {
+		return filepath.Clean(path)
+	}
+	if dir, err := filepath.EvalSymlinks(filepath.Dir(abs)); err == nil {
+		abs = filepath.Join(dir, filepath.Base(abs))
+	}
+	return abs
 }
 
 func kindOf(m os.FileMode) string {

@@ -66,11 +66,12 @@ format. With no design files it uses the built-in demo designs.
 	speeds := &cobra.Command{
 		Use: "speeds [DESIGN.toml ...]", Short: "Head and barrel temperature against road speed, with the limits",
 		ValidArgsFunction: tomlArgs,
-		RunE: func(_ *cobra.Command, args []string) error {
+		RunE: func(c *cobra.Command, args []string) error {
 			ds, err := e.designsOrDemo(args)
 			if err != nil {
 				return err
 			}
+			from, to, step := usRoadRange(c, e.opt.units, from, to, step, "5 mph")
 			v, err := parseSpeedRange(from, to, step)
 			if err != nil {
 				return err
@@ -86,8 +87,8 @@ format. With no design files it uses the built-in demo designs.
 		},
 	}
 	speeds.Flags().StringVar(&from, "from", "0 km/h", "lowest road speed (0: the engine at idle, as the speeds table starts)")
-	speeds.Flags().StringVar(&to, "to", "140 km/h", "highest road speed")
-	speeds.Flags().StringVar(&step, "step", "5 km/h", "speed step")
+	speeds.Flags().StringVar(&to, "to", "140 km/h", "highest road speed (with --units us, 90 mph)")
+	speeds.Flags().StringVar(&step, "step", "5 km/h", "speed step (with --units us, 5 mph)")
 	compare := e.figureCmd("compare [DESIGN.toml ...]", "Head temperature and heat rejected per mass of fin, design by design", e.compareFigure)
 	cmd.AddCommand(march, speeds, compare, e.rideFigureCmd(), e.fanFigureCmd())
 	return cmd

@@ -145,6 +145,18 @@ func (e *env) report(ds []*design.Design) ([]byte, error) {
 		if err != nil {
 			return nil, err
 		}
+		if len(doc.Grids) > 0 && strings.HasPrefix(doc.Grids[0].Title, "Headline") && len(doc.Grids[0].Rows) == 2 {
+			// the page opens with every design's headline, a row each:
+			// the head's cells, the barrel's temperature and margin, and
+			// the design's status
+			h, b := doc.Grids[0].Rows[0], doc.Grids[0].Rows[1]
+			if data.Headline == nil {
+				T, K := u.Name(output.Temp), u.Name(output.TempDiff)
+				data.Headline = &output.Grid{Header: []string{"design", "head (" + T + ")", "head 5 % to 95 % (" + T + ")", "head limit (" + T + ")", "head margin (" + K + ")",
+					"chance over", "barrel (" + T + ")", "barrel margin (" + K + ")", "status"}, Left: 1}
+			}
+			data.Headline.Rows = append(data.Headline.Rows, []string{d.Name, h[1], h[2], h[3], h[4], h[5], b[1], b[4], string(o.Status())})
+		}
 		hd := output.ReportDesign{Name: d.Name, Source: d.Source, Inputs: inputTable(d, u), Results: doc.Grids, Notes: doc.Notes, Defaults: d.Defaults}
 		if o.NoEquilibrium != nil {
 			hd.Notes = append(hd.Notes, "NO EQUILIBRIUM: "+o.NoEquilibrium.Error())

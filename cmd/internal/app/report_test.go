@@ -2,6 +2,8 @@ package app
 
 import (
 	"context"
+	"encoding/json"
+	"fmt"
 	"image/color"
 	"image/png"
 	"os"
@@ -178,4 +180,54 @@ func TestReportInBrowser(t *testing.T) {
 		t.Errorf("screenshot %dx%d with %d colours: blank or unstyled", b.Dx(), b.Dy(), len(colours))
 	}
 	t.Logf("screenshot: %s (%d colours)", shot, len(colours))
+}
+
+// The report's first screen holds every design's headline (issue 22): in
+// headless Chromium with a 1280 x 800 window (a viewport of about 1280 x
+// 657 once the window's own bars are taken), each design's headline row
+// (head temperature, band, limit, margin, chance over, barrel temperature
+// and margin, status) lies wholly inside the viewport, and the head rows carry the temperatures 'estimate' gives.
+// A script added to a copy of the page measures the rows and writes the
+// verdict into the title, which --dump-dom returns.
+func TestReportHeadlineOnFirstScreen(t *testing.T) {
+	bin := chromiumPath(t)
+	path, up := reportFiles(t)
+	b, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	probe := `<script>addEventListener("load", () => {
+  const rows = [...document.querySelectorAll("#headline tbody tr")];
+  const low = rows.filter(r => r.getBoundingClientRect().bottom > innerHeight || r.getBoundingClientRect().right > innerWidth);
+  document.title = (low.length ? "HEADLINE-LOW " + low.length : "HEADLINE-OK") + " " + rows.length + " " + innerWidth + "x" + innerHeight;
+});</script></body>`
+	page := filepath.Join(filepath.Dir(path), "probe.html")
+	if err := os.WriteFile(page, []byte(strings.Replace(string(b), "</body>", probe, 1)), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	dom, _ := chromium(t, bin, filepath.Join(filepath.Dir(path), "profile-probe"), "--window-size=1280,800", "--virtual-time-budget=3000", "--dump-dom", "file://"+page)
+	if !regexp.MustCompile(`<title>HEADLINE-OK 3 1280x\d+</title>`).MatchString(dom) {
+		i := strings.Index(dom, "<title>")
+		t.Errorf("the headline is not on the first screen: %.80s", dom[i:])
+	}
+	// the headline's head temperature of the upright demo is estimate's
+	js, errs, code := run(t, "estimate", up, "-f", "json", "-q", "--samples", "0")
+	if code != 0 {
+		t.Fatal(errs)
+	}
+	var v struct {
+		Result struct {
+			Head struct {
+				Wall float64 `json:"wall_temperature_K"`
+			} `json:"head"`
+		} `json:"result"`
+	}
+	if err := json.Unmarshal([]byte(js), &v); err != nil {
+		t.Fatal(err)
+	}
+	i := strings.Index(string(b), `id="headline"`)
+	j := strings.Index(string(b)[i:], "</section>")
+	if i < 0 || !strings.Contains(string(b)[i:i+j], fmt.Sprintf(">%.1f<", v.Result.Head.Wall-273.15)) {
+		t.Errorf("the headline lacks the upright head's %.1f C", v.Result.Head.Wall-273.15)
+	}
 }

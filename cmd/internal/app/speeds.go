@@ -13,7 +13,11 @@ import (
 
 func (e *env) speedsCmd() *cobra.Command {
 	var from, to, step string
-	cmd := e.oneDesign("speeds DESIGN.toml", "Sweep road speed: head and barrel temperature and margin at each speed", func(d *design.Design) error {
+	var cmd *cobra.Command
+	cmd = e.oneDesign("speeds DESIGN.toml", "Sweep road speed: head and barrel temperature and margin at each speed", func(d *design.Design) error {
+		// with --units us and no range given: 0 to 90 mph by 5 mph, not
+		// km/h steps shown as 0, 6, 12, 19 mph
+		from, to, step := usRoadRange(cmd, e.opt.units, from, to, step, "5 mph")
 		v, err := parseSpeedRange(from, to, step)
 		if err != nil {
 			return err
@@ -23,9 +27,9 @@ func (e *env) speedsCmd() *cobra.Command {
 		}
 		return e.speeds(d, v[0], v[1], v[2])
 	})
-	cmd.Flags().StringVar(&from, "from", "0 km/h", "lowest road speed, with unit")
-	cmd.Flags().StringVar(&to, "to", "140 km/h", "highest road speed, with unit")
-	cmd.Flags().StringVar(&step, "step", "10 km/h", "speed step, with unit")
+	cmd.Flags().StringVar(&from, "from", "0 km/h", "lowest road speed, with unit (with --units us: 0 mph)")
+	cmd.Flags().StringVar(&to, "to", "140 km/h", "highest road speed, with unit (with --units us: 90 mph)")
+	cmd.Flags().StringVar(&step, "step", "10 km/h", "speed step, with unit (with --units us: 5 mph)")
 	return cmd
 }
 

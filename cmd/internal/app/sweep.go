@@ -120,6 +120,10 @@ diameter vary and the count does not, each set gets as many fins as fit (use
 						return fail(ExitUsage, fmt.Errorf("--vary %s is given twice; give each key once (several values: %s=A,B,C)", a.Key, a.Key))
 					}
 				}
+				// a key the design does not use would give identical rows
+				if err := d.CheckVary(e.sources[d.Source], a.Key, a.Values); err != nil {
+					return fail(ExitUsage, fmt.Errorf("--vary %w", err))
+				}
 				axes = append(axes, a)
 				total *= len(a.Values)
 				if total > 100_000_000 {
@@ -210,27 +214,52 @@ func fitCounts(d *design.Design, vals map[string]float64) {
 	}
 }
 
-// displayFor converts a varied key's SI value to the display unit.
+// displayFor converts a varied key's SI value to its own display unit
+// (by the key's kind of quantity: a rotational speed in rpm, a road speed
+// in km/h or mph, a pressure drop in Pa), with its unit's name.
 func displayFor(u output.Units, key string, v float64) (string, string) {
-	switch {
-	case strings.HasSuffix(key, ".count") || key == "segments":
+	q, dec := output.Quantity(-1), 0
+	switch dim := design.Dimension(key); {
+	case dim == "count":
 		return strconv.Itoa(int(v)), ""
-	case strings.HasSuffix(key, "speed"):
-		return u.N(u.Of(output.Road, v), 2), u.Name(output.Road)
-	case strings.HasSuffix(key, "ambient") || strings.HasPrefix(key, "limits.") || strings.HasSuffix(key, "_wall"):
-		return u.N(u.Of(output.Temp, v), 2), u.Name(output.Temp)
-	case key == "cylinder.tilt":
+	case dim == "angle":
 		return u.N(v*180/math.Pi, 2), "deg"
 	case key == "air.altitude":
-		return u.N(u.Of(output.Alt, v), 1), u.Name(output.Alt)
-	case strings.HasPrefix(key, "head.") || strings.HasPrefix(key, "barrel.") && !strings.HasSuffix(key, "emissivity") ||
-		strings.HasPrefix(key, "cylinder."):
-		if strings.HasSuffix(key, "emissivity") {
-			return u.N(v, 3), ""
-		}
-		return u.N(u.Of(output.Len, v), u.Dec(output.Len)+2), u.Name(output.Len)
+		q, dec = output.Alt, 1
+	case dim == "length":
+		q, dec = output.Len, min(u.Dec(output.Len)+2, 4) // 0.001 mm, 0.0001 in
+	case dim == "speed":
+		q, dec = output.Road, 2
+	case dim == "temperature":
+		q, dec = output.Temp, 2
+	case dim == "rotational speed":
+		q, dec = output.Rot, 0
+	case dim == "pressure" && key == "air.pressure":
+		q, dec = output.Press, 2
+	case dim == "pressure":
+		q, dec = output.Drop, 1
+	case dim == "power":
+		q, dec = output.Power, 0
+	case dim == "mass":
+		q, dec = output.Mass, 1
+	case dim == "heat-transfer coefficient":
+		q, dec = output.H, 1
+	case dim == "volume flow":
+		q, dec = output.VolFlow, 4
+	case dim == "mass flow":
+		q, dec = output.MassFlow, 4
+	case dim == "area" && key == "load.cda":
+		q, dec = output.Area, 3
+	case dim == "fraction":
+		return u.N(v, 3), ""
 	}
-	return strconv.FormatFloat(v, 'g', 6, 64), design.SIUnit(key)
+	if q < 0 {
+		if u.Full {
+			return u.N(v, 0), design.SIUnit(key)
+		}
+		return strconv.FormatFloat(v, 'g', 6, 64), design.SIUnit(key)
+	}
+	return u.N(u.Of(q, v), dec), u.Name(q)
 }
 
 func (e *env) sweep(d *design.Design, axes sweep.Grid, total, workers, top int, keepCount bool) error {
@@ -299,6 +328,8 @@ func (e *env) sweep(d *design.Design, axes sweep.Grid, total, workers, top int, 
 	if f == output.Markdown {
 		sf = output.Markdown
 	}
+	// the summary is for reading: display precision, whatever the rows'
+	u.Full = false
 	if err := output.Write(summaryTo, sweepSummary(d, axes, op, sum, total, workers, top, u), sf); err != nil {
 		return fail(ExitIO, err)
 	}

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"github.com/BurntSushi/toml"
@@ -341,15 +342,14 @@ func (b *builder) uncertainty() {
 		key string
 		q   Q[Fraction]
 		dst *float64
-		hi  float64
 	}{
-		{"pressure_recovery", u.PressureRecovery, &sp.Recovery, 0.5}, {"cooling_share", u.CoolingShare, &sp.CoolShare, 0.9},
-		{"thermal_efficiency", u.ThermalEfficiency, &sp.Thermal, 0.9}, {"head_share", u.HeadShare, &sp.HeadShare, 0.5},
-		{"forced_convection", u.ForcedConvection, &sp.Forced, 0.9}, {"natural_convection", u.NaturalConvection, &sp.Natural, 0.9},
-		{"conductivity", u.Conductivity, &sp.Conductivity, 0.5}, {"emissivity", u.Emissivity, &sp.Emissivity, 0.5},
+		{"pressure_recovery", u.PressureRecovery, &sp.Recovery}, {"cooling_share", u.CoolingShare, &sp.CoolShare},
+		{"thermal_efficiency", u.ThermalEfficiency, &sp.Thermal}, {"head_share", u.HeadShare, &sp.HeadShare},
+		{"forced_convection", u.ForcedConvection, &sp.Forced}, {"natural_convection", u.NaturalConvection, &sp.Natural},
+		{"conductivity", u.Conductivity, &sp.Conductivity}, {"emissivity", u.Emissivity, &sp.Emissivity},
 	} {
 		if h.q.Set {
-			*h.dst = b.opt("uncertainty."+h.key, h.q.raw(), true, 0, 0, h.hi, "", 1, 0, "")
+			*h.dst = b.opt("uncertainty."+h.key, h.q.raw(), true, 0, 0, halfWidthCeiling[h.key], "", 1, 0, "")
 		}
 	}
 }
@@ -379,43 +379,123 @@ func (b *builder) calibration() {
 	if cal.HeatLoadFactor.Set {
 		d.Load = d.Load.Scaled(b.opt("calibration.heat_load_factor", cal.HeatLoadFactor.raw(), true, 1, 0.3, 3, "", 1, 0, ""))
 	}
+	if n := len(f.Measurement); n > MaxPointRows {
+		b.add(fmt.Sprintf("measurement[%d]", MaxPointRows+1), "%d [[measurement]] tables; a design holds at most %d", n, MaxPointRows)
+		return
+	}
 	for i, m := range f.Measurement {
 		key := fmt.Sprintf("measurement[%d]", i+1)
-		p, problems := measuredPoint(m, d.Altitude)
-		for _, msg := range problems {
-			b.add(key, "%s", msg)
+		p, problems := measuredPoint(m, d.Case.Pressure)
+		for _, pb := range problems {
+			k := key
+			if pb.field != "" {
+				k += "." + pb.field
+			}
+			b.add(k, "%s", pb.msg)
 		}
 		d.Points = append(d.Points, p)
 	}
 }
 
+// problem is what is wrong with one key of a measurement (or column of a
+// points file).
+type problem struct{ field, msg string }
+
+// Ranges of a measurement's keys (our plausibility bounds, within those of
+// calibrate.Point.Check; the estimator's own ranges are wider).
+const (
+	minSigma, maxSigma = 0.1, 50.0 // K: no reading on a running engine is better than a tenth of a kelvin; one worse than 50 K tells the fit nothing
+)
+
 // measuredPoint checks one measurement (from a [[measurement]] table or a
-// row of a points file) and makes its calibration point; alt is the
-// design's altitude, for a measurement that gives none. The problems are
-// messages for the caller to place.
-func measuredPoint(m MeasurementT, alt float64) (calibrate.Point, []string) {
-	var bad []string
-	if m.Head.Set == m.Barrel.Set {
-		return calibrate.Point{}, []string{"give the head or the barrel temperature measured (one of them)"}
-	}
+// row of a points file) and makes its calibration point; pressure (Pa) is
+// the air pressure for a measurement that gives no altitude. Each problem
+// names its key. A key left out takes its stated default (altitude: the
+// pressure given; place fin-root; offset 0 K at a fin root; uncertainty
+// calibrate.DefaultSigma), and a value given is used as given or refused
+// with its allowed range: none is a "not set" mark.
+func measuredPoint(m MeasurementT, pressure float64) (calibrate.Point, []problem) {
+	var bad []problem
+	add := func(field, format string, a ...any) { bad = append(bad, problem{field, fmt.Sprintf(format, a...)}) }
+	temp := func(x float64) string { return strconv.FormatFloat(x-C, 'g', 6, 64) + " C" }
 	p := calibrate.Point{Speed: m.Speed.Or(math.NaN()), Ambient: m.Ambient.Or(math.NaN()), Barrel: m.Barrel.Set,
-		Temp: m.Head.Or(m.Barrel.Or(0)), Offset: m.Offset.Or(0), Sigma: m.Sigma.Or(0)}
-	alt = m.Altitude.Or(alt)
-	if !(alt >= -500 && alt <= 6000) {
-		bad = append(bad, "altitude outside -500 to 6000 m")
-		alt = 0
+		Offset: m.Offset.Or(0), Sigma: m.Sigma.Or(calibrate.DefaultSigma), Pressure: pressure}
+	switch {
+	case !m.Speed.Set:
+		add("speed", "missing; every reading needs its road speed, 0 to 400 km/h")
+	case !(p.Speed >= 0 && p.Speed <= 400/3.6):
+		add("speed", "%s km/h is outside the allowed 0 to 400 km/h", strconv.FormatFloat(p.Speed*3.6, 'g', 6, 64))
 	}
-	p.Pressure = airflow.ISA(alt, nil).P
+	ambOK := false
+	switch {
+	case !m.Ambient.Set:
+		add("ambient", "missing; every reading needs its ambient, -50 to 60 C")
+	case !(p.Ambient >= C-50 && p.Ambient <= C+60):
+		add("ambient", "%s is outside the allowed -50 to 60 C", temp(p.Ambient))
+	default:
+		ambOK = true
+	}
+	switch {
+	case m.Head.Set && m.Barrel.Set:
+		add("head", "a reading is of the head or of the barrel, not both: give each its own reading")
+	case !m.Head.Set && !m.Barrel.Set:
+		add("head", "missing; give the head or the barrel temperature measured (one of them), between the ambient and 500 C")
+	default:
+		field, t := "head", m.Head.SI
+		if m.Barrel.Set {
+			field, t = "barrel", m.Barrel.SI
+		}
+		p.Temp = t
+		switch {
+		case !(t < C+500):
+			add(field, "%s is outside the allowed range: the measured temperature must lie between the ambient and 500 C", temp(t))
+		case ambOK && !(t > p.Ambient):
+			add(field, "%s: the measured temperature must lie between the ambient (%s) and 500 C", temp(t), temp(p.Ambient))
+		}
+	}
+	if m.Altitude.Set {
+		alt := m.Altitude.SI
+		if !(alt >= -500 && alt <= 6000) {
+			add("altitude", "%s m is outside the allowed -500 to 6000 m", strconv.FormatFloat(alt, 'g', 6, 64))
+			alt = 0
+		}
+		p.Pressure = airflow.ISA(alt, nil).P
+	}
 	switch strings.ToLower(strings.TrimSpace(m.Place)) {
 	case "", "fin-root", "fin root":
 	case "plug-seat", "plug seat", "spark-plug-seat":
 		if !m.Offset.Set {
-			bad = append(bad, "a plug-seat reading needs offset, how much hotter the seat runs than the mean fin root (measure both once, or fit it: finmarch calibrate --fit recovery,offset)")
+			add("offset", "missing: a plug-seat reading needs offset, how much hotter the seat runs than the mean fin root, above -100 K and below 200 K (measure both once, or fit it: finmarch calibrate --fit recovery,offset)")
 		}
 	default:
-		bad = append(bad, fmt.Sprintf("place %q: fin-root or plug-seat", m.Place))
+		add("place", "%q: fin-root (the default) or plug-seat", m.Place)
 	}
-	return p, append(bad, p.Check()...)
+	if m.Offset.Set && !(p.Offset > -100 && p.Offset < 200) {
+		add("offset", "%s K is outside the allowed range, above -100 K and below 200 K", strconv.FormatFloat(p.Offset, 'g', 6, 64))
+	}
+	if m.Sigma.Set && !(p.Sigma >= minSigma && p.Sigma <= maxSigma) {
+		add("uncertainty", "%s K is outside the allowed %g to %g K (leave it out for %g K)", strconv.FormatFloat(p.Sigma, 'g', 6, 64), minSigma, maxSigma, calibrate.DefaultSigma)
+	}
+	if !(p.Pressure > 0) || math.IsInf(p.Pressure, 0) {
+		add("altitude", "no air pressure for this reading: give its altitude, -500 to 6000 m")
+	}
+	if len(bad) == 0 {
+		// the library's own check, a guard: the ranges above lie within
+		// it, but for its open ends
+		for _, msg := range p.Check() {
+			field := ""
+			for _, f := range []string{"speed", "ambient", "uncertainty"} {
+				if strings.HasPrefix(msg, f) {
+					field = f
+				}
+			}
+			if strings.HasPrefix(msg, "the measured") {
+				field = map[bool]string{false: "head", true: "barrel"}[p.Barrel]
+			}
+			add(field, "%s", msg)
+		}
+	}
+	return p, bad
 }
 
 // limits reads [limits] and [override].

@@ -27,7 +27,8 @@ type CoolingT struct {
 }
 
 // FanPointT is one [[fan_point]] of the fan's curve, at fan_curve_speed in
-// standard air.
+// standard air: flow and pressure at every point, the static efficiency at
+// every point or at none.
 type FanPointT struct {
 	Flow       Q[VolumeFlow] `toml:"flow"`
 	Pressure   Q[Pressure]   `toml:"pressure"`
@@ -104,7 +105,7 @@ func (b *builder) fan() *cylinder.Fan {
 	f, c := b.f, b.f.Cooling
 	fan := &cylinder.Fan{}
 	if len(f.FanPoint) < 2 {
-		b.add("fan_point", "a fan needs its curve: two or more [[fan_point]] tables, each with flow and pressure (and optionally efficiency), at fan_curve_speed")
+		b.add("fan_point", "a fan needs its curve: two or more [[fan_point]] tables, each with flow and pressure (and efficiency at every point or at none), at fan_curve_speed")
 	}
 	if len(f.FanPoint) > 50 {
 		b.add(fmt.Sprintf("fan_point[%d]", len(f.FanPoint)), "at most 50 points")
@@ -130,6 +131,26 @@ func (b *builder) fan() *cylinder.Fan {
 		}
 		fan.Curve = append(fan.Curve, q)
 	}
+	// an efficiency given at some points only would be dropped where the
+	// curve has too few to interpolate, and would make up the rest where
+	// it has enough: the curve gives it at every point or at none
+	var given []string
+	for i, p := range f.FanPoint {
+		if p.Efficiency.Set {
+			given = append(given, fmt.Sprint(i+1))
+		}
+	}
+	if len(given) > 0 && len(given) < len(f.FanPoint) {
+		at := "point " + given[0] + " only"
+		if len(given) > 1 {
+			at = "points " + strings.Join(given, ", ")
+		}
+		for i, p := range f.FanPoint {
+			if !p.Efficiency.Set {
+				b.add(fmt.Sprintf("fan_point[%d].efficiency", i+1), "missing: the curve gives the efficiency at %s; give it at every point (0.01 to 0.95) or at none (the air power then stands for the shaft power, a lower bound)", at)
+			}
+		}
+	}
 	const rpm = 1.0 / 60
 	fan.CurveSpeed = b.need("cooling.fan_curve_speed", c.CurveSpeed.raw(), c.CurveSpeed.Set, 100*rpm, 30000*rpm, "rpm", rpm, 0)
 	fan.Ratio = b.opt("cooling.fan_ratio", c.FanRatio.raw(), c.FanRatio.Set, 1, 0.1, 10, "", 1, 0, "1 (the fan on the crankshaft)")
@@ -149,6 +170,9 @@ func (b *builder) fan() *cylinder.Fan {
 	default:
 		fan.IdleSpeed = b.need("cooling.idle_speed", c.IdleSpeed.raw(), c.IdleSpeed.Set, 300*rpm, 5000*rpm, "rpm", rpm, 0)
 		fan.RatedSpeed = b.need("cooling.rated_speed", c.RatedSpeed.raw(), c.RatedSpeed.Set, 1000*rpm, 20000*rpm, "rpm", rpm, 0)
+		if c.IdleSpeed.Set && c.RatedSpeed.Set && !(fan.RatedSpeed > fan.IdleSpeed) {
+			b.add("cooling.rated_speed", "%.6g rpm is not above idle_speed (%.6g rpm): the engine speeds up from idle to rated_speed at load.top_gear_speed", fan.RatedSpeed/rpm, fan.IdleSpeed/rpm)
+		}
 		fan.TopGearSpeed = b.d.Load.Road.TopGearSpeed
 		if b.d.Load.Direct || fan.TopGearSpeed == 0 {
 			b.add("cooling", "the fan's speed follows the road speed through load.top_gear_speed (with idle_speed and rated_speed); give it, or give engine_speed")

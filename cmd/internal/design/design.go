@@ -275,8 +275,37 @@ func Parse(src []byte, name string) (*Design, error) {
 	add := func(key, format string, a ...any) {
 		errs = append(errs, &Error{File: name, Line: loc.line(key), Key: key, Msg: fmt.Sprintf(format, a...)})
 	}
-	for _, k := range md.Undecoded() {
+	undecoded := md.Undecoded()
+	for _, k := range undecoded {
 		key := k.String()
+		// an unknown table is reported once, at the table, not once per
+		// key under it (each key's "did you mean" would point elsewhere)
+		under, inside := 0, false
+		for _, o := range undecoded {
+			switch {
+			case len(o) > len(k) && o[:len(k)].String() == key:
+				under++
+			case len(o) < len(k) && k[:len(o)].String() == o.String() && (md.Type(o...) == "Hash" || md.Type(o...) == "ArrayHash"):
+				inside = true
+			}
+		}
+		if inside {
+			continue
+		}
+		if t := md.Type(k...); t == "Hash" || t == "ArrayHash" {
+			brackets := map[bool][2]string{false: {"[", "]"}, true: {"[[", "]]"}}[t == "ArrayHash"]
+			msg := "unknown table " + brackets[0] + key + brackets[1]
+			if s := suggestKey(k); s != "" && isTable(s) {
+				msg += ": did you mean [" + s + "]?"
+			} else if s != "" {
+				msg += fmt.Sprintf(": did you mean %q?", s)
+			}
+			if under > 0 {
+				msg += fmt.Sprintf(" (%s not read: an unknown key is an error, never ignored)", map[bool]string{true: "its 1 key is", false: fmt.Sprintf("its %d keys are", under)}[under == 1])
+			}
+			add(key, "%s", msg)
+			continue
+		}
 		msg := "unknown key"
 		if s := suggestKey(k); s != "" {
 			msg += fmt.Sprintf(" (did you mean %q?)", s)
@@ -363,6 +392,12 @@ func schema() map[string][]string {
 	}
 	walk("", reflect.TypeOf(File{}))
 	return out
+}
+
+// isTable reports whether a dotted key names a table of the schema.
+func isTable(key string) bool {
+	_, ok := schema()[key]
+	return ok
 }
 
 func suggestKey(k toml.Key) string {

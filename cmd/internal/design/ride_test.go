@@ -1,9 +1,12 @@
 package design
 
 import (
+	"errors"
+	"fmt"
 	"math"
 	"strings"
 	"testing"
+	"time"
 )
 
 // A ride file read with units from the header and from the cells: each
@@ -26,34 +29,85 @@ func TestReadRide(t *testing.T) {
 	}
 }
 
-// Whatever the bytes, ReadRide answers with segments or errors, never a
-// panic, and every segment it accepts is finite and in range.
-func FuzzReadRide(f *testing.F) {
-	for _, s := range []string{
-		"time (s),speed (km/h)\n0,50\n60,0\n",
-		"time (min),speed (km/h),grade (%),ambient (C)\n0,50,2,30\n5,0,0,\n",
-		"time,speed\n0 s,10 m/s\n1 h,0 km/h\n",
-		"time (s),speed (km/h)\nNaN,1e400\n",
+// Every cell of a ride file is used or refused: an empty or missing cell
+// of a row that is not the last is an error naming its file, line, column
+// and range, never a zero (a missing speed was once a standstill, an empty
+// barrel_heat 0 W), but for ambient, whose empty cell is the design's
+// ambient; the last row only ends the ride, and its other cells may be
+// empty (checked when given).
+func TestRideFileCells(t *testing.T) {
+	for _, c := range []struct{ csv, want string }{
+		{"time (s),speed (km/h)\n0,50\n60\n120,0\n", "ride.csv:3: speed: empty; every row but the last needs its road speed, 0 to 400 km/h"},
+		{"time (s),speed (km/h)\n0,50\n60,\n120,0\n", "ride.csv:3: speed: empty; every row but the last needs its road speed"},
+		{"time (s),speed (km/h)\n0,50\n,40\n120,0\n", "ride.csv:3: time: empty; every row needs its time, 0 to 8.64e+04 s"},
+		{"time (s),speed (km/h)\n0,50\n60,40\n,0\n", "ride.csv:4: time: empty"},
+		{"time (s),speed (km/h),grade (%)\n0,50,2\n60,40,\n120,0,0\n", "ride.csv:3: grade: empty; every row but the last needs its grade, -30 to 30 %"},
+		{"time (s),speed (km/h),head_heat (W),barrel_heat (W)\n0,50,800,400\n60,40,800,\n120,0,300,200\n", "ride.csv:3: barrel_heat: empty; every row but the last needs the heat to the barrel fins, 0 to 5e+04 W"},
+		{"time (s),speed (km/h),head_heat (W),barrel_heat (W)\n0,50,,400\n60,40,800,400\n", "ride.csv:2: head_heat: empty"},
+		{"time (s),speed (km/h),grade (%)\n0,50,2\n60,40,2,9\n", "ride.csv:3: column 4: 4 cells, but the header names 3 columns"},
+		{"time (s),speed (km/h)\n0,50\n60,40\n120,500\n", "ride.csv:4: speed: 500 is outside the allowed 0 to 400 km/h"},
+		{"time (s),speed (km/h)\n0,50\nx,40\n30,0\n", "ride.csv:3: time: \"x\" has no number"},
+		{"time (s),speed (km/h)\n0,50\n60,40\n30,0\n", "ride.csv:4: time: 30 s is not after the row before (60 s, line 3)"},
+		{"time (s),speed (km/h),,grade (%)\n0,50,,1\n", "ride.csv:1: column 3 (empty name): unknown column"},
+		{"time (s),speed (km/h)\n0,5\"0\n60,0\n", `ride.csv:2: speed: bare " in non-quoted-field`},
+		{"time (s),speed (km/h)\n0,50\n60,\x1b[31m0\n", "ride.csv:3: speed: the control character U+001B"},
 	} {
-		f.Add([]byte(s))
+		_, err := ReadRide([]byte(c.csv), "ride.csv")
+		var es Errors
+		if !errors.As(err, &es) || !strings.Contains(err.Error(), c.want) {
+			t.Errorf("%q: %v; want %q", c.csv, err, c.want)
+			continue
+		}
+		for _, e := range es {
+			if e.File != "ride.csv" || e.Line > 1 && e.Key == "" {
+				t.Errorf("%q: %q does not name its file and column", c.csv, e.Error())
+			}
+		}
 	}
-	f.Fuzz(func(t *testing.T, b []byte) {
-		segs, err := ReadRide(b, "fuzz.csv")
-		if err != nil {
-			if strings.TrimSpace(err.Error()) == "" {
-				t.Fatal("empty error")
-			}
-			return
-		}
-		for _, s := range segs {
-			for _, v := range []float64{s.Duration, s.Speed, s.Grade, s.Ambient} {
-				if math.IsNaN(v) || math.IsInf(v, 0) {
-					t.Fatalf("non-finite segment %+v", s)
-				}
-			}
-			if !(s.Duration > 0) || s.Speed < 0 {
-				t.Fatalf("segment out of range %+v", s)
-			}
-		}
-	})
+	// a bad time is not the base of the next row's order check
+	_, err := ReadRide([]byte("time (s),speed (km/h)\n0,50\n90 kg,40\n60,0\n"), "ride.csv")
+	if err == nil || strings.Contains(err.Error(), "not after") {
+		t.Errorf("%v", err)
+	}
+
+	// the last row's cells but time may be empty, or short; ambient may be
+	// empty anywhere (the design's)
+	segs, err := ReadRide([]byte("time (s),speed (km/h),grade (%),ambient (C),head_heat (W),barrel_heat (W)\n0,50,2,,800,400\n60,40,0,25,900,500\n120\n"), "ride.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(segs) != 2 || segs[0].Ambient != 0 || math.Abs(segs[1].Ambient-298.15) > 1e-9 || segs[1].Heat == nil || segs[1].Heat[1] != 500 || segs[1].Duration != 60 {
+		t.Errorf("%+v", segs)
+	}
+	// a given 0 is a value: 0 W, 0 %, standing
+	segs, err = ReadRide([]byte("time (s),speed (km/h),grade (%),head_heat (W),barrel_heat (W)\n0,0,0,0,0\n60,,,,\n"), "ride.csv")
+	if err != nil || len(segs) != 1 || segs[0].Heat == nil || *segs[0].Heat != [2]float64{0, 0} {
+		t.Errorf("%+v %v", segs, err)
+	}
+}
+
+// A ride file holds at most MaxRideRows rows: one more is refused with the
+// file, the line and the cap (not an error per row), and a file at the cap
+// is read in well under a second.
+func TestRideFileRowCap(t *testing.T) {
+	var b strings.Builder
+	b.WriteString("time (s),speed (km/h),grade (%)\n")
+	for i := 0; i < MaxRideRows; i++ {
+		fmt.Fprintf(&b, "%d,%d,%d\n", i, i%120, i%7-3)
+	}
+	if b.Len() > MaxFileSize {
+		t.Fatalf("a file at the row cap is %d bytes, over the size cap", b.Len())
+	}
+	start := time.Now()
+	segs, err := ReadRide([]byte(b.String()), "day.csv")
+	if err != nil || len(segs) != MaxRideRows-1 {
+		t.Fatalf("%d segments: %v", len(segs), err)
+	}
+	t.Logf("%d rows read in %v", MaxRideRows, time.Since(start))
+	fmt.Fprintf(&b, "%d,0,0\n", MaxRideRows)
+	_, err = ReadRide([]byte(b.String()), "day.csv")
+	want := fmt.Sprintf("day.csv:%d: more than %d rows; a ride file holds at most %d", MaxRideRows+2, MaxRideRows, MaxRideRows)
+	if err == nil || err.Error() != want {
+		t.Errorf("%v; want %q", err, want)
+	}
 }

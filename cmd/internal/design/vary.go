@@ -5,11 +5,14 @@ import (
 	"fmt"
 	"math"
 	"reflect"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
 
 	"github.com/BurntSushi/toml"
+
+	"finmarch/airflow/cylinder"
 )
 
 // quantityField is implemented by every Q[D].
@@ -177,3 +180,102 @@ func (d *Design) With(values map[string]float64) (*Design, error) {
 }
 
 func hasKey(m map[string]float64, k string) bool { _, ok := m[k]; return ok }
+
+// halfWidthCeiling is the largest half-width each [uncertainty] key takes:
+// the parser's rule, and the ceiling of the band a calibration writes.
+var halfWidthCeiling = map[string]float64{
+	"pressure_recovery": 0.5, "cooling_share": 0.9, "thermal_efficiency": 0.9, "head_share": 0.5,
+	"forced_convection": 0.9, "natural_convection": 0.9, "conductivity": 0.5, "emissivity": 0.5,
+}
+
+// HalfWidthCeiling returns the largest value an uncertainty key (such as
+// "uncertainty.pressure_recovery") takes in a design file, and whether the
+// key is one of them.
+func HalfWidthCeiling(key string) (float64, bool) {
+	k, ok := strings.CutPrefix(key, "uncertainty.")
+	if !ok {
+		return 0, false
+	}
+	hi, ok := halfWidthCeiling[k]
+	return hi, ok
+}
+
+// Dimension names the kind of quantity a numeric key holds ("length",
+// "speed", "temperature", "rotational speed", "fraction", ...; the names
+// of the design's units), "count" for a whole number, "" for an unknown
+// key.
+func Dimension(key string) string {
+	if key == "segments" {
+		return "count"
+	}
+	var f File
+	v, err := field(&f, key)
+	if err != nil {
+		return ""
+	}
+	if q, ok := v.Addr().Interface().(quantityField); ok {
+		return q.dimension().name
+	}
+	if v.Kind() == reflect.Int {
+		return "count"
+	}
+	return ""
+}
+
+// CheckVary refuses a sweep over a key that changes nothing the design
+// computes, so that a sweep never gives identical rows for a key the
+// design file itself would refuse: a key outside VaryKeys (the [ride]
+// metal, which only the heat soak uses), a half-width of the uncertainty
+// band (a sweep's rows are single estimates, no band), the pressure
+// recovery of a design whose air comes from a duct or a fan, and a key
+// that the design's cooling source or settings do not use (cooling.drop
+// on a ram-cooled design, cooling.idle_speed with a fixed engine speed):
+// the design text src with the key written in is parsed by the parser's
+// own rules, at the first of the axis's values (SI) that the design takes.
+func (d *Design) CheckVary(src []byte, key string, values []float64) error {
+	if key == "segments" {
+		return nil
+	}
+	if !slices.Contains(VaryKeys(), key) {
+		if _, err := field(&File{}, key); err != nil {
+			return err
+		}
+		if strings.HasPrefix(key, "ride.") {
+			return fmt.Errorf("%s plays no part in a steady estimate (only 'finmarch ride', the heat soak, uses it); 'finmarch sweep --help' lists the keys a sweep varies", key)
+		}
+		return fmt.Errorf("%s is not a key a sweep varies; 'finmarch sweep --help' lists them", key)
+	}
+	if strings.HasPrefix(key, "uncertainty.") {
+		return fmt.Errorf("%s is a half-width of the uncertainty band, which a sweep does not draw (each row is one estimate); give it in the design and see the band with 'finmarch estimate'", key)
+	}
+	if key == "air.pressure_recovery" && d.Case.Supply.Kind != cylinder.SupplyRam {
+		return fmt.Errorf("%s plays no part in %s: its cooling air comes from a %s ([cooling] source), not from the road's pressure", key, d.Name, d.Case.Supply.Kind)
+	}
+	if src == nil {
+		return nil
+	}
+	for _, v := range values {
+		if _, err := d.With(map[string]float64{key: v}); err != nil {
+			continue // an invalid point: its row says why
+		}
+		text := strconv.FormatFloat(v, 'g', -1, 64)
+		if Dimension(key) == "count" {
+			text = strconv.Itoa(int(math.Round(v)))
+		}
+		edited, err := EditKeys(src, []KV{{Key: key, Value: text}})
+		if err != nil {
+			return nil // the editor cannot place it; the parser's rules hold for the rows
+		}
+		_, err = Parse(edited, d.Source)
+		var es Errors
+		if err == nil || !errors.As(err, &es) {
+			return nil
+		}
+		var why []string
+		for _, e := range es {
+			why = append(why, e.Key+": "+e.Msg)
+		}
+		return fmt.Errorf("%s is not used by %s, and the design file itself would refuse it (%s); a sweep varies only keys the design's cooling source and settings use", key, d.Name, strings.Join(why, "; "))
+	}
+	return nil
+}

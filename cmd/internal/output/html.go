@@ -11,6 +11,7 @@ type Report struct {
 	Title    string
 	Caution  string
 	Units    string // "metric" or "US"
+	Headline *Grid  // each design's answer in a row: opens the page, before any detail
 	Compare  []Grid
 	Explain  []string
 	Figures  []Figure
@@ -49,7 +50,9 @@ const reportHTML = `<!doctype html>
 <title>finmarch report: {{.Title}}</title>
 <style>
 body { font-family: system-ui, sans-serif; margin: 2rem auto; max-width: 70rem; padding: 0 1rem; color: #1b1b1b; line-height: 1.45; }
-h1 { font-size: 1.6rem; margin-bottom: .3rem; }
+h1 { font-size: 1.35rem; margin-bottom: .3rem; }
+#headline td.n { white-space: nowrap; }
+#headline h2 { margin-top: 1.2rem; }
 h2 { font-size: 1.25rem; border-bottom: 2px solid #1f4e9c; padding-bottom: .2rem; margin-top: 2.2rem; }
 h3 { font-size: 1.05rem; margin-top: 1.4rem; }
 .caution { background: #fff4e5; border-left: 5px solid #c2410c; padding: .7rem 1rem; font-weight: 600; }
@@ -77,9 +80,14 @@ footer { margin-top: 3rem; font-size: .85rem; color: #555; }
 <header>
 <h1>{{.Title}}</h1>
 <p class="caution" id="caution">{{.Caution}}</p>
+</header>
+{{with .Headline}}<section id="headline">
+<h2>At a glance</h2>
+{{template "table" .}}
+<p class="note">Wall temperatures at the fin roots, each by its design's own air-side method; the band is the 5th to 95th percentile, the chance over the head's limit is the band's; the status is the nominal estimate's. The detail follows below.</p>
+</section>{{end}}
 <p class="note" id="made">{{.Made}}</p>
 <p class="note">Units: {{.Units}}. Wall temperatures are the metal at the fin roots; the combustion-side surface and the spark-plug seat run hotter.</p>
-</header>
 {{define "table"}}{{if .Title}}<h3>{{.Title}}</h3>{{end}}
 <table>
 <thead><tr>{{range .Header}}<th>{{.}}</th>{{end}}</tr></thead>
