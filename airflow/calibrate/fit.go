@@ -33,7 +33,7 @@ func (p Point) Check() []string {
 	switch {
 	case !(p.Speed >= 0 && p.Speed <= 400/3.6):
 		return []string{"speed missing or outside 0 to 400 km/h"}
-	case !(p.Ambient > 223 && p.Ambient < 333):
+	case !(p.Ambient >= 223.15 && p.Ambient <= 333.15):
 		return []string{"ambient missing or outside -50 to 60 C"}
 	case !(p.Temp > p.Ambient && p.Temp < 773.15):
 		return []string{"the measured temperature must lie between the ambient and 500 C"}
