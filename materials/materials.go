@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 	"strings"
 )
@@ -49,7 +50,35 @@ type Alloy struct {
 	EmissSource string   `json:"emissivity_source"`      // where the emissivities come from
 	LimitSource string   `json:"limit_source"`           // where MaxService comes from
 	Custom      bool     `json:"custom"`                 // defined by the user, not in the catalogue
+	// Made lists the fin-making processes (fins.Process names: sand,
+	// permanent-mould, die-casting, machined) the alloy is made by in
+	// common practice; empty: any (a custom alloy, pure aluminium)
+	Made []string `json:"-"`
 }
+
+// ProcessFit says whether fins of the alloy can be made by the named
+// process (common practice): false with the reason where they cannot (a
+// wrought alloy cast, a pressure die-casting alloy poured in sand); true
+// with a note where the pairing needs a word (an alloy for sand and
+// permanent moulds named with the die-casting limits, which hold for
+// pressure dies: gravity and low-pressure dies take it, pressure dies use
+// other alloys); true and "" otherwise.
+func (a Alloy) ProcessFit(process string) (bool, string) {
+	if process == "" || a.Custom || len(a.Made) == 0 || slices.Contains(a.Made, process) {
+		return true, ""
+	}
+	if process == "die-casting" && slices.Contains(a.Made, "permanent-mould") {
+		return true, fmt.Sprintf("%s is poured in sand and permanent moulds (gravity or low-pressure dies); the die-casting limits are those of pressure dies, which use alloys such as A380-F (96 W/mK against %.0f, a 200 C service limit): name the alloy your foundry pours (common practice)", a.Name, a.K300)
+	}
+	var by []string
+	for _, m := range a.Made {
+		by = append(by, processWords[m])
+	}
+	return false, fmt.Sprintf("alloy %s (%s) is not made into fins by %s in common practice, only by %s: name the alloy or the process (cylinder.casting) your fins are made of", a.Name, a.Kind, processWords[process], strings.Join(by, " or "))
+}
+
+// processWords names the fin-making processes in a sentence.
+var processWords = map[string]string{"sand": "sand casting", "permanent-mould": "permanent-mould casting", "die-casting": "pressure die casting", "machined": "machining"}
 
 // MarshalJSON writes the alloy with its aliases and conductivity table as
 // lists, empty rather than null when it has none.
@@ -111,34 +140,34 @@ const (
 var catalogue = []Alloy{
 	{Name: "A356-T6", Aliases: []string{"A356", "356-T6", "AlSi7Mg"}, Kind: "sand / permanent-mould casting",
 		K300: 151, Density: 2685, Cp: 963, EmissBare: 0.20, EmissPaint: 0.90, MaxService: 523.15,
-		Source: asmAl, EmissSource: emissAl, LimitSource: limitAlCst},
+		Source: asmAl, EmissSource: emissAl, LimitSource: limitAlCst, Made: []string{"sand", "permanent-mould"}},
 	{Name: "319-F", Aliases: []string{"319", "AlSi6Cu4"}, Kind: "sand / permanent-mould casting",
 		K300: 109, Density: 2790, Cp: 963, EmissBare: 0.20, EmissPaint: 0.90, MaxService: 523.15,
-		Source: asmAl, EmissSource: emissAl, LimitSource: limitAlCst},
+		Source: asmAl, EmissSource: emissAl, LimitSource: limitAlCst, Made: []string{"sand", "permanent-mould"}},
 	{Name: "195-cast", Aliases: []string{"195", "Al-4.5Cu"}, Kind: "sand casting (Al-4.5% Cu)",
 		K300: 168, KTable: []Point{{300, 168}, {400, 174}, {600, 185}}, Density: 2790, Cp: 883,
 		EmissBare: 0.20, EmissPaint: 0.90, MaxService: 523.15,
-		Source: incropera, EmissSource: emissAl, LimitSource: limitAlCst},
+		Source: incropera, EmissSource: emissAl, LimitSource: limitAlCst, Made: []string{"sand"}},
 	{Name: "A380-F", Aliases: []string{"A380", "380"}, Kind: "die casting",
 		K300: 96.2, Density: 2710, Cp: 963, EmissBare: 0.20, EmissPaint: 0.90, MaxService: 473.15,
-		Source: asmAl, EmissSource: emissAl, LimitSource: "common practice: die castings are porous and are not solution treated; about 200 C"},
+		Source: asmAl, EmissSource: emissAl, LimitSource: "common practice: die castings are porous and are not solution treated; about 200 C", Made: []string{"die-casting"}},
 	{Name: "6061-T6", Aliases: []string{"6061"}, Kind: "wrought, machined fins",
 		K300: 167, Density: 2700, Cp: 896, EmissBare: 0.10, EmissPaint: 0.90, MaxService: 473.15,
-		Source: asmAl, EmissSource: "bare: common practice for machined, lightly oxidised aluminium; painted: black paint, Incropera 6th ed. Table A.11 (from memory)", LimitSource: limitAlWr},
+		Source: asmAl, EmissSource: "bare: common practice for machined, lightly oxidised aluminium; painted: black paint, Incropera 6th ed. Table A.11 (from memory)", LimitSource: limitAlWr, Made: []string{"machined"}},
 	{Name: "2024-T6", Aliases: []string{"2024"}, Kind: "wrought",
 		K300: 177, KTable: []Point{{200, 163}, {300, 177}, {400, 186}, {600, 186}}, Density: 2770, Cp: 875,
 		EmissBare: 0.10, EmissPaint: 0.90, MaxService: 473.15,
-		Source: incropera, EmissSource: "bare: common practice for machined, lightly oxidised aluminium; painted: black paint, Incropera 6th ed. Table A.11 (from memory)", LimitSource: limitAlWr},
+		Source: incropera, EmissSource: "bare: common practice for machined, lightly oxidised aluminium; painted: black paint, Incropera 6th ed. Table A.11 (from memory)", LimitSource: limitAlWr, Made: []string{"machined"}},
 	{Name: "pure-aluminium", Aliases: []string{"aluminium", "aluminum", "pure-aluminum", "Al", "1100"}, Kind: "pure metal",
 		K300: 237, KTable: []Point{{200, 237}, {300, 237}, {400, 240}, {600, 231}, {800, 218}}, Density: 2702, Cp: 903,
 		EmissBare: 0.10, EmissPaint: 0.90, MaxService: 473.15,
 		Source: incropera, EmissSource: emissAl, LimitSource: "common practice: pure aluminium is soft; about 200 C"},
 	{Name: "grey-iron", Aliases: []string{"gray-iron", "cast-iron", "grey-cast-iron", "class-30"}, Kind: "grey cast iron, class 30",
 		K300: 47, Density: 7150, Cp: 490, EmissBare: 0.70, EmissPaint: 0.90, MaxService: 673.15,
-		Source: asmFe, EmissSource: emissFe, LimitSource: limitFe},
+		Source: asmFe, EmissSource: emissFe, LimitSource: limitFe, Made: []string{"sand"}},
 	{Name: "AZ91D", Aliases: []string{"AZ91", "magnesium"}, Kind: "magnesium die casting",
 		K300: 72.7, Density: 1810, Cp: 1050, EmissBare: 0.15, EmissPaint: 0.90, MaxService: 423.15,
-		Source: asmMg, EmissSource: emissMg, LimitSource: limitMg},
+		Source: asmMg, EmissSource: emissMg, LimitSource: limitMg, Made: []string{"die-casting"}},
 }
 
 // All returns a copy of the catalogue in a stable order.

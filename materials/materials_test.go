@@ -158,3 +158,46 @@ func TestCustom(t *testing.T) {
 		}
 	}
 }
+
+// Alloy against process (common practice, issue 22): every catalogue row
+// names the processes its fins are made by, each a fins.Process name; a
+// wrought alloy refuses casting, a pressure die-casting alloy refuses sand,
+// a sand and permanent-mould alloy takes die-casting with a note (gravity
+// dies are permanent moulds), and a custom alloy takes any process.
+func TestProcessFit(t *testing.T) {
+	known := map[string]bool{"sand": true, "permanent-mould": true, "die-casting": true, "machined": true}
+	for _, a := range All() {
+		for _, m := range a.Made {
+			if !known[m] {
+				t.Errorf("%s: unknown process %q", a.Name, m)
+			}
+		}
+		if a.Name != "pure-aluminium" && len(a.Made) == 0 {
+			t.Errorf("%s names no process", a.Name)
+		}
+	}
+	get := func(n string) Alloy {
+		a, err := Lookup(n)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return a
+	}
+	for _, c := range []struct {
+		alloy, process string
+		ok, note       bool
+	}{
+		{"6061-T6", "sand", false, true}, {"6061-T6", "die-casting", false, true}, {"6061-T6", "machined", true, false},
+		{"A380-F", "sand", false, true}, {"A380-F", "die-casting", true, false},
+		{"A356-T6", "permanent-mould", true, false}, {"A356-T6", "die-casting", true, true}, {"A356-T6", "machined", false, true},
+		{"grey-iron", "sand", true, false}, {"A356-T6", "", true, false},
+	} {
+		ok, note := get(c.alloy).ProcessFit(c.process)
+		if ok != c.ok || (note != "") != c.note {
+			t.Errorf("%s by %q: fits %v, note %q", c.alloy, c.process, ok, note)
+		}
+	}
+	if ok, note := (Alloy{Name: "shop-mix", Custom: true}).ProcessFit("sand"); !ok || note != "" {
+		t.Errorf("a custom alloy: %v %q", ok, note)
+	}
+}

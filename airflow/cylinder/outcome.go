@@ -64,8 +64,10 @@ func (d Design) Resolved() Design {
 
 // Castability describes each casting limit of Process that a fin set
 // breaks, with the limit and the value ("head fins: height to gap 8.0
-// over the die-casting limit 10"); nil when every limit holds or no process
-// is named. The limits are common practice (fins.Processes).
+// over the die-casting limit 10"), and an alloy the process does not make
+// fins of (materials.Alloy.ProcessFit: a wrought alloy cast, a pressure
+// die-casting alloy poured in sand); nil when every limit holds or no
+// process is named. The limits are common practice (fins.Processes).
 func (d Design) Castability() []string {
 	p := d.Process
 	if p.Name == "" {
@@ -74,6 +76,9 @@ func (d Design) Castability() []string {
 	var out []string
 	for _, fs := range []FinSet{d.Case.Head, d.Case.Barrel} {
 		s := fs.Set
+		if ok, why := fs.Alloy.ProcessFit(p.Name); !ok {
+			out = append(out, fs.Name+" fins: "+why)
+		}
 		for _, v := range p.Check(s) {
 			if v.Slack >= -1e-12 {
 				continue

@@ -3,6 +3,7 @@ package app
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -13,6 +14,7 @@ import (
 	"finmarch/airflow/uncertainty"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
+	"finmarch/materials"
 )
 
 func (e *env) estimateCmd() *cobra.Command {
@@ -169,6 +171,7 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 	if o.NoEquilibrium != nil {
 		doc.Notes = append(doc.Notes, "NO EQUILIBRIUM: "+o.NoEquilibrium.Error()+".")
 	}
+	doc.Notes = append(doc.Notes, alloyNotes(d)...)
 	doc.Warnings = o.warnings()
 	doc.Alerts = limitAlerts(u, o)
 	if n := leverNote(u, d, o); n != "" {
@@ -189,6 +192,19 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 	}
 	putBand(doc.JSON.(map[string]any), "band", band)
 	return doc, o, nil
+}
+
+// alloyNotes are the words an alloy and the design's casting process need
+// together (materials.Alloy.ProcessFit), once per alloy; a pairing that
+// cannot be made is a casting warning instead.
+func alloyNotes(d *design.Design) []string {
+	var out []string
+	for _, a := range []materials.Alloy{d.Case.Head.Alloy, d.Case.Barrel.Alloy} {
+		if ok, n := a.ProcessFit(d.Casting.Name); ok && n != "" && !slices.Contains(out, "Alloy and process: "+n+".") {
+			out = append(out, "Alloy and process: "+n+".")
+		}
+	}
+	return out
 }
 
 // headlineGrid is the answer in a few cells: each set's wall temperature,
