@@ -67,7 +67,7 @@ func (a Alloy) ProcessFit(process string) (bool, string) {
 	if process == "" || a.Custom || len(a.Made) == 0 || slices.Contains(a.Made, process) {
 		return true, ""
 	}
-	if process == "die-casting" && slices.Contains(a.Made, "permanent-mould") {
+	if a.MadeBy(process) {
 		return true, fmt.Sprintf("%s is poured in sand and permanent moulds (gravity or low-pressure dies); the die-casting limits are those of pressure dies, which use alloys such as A380-F (96 W/mK against %.0f, a 200 C service limit): name the alloy your foundry pours (common practice)", a.Name, a.K300)
 	}
 	var by []string
@@ -75,6 +75,13 @@ func (a Alloy) ProcessFit(process string) (bool, string) {
 		by = append(by, processWords[m])
 	}
 	return false, fmt.Sprintf("alloy %s (%s) is not made into fins by %s in common practice, only by %s: name the alloy or the process (cylinder.casting) your fins are made of", a.Name, a.Kind, processWords[process], strings.Join(by, " or "))
+}
+
+// MadeBy is ProcessFit's verdict alone, without building its words (a
+// sweep asks it at every point).
+func (a Alloy) MadeBy(process string) bool {
+	return process == "" || a.Custom || len(a.Made) == 0 || slices.Contains(a.Made, process) ||
+		(process == "die-casting" && slices.Contains(a.Made, "permanent-mould"))
 }
 
 // processWords names the fin-making processes in a sentence.

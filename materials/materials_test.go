@@ -193,7 +193,7 @@ func TestProcessFit(t *testing.T) {
 		{"grey-iron", "sand", true, false}, {"A356-T6", "", true, false},
 	} {
 		ok, note := get(c.alloy).ProcessFit(c.process)
-		if ok != c.ok || (note != "") != c.note {
+		if ok != c.ok || (note != "") != c.note || get(c.alloy).MadeBy(c.process) != ok {
 			t.Errorf("%s by %q: fits %v, note %q", c.alloy, c.process, ok, note)
 		}
 	}

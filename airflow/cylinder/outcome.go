@@ -76,7 +76,8 @@ func (d Design) Castability() []string {
 	var out []string
 	for _, fs := range []FinSet{d.Case.Head, d.Case.Barrel} {
 		s := fs.Set
-		if ok, why := fs.Alloy.ProcessFit(p.Name); !ok {
+		if !fs.Alloy.MadeBy(p.Name) {
+			_, why := fs.Alloy.ProcessFit(p.Name)
 			out = append(out, fs.Name+" fins: "+why)
 		}
 		for _, v := range p.Check(s) {
