@@ -264,3 +264,37 @@ func TestTiltRowsAreDesigns(t *testing.T) {
 		}
 	}
 }
+
+// Warnings with several designs name their design (issue 21): two designs
+// each breaking a casting limit, compared and estimated together, give
+// each warning behind its own design's name, on standard error and in the
+// JSON, never a bare "casting: ...".
+func TestWarningsNameTheirDesign(t *testing.T) {
+	dir := t.TempDir()
+	var paths []string
+	for _, name := range []string{"first bike", "second bike"} {
+		src := strings.Replace(string(demo.Upright), `casting = "die-casting"`, `casting = "sand"`, 1)
+		src = strings.Replace(src, `name = "demo single, upright, annular fins"`, `name = "`+name+`"`, 1)
+		p := filepath.Join(dir, strings.ReplaceAll(name, " ", "-")+".toml")
+		if err := os.WriteFile(p, []byte(src), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		paths = append(paths, p)
+	}
+	for _, cmd := range []string{"compare", "estimate"} {
+		out, errs, code := run(t, append([]string{cmd, "-f", "json", "--samples", "0"}, paths...)...)
+		if code != 0 {
+			t.Fatalf("%s: exit %d %s", cmd, code, errs)
+		}
+		for _, name := range []string{"first bike", "second bike"} {
+			if !strings.Contains(errs, "warning: "+name+": casting: head fins:") || !strings.Contains(out, name+": casting: head fins:") {
+				t.Errorf("%s: no casting warning named %q:\n%s", cmd, name, errs)
+			}
+		}
+		for _, l := range strings.Split(errs, "\n") {
+			if strings.HasPrefix(l, "warning: casting:") {
+				t.Errorf("%s: a warning without its design: %s", cmd, l)
+			}
+		}
+	}
+}
