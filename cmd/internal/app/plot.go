@@ -147,13 +147,15 @@ func short(s string) string {
 // temperature and the local heat flux along each fin set's path; on a
 // series path the barrel continues where the head ends. The march is the
 // channel method's, whatever the design's own method (a free-stream method
-// has a mean coefficient, not a path).
+// has a mean coefficient, not a path). The legend keys each design's
+// colour once, with its fin styles, and the head and barrel lines once.
 func (e *env) marchFigure(ds []*design.Design) (*plots.Figure, error) {
 	_, u, err := e.settings()
 	if err != nil {
 		return nil, err
 	}
 	var temp, flux []plots.Series
+	var names []string
 	for i, d := range ds {
 		ch := *d
 		ch.Run.Method = cylinder.MethodChannel
@@ -161,6 +163,7 @@ func (e *env) marchFigure(ds []*design.Design) (*plots.Figure, error) {
 		if err != nil {
 			return nil, err
 		}
+		var sets []string
 		for k, s := range []cylinder.SetResult{o.Result.Head, o.Result.Barrel} {
 			if len(s.March) == 0 {
 				continue
@@ -169,11 +172,12 @@ func (e *env) marchFigure(ds []*design.Design) (*plots.Figure, error) {
 			if s.Series && s.Name == "barrel" {
 				off = o.Result.Head.PathLength
 			}
-			label := fmt.Sprintf("%s %s (%s)", letter(i), s.Name, s.Style)
+			set := fmt.Sprintf("%s %s", s.Name, s.Style)
 			if !s.Equilibrium {
-				label += fmt.Sprintf(", no equilibrium: drawn at the %s %s cap", fmtT(u, cylinder.SaneWallLimit), u.Name(output.Temp))
+				set += fmt.Sprintf(" (no equilibrium: drawn at the %s %s cap)", fmtT(u, cylinder.SaneWallLimit), u.Name(output.Temp))
 			}
-			t := plots.Series{Label: label, Design: i, Dashed: k == 1}
+			sets = append(sets, set)
+			t := plots.Series{Label: s.Name, Design: i, Dashed: k == 1}
 			q := t
 			t.X, t.Y = []float64{u.Of(output.Len, off)}, []float64{u.Of(output.Temp, s.AirIn)}
 			for j, sg := range s.March {
@@ -188,27 +192,59 @@ func (e *env) marchFigure(ds []*design.Design) (*plots.Figure, error) {
 			}
 			temp, flux = append(temp, t), append(flux, q)
 		}
+		name := letter(i) + ": " + short(d.Name)
+		if len(sets) > 0 {
+			name += "; " + strings.Join(sets, ", ")
+		} else {
+			name += "; no forced flow along the fins"
+		}
+		names = append(names, name)
 	}
 	if len(temp) == 0 {
 		return nil, fail(ExitModel, fmt.Errorf("no fin set has forced flow at these conditions, so there is no march to draw"))
 	}
-	names := make([]string, len(ds))
-	for i, d := range ds {
-		names[i] = letter(i) + ": " + short(d.Name)
-	}
-	return plots.March("Cooling air along the fin passages (channel method)\n"+strings.Join(names, "    "),
-		"position along the air path ("+u.Name(output.Len)+")", "air temperature ("+u.Name(output.Temp)+")", "local heat flux (k"+u.Name(output.Flux)+")", temp, flux)
+	return plots.March("Cooling air along the fin passages (channel method), each design at its own cruise speed",
+		"position along the air path ("+u.Name(output.Len)+")", "air temperature ("+u.Name(output.Temp)+")", "local heat flux (k"+u.Name(output.Flux)+")", names, temp, flux)
 }
 
-// addLimits adds a design's head and barrel limits to a figure's dotted
-// lines, by their labels (designs with the same limits share a line).
-func addLimits(limits map[string]float64, u output.Units, d *design.Design) {
-	for _, l := range []struct {
-		set string
-		k   float64
-	}{{"head", d.HeadLimit}, {"barrel", d.BarrelLimit}} {
-		limits[fmt.Sprintf("%s limit %s %s", l.set, u.N(u.Of(output.Temp, l.k), 0), u.Name(output.Temp))] = u.Of(output.Temp, l.k)
+// limitLines are the designs' head and barrel limits as lines, by their
+// labels: designs with the same limit share a line, and a limit not every
+// design has names the designs whose it is.
+func limitLines(u output.Units, ds []*design.Design) []plots.Limit {
+	type lim struct {
+		l     plots.Limit
+		whose []string
 	}
+	var ls []*lim
+	by := map[string]*lim{}
+	for i, d := range ds {
+		for _, s := range []struct {
+			set string
+			k   float64
+		}{{"head", d.HeadLimit}, {"barrel", d.BarrelLimit}} {
+			label := fmt.Sprintf("%s limit %s %s", s.set, u.N(u.Of(output.Temp, s.k), 0), u.Name(output.Temp))
+			if by[label] == nil {
+				by[label] = &lim{l: plots.Limit{Label: label, Value: u.Of(output.Temp, s.k), Barrel: s.set == "barrel"}}
+				ls = append(ls, by[label])
+			}
+			by[label].whose = append(by[label].whose, letter(i))
+		}
+	}
+	// heads first, then barrels, each from the lowest limit up
+	sort.SliceStable(ls, func(a, b int) bool {
+		if ls[a].l.Barrel != ls[b].l.Barrel {
+			return !ls[a].l.Barrel
+		}
+		return ls[a].l.Value < ls[b].l.Value
+	})
+	out := make([]plots.Limit, len(ls))
+	for i, l := range ls {
+		out[i] = l.l
+		if len(l.whose) < len(ds) {
+			out[i].Label += " (" + strings.Join(l.whose, ", ") + ")"
+		}
+	}
+	return out
 }
 
 func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.Figure, error) {
@@ -217,14 +253,13 @@ func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.F
 		return nil, err
 	}
 	var lines []plots.Series
-	limits := map[string]float64{}
 	var names []string
 	for i, d := range ds {
-		h := plots.Series{Label: letter(i) + " head", Design: i}
-		b := plots.Series{Label: letter(i) + " barrel", Design: i, Dashed: true}
-		lo := plots.Series{Label: letter(i) + " head, 5 % and 95 %", Design: i, Thin: true}
+		h := plots.Series{Label: "head", Design: i}
+		b := plots.Series{Label: "barrel", Design: i, Dashed: true}
+		lo := plots.Series{Label: "head, 5 % and 95 %", Design: i, Thin: true}
 		hi := plots.Series{Design: i, Thin: true}
-		end := plots.Series{Label: letter(i) + ": no equilibrium beyond", Design: i, Marks: true}
+		end := plots.Series{Label: "no equilibrium beyond", Design: i, Marks: true}
 		ended := false
 		for k := 0; ; k++ {
 			v := from + float64(k)*step
@@ -262,21 +297,11 @@ func (e *env) speedFigure(ds []*design.Design, from, to, step float64) (*plots.F
 			}
 		}
 		lines = append(lines, h, b, lo, hi, end)
-		addLimits(limits, u, d)
 		names = append(names, letter(i)+": "+short(d.Name))
 	}
-	if len(limits) > 3 { // keep the legend readable
-		keys := make([]string, 0, len(limits))
-		for k := range limits {
-			keys = append(keys, k)
-		}
-		sort.Strings(keys)
-		for _, k := range keys[3:] {
-			delete(limits, k)
-		}
-	}
-	return plots.Speeds("Wall temperature against road speed\n"+strings.Join(names, "    "),
-		"road speed ("+u.Name(output.Road)+")", "wall temperature at the fin roots ("+u.Name(output.Temp)+")", lines, limits)
+	return plots.Curves(plots.Chart{Title: "Wall temperature against road speed",
+		XLabel: "road speed (" + u.Name(output.Road) + ")", YLabel: "wall temperature at the fin roots (" + u.Name(output.Temp) + ")",
+		Designs: names, Lines: lines, Limits: limitLines(u, ds)})
 }
 
 func (e *env) compareFigure(ds []*design.Design) (*plots.Figure, error) {
@@ -296,7 +321,8 @@ func (e *env) compareFigure(ds []*design.Design) (*plots.Figure, error) {
 		if err != nil {
 			return nil, err
 		}
-		name := letter(i) + ": " + short(d.Name)
+		// each design at its own cruise speed, which its label gives
+		name := letter(i) + ": " + short(d.Name) + ", at " + u.N(u.Of(output.Road, d.Case.Speed), 0) + " " + u.Name(output.Road)
 		head := u.Of(output.Temp, o.Result.Head.WallTemp)
 		if !o.Result.Head.Equilibrium {
 			// a state, not a temperature: no bar
@@ -317,18 +343,14 @@ func (e *env) compareFigure(ds []*design.Design) (*plots.Figure, error) {
 		lim = append(lim, u.Of(output.Temp, d.HeadLimit))
 		perKg = append(perKg, u.Of(output.PerMass, o.Result.HeatPerFinMass()))
 	}
-	label := "head temperature (" + u.Name(output.Temp) + ")"
+	band := ""
 	if banded {
-		label += ", whisker 5 % to 95 %"
+		band = "head 5 % to 95 %"
 	} else {
 		lo, hi = nil, nil
 	}
-	sep := "    "
-	if len(names) > 2 {
-		sep = "\n" // one design a line: five names do not fit across
-	}
-	return plots.Compare("Designs at cruise\n"+strings.Join(names, sep), names, []plots.Panel{
-		{Label: label, Values: ht, Low: lo, High: hi, Limits: lim},
+	return plots.Compare("Designs, each at its own cruise speed", names, []plots.Panel{
+		{Label: "head temperature (" + u.Name(output.Temp) + ")", Values: ht, Low: lo, High: hi, Limits: lim, LimitLabel: "head limit of each design", BandLabel: band},
 		{Label: "heat per mass of fin (" + u.Name(output.PerMass) + ")", Values: perKg},
 	})
 }

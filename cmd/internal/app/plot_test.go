@@ -4,11 +4,16 @@ import (
 	"bytes"
 	"fmt"
 	"image/png"
+	"io"
 	"os"
 	"path/filepath"
 	"regexp"
 	"strings"
 	"testing"
+
+	"finmarch/cmd/internal/demo"
+	"finmarch/cmd/internal/design"
+	"finmarch/cmd/internal/plots"
 )
 
 // Every figure renders as SVG (with its axis labels, units and legend)
@@ -20,10 +25,10 @@ func TestPlots(t *testing.T) {
 		kind string
 		want []string
 	}{
-		{"march", []string{"position along the air path (mm)", "air temperature (C)", "local heat flux (kW/m2), cut at", "A head (annular)", "B barrel (longitudinal)"}},
-		{"speeds", []string{"road speed (km/h)", "wall temperature at the fin roots (C)", "head limit 220 C", "barrel limit 250 C", "A head", "B barrel"}},
-		{"compare", []string{"head temperature (C)", "heat per mass of fin (W/kg)", "limit"}},
-		{"ride", []string{"time (min)", "wall temperature at the fin roots (C)", "head limit 220 C", "B barrel", "run-then-jam"}},
+		{"march", []string{"position along the air path (mm)", "air temperature (C)", "local heat flux (kW/m2)", "axis cut at", "A: demo single, upright, annular fins; head annular, barrel annular", "B: demo single, laid over, longitudinal fins; head longitudinal, barrel longitudinal", "head", "barrel"}},
+		{"speeds", []string{"road speed (km/h)", "wall temperature at the fin roots (C)", "head limit 220 C", "barrel limit 250 C", "A: demo single, upright", "head, 5 % and 95 %", "barrel"}},
+		{"compare", []string{"head temperature (C)", "heat per mass of fin (W/kg)", "head limit of each design", "head 5 % to 95 %", "at 90 km/h"}},
+		{"ride", []string{"time (min)", "wall temperature at the fin roots (C)", "head limit 220 C", "barrel limit 250 C", "B: demo single, laid over", "run-then-jam"}},
 	} {
 		svg := filepath.Join(dir, c.kind+".svg")
 		if _, errs, code := run(t, "plot", c.kind, up, lo, "-o", svg); code != 0 {
@@ -92,4 +97,75 @@ func TestFigureAndReportLayout(t *testing.T) {
 	b, _ := os.ReadFile(rp)
 	made := regexp.MustCompile(`Written by finmarch [^<]*`)
 	golden(t, "report.html", made.ReplaceAllString(string(b), "Written by finmarch VERSION on DATE; command: COMMAND"))
+}
+
+// The figures of three designs (the demo upright, laid over and the
+// scooter with its fan, as 'finmarch report' draws them) keep every title,
+// label and legend entry on the canvas and apart, and no curve, limit or
+// grid line crosses the legend; each design and line kind is keyed once
+// rather than each line; the head and barrel limits are named; the
+// comparison gives each design's own speed (the scooter's 60 km/h is not
+// the others' 90).
+func TestFiguresOfThreeDesigns(t *testing.T) {
+	e := &env{stdout: io.Discard, stderr: io.Discard, opt: &options{segments: -1, samples: -1}, sources: map[string][]byte{}}
+	var ds []*design.Design
+	for _, f := range []struct {
+		src  []byte
+		name string
+	}{{demo.Upright, "a.toml"}, {demo.LaidOver, "b.toml"}, {demo.ScooterFan, "c.toml"}} {
+		d, err := e.parse(f.src, f.name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		ds = append(ds, d)
+	}
+	if ds[0].Case.Speed == ds[2].Case.Speed {
+		t.Fatal("the demos no longer run at different speeds; pick designs that do")
+	}
+	_, segs, _, err := e.rideProfile(reportRide)
+	if err != nil {
+		t.Fatal(err)
+	}
+	figs := map[string]func() (*plots.Figure, error){
+		"march":   func() (*plots.Figure, error) { return e.marchFigure(ds) },
+		"speeds":  func() (*plots.Figure, error) { return e.speedFigure(ds, 0, 140/3.6, 5/3.6) },
+		"compare": func() (*plots.Figure, error) { return e.compareFigure(ds) },
+		"ride":    func() (*plots.Figure, error) { return e.rideFigure(ds, reportRide, segs, "cold") },
+		"fan":     func() (*plots.Figure, error) { return e.fanFigure(ds[2]) },
+	}
+	for _, kind := range []string{"march", "speeds", "compare", "ride", "fan"} {
+		f, err := figs[kind]()
+		if err != nil {
+			t.Fatalf("%s: %v", kind, err)
+		}
+		if err := f.Check(); err != nil {
+			t.Errorf("%s: %v", kind, err)
+		}
+		var all []string
+		for _, g := range f.Legend() {
+			all = append(all, g...)
+		}
+		legend := strings.Join(all, " | ")
+		switch kind {
+		case "speeds", "ride":
+			if len(all) > 12 {
+				t.Errorf("%s: %d legend entries: %s", kind, len(all), legend)
+			}
+			for _, w := range []string{"A: demo single, upright", "C: demo scooter", "head limit 220 C", "barrel limit 250 C"} {
+				if !strings.Contains(legend, w) {
+					t.Errorf("%s: the legend lacks %q: %s", kind, w, legend)
+				}
+			}
+		case "compare":
+			if strings.Contains(f.Plots[0].Title.Text, "at cruise") {
+				t.Errorf("compare: title %q says one cruise for all", f.Plots[0].Title.Text)
+			}
+			for i, d := range ds {
+				w := fmt.Sprintf("%s: %s, at %.0f km/h", letter(i), d.Name, d.Case.Speed*3.6)
+				if !strings.Contains(legend, w) {
+					t.Errorf("compare: the legend lacks %q: %s", w, legend)
+				}
+			}
+		}
+	}
 }

@@ -172,8 +172,8 @@ func (e *env) report(ds []*design.Design) ([]byte, error) {
 		make    func() (*plots.Figure, error)
 		caption string
 	}{
-		{func() (*plots.Figure, error) { return e.marchFigure(ds) }, "Air temperature and local heat flux along the fin passages at cruise; on a series path the barrel line continues where the head ends. The flux axis is cut above the entrance peak, where the boundary layers start."},
-		{func() (*plots.Figure, error) { return e.speedFigure(ds, 0, 140/3.6, 5/3.6) }, "Wall temperature at the fin roots against road speed from idle (0 km/h), with the head and barrel limits dotted and each head's uncertainty band (5th and 95th percentiles) in thin dots. A cross marks where a curve ends because no equilibrium exists below 500 C at the next speed."},
+		{func() (*plots.Figure, error) { return e.marchFigure(ds) }, "Air temperature and local heat flux along the fin passages, each design at its own cruise speed; on a series path the barrel line continues where the head ends. The flux axis is cut above the entrance peak, where the boundary layers start."},
+		{func() (*plots.Figure, error) { return e.speedFigure(ds, 0, 140/3.6, 5/3.6) }, "Wall temperature at the fin roots against road speed from idle (0 km/h), with the head limit dash-dotted and the barrel limit dotted in grey, and each head's uncertainty band (5th and 95th percentiles) in thin dots. A cross marks where a curve ends because no equilibrium exists below 500 C at the next speed."},
 	}
 	figs = append(figs, struct {
 		make    func() (*plots.Figure, error)
@@ -184,7 +184,7 @@ func (e *env) report(ds []*design.Design) ([]byte, error) {
 			return nil, err
 		}
 		return e.rideFigure(ds, reportRide, ride, "cold")
-	}, "Heat soak: wall temperature at the fin roots through the built-in ride " + reportRide + " from cold (20 min at 90 km/h, then 15 min standing at idle), with the limits dotted ('finmarch ride' for other rides)."})
+	}, "Heat soak: wall temperature at the fin roots through the built-in ride " + reportRide + " from cold (20 min at 90 km/h, then 15 min standing at idle), with the limits (head dash-dotted, barrel dotted grey) ('finmarch ride' for other rides)."})
 	for _, d := range ds {
 		if d.Case.Supply.Kind == cylinder.SupplyFan {
 			figs = append(figs, struct {
@@ -197,7 +197,7 @@ func (e *env) report(ds []*design.Design) ([]byte, error) {
 		figs = append(figs, struct {
 			make    func() (*plots.Figure, error)
 			caption string
-		}{func() (*plots.Figure, error) { return e.compareFigure(ds) }, "Head temperature, with its uncertainty band (5th to 95th percentile) as a whisker, and heat rejected per kilogram of fin, design by design (letters as in the comparison)."})
+		}{func() (*plots.Figure, error) { return e.compareFigure(ds) }, "Head temperature, with its uncertainty band (5th to 95th percentile) as a whisker, and heat rejected per kilogram of fin, design by design, each at its own cruise speed as the legend gives it (letters as in the comparison)."})
 	}
 	for _, f := range figs {
 		fig, err := f.make()

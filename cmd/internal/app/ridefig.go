@@ -2,7 +2,6 @@ package app
 
 import (
 	"fmt"
-	"strings"
 
 	"github.com/spf13/cobra"
 
@@ -48,7 +47,6 @@ func (e *env) rideFigure(ds []*design.Design, name string, ride []transient.Segm
 		return nil, err
 	}
 	var lines []plots.Series
-	limits := map[string]float64{}
 	var names []string
 	for i, d := range ds {
 		if d.WallFixed {
@@ -66,8 +64,8 @@ func (e *env) rideFigure(ds []*design.Design, name string, ride []transient.Segm
 		if err != nil {
 			return nil, modelError(d.Name, err)
 		}
-		h := plots.Series{Label: letter(i) + " head", Design: i}
-		b := plots.Series{Label: letter(i) + " barrel", Design: i, Dashed: true}
+		h := plots.Series{Label: "head", Design: i}
+		b := plots.Series{Label: "barrel", Design: i, Dashed: true}
 		for _, s := range tr.Samples {
 			h.X, h.Y = append(h.X, s.Time/60), append(h.Y, u.Of(output.Temp, s.Head))
 			b.X, b.Y = append(b.X, s.Time/60), append(b.Y, u.Of(output.Temp, s.Barrel))
@@ -75,11 +73,11 @@ func (e *env) rideFigure(ds []*design.Design, name string, ride []transient.Segm
 		lines = append(lines, h, b)
 		if tr.Runaway {
 			n := len(tr.Samples) - 1
-			lines = append(lines, plots.Series{Label: letter(i) + ": no equilibrium beyond", X: []float64{tr.Samples[n].Time / 60}, Y: []float64{u.Of(output.Temp, tr.Samples[n].Head)}, Design: i, Marks: true})
+			lines = append(lines, plots.Series{Label: "no equilibrium beyond", X: []float64{tr.Samples[n].Time / 60}, Y: []float64{u.Of(output.Temp, tr.Samples[n].Head)}, Design: i, Marks: true})
 		}
-		addLimits(limits, u, d)
 		names = append(names, letter(i)+": "+short(d.Name))
 	}
-	return plots.Speeds("Wall temperature through the ride "+name+"\n"+strings.Join(names, "    "),
-		"time (min)", "wall temperature at the fin roots ("+u.Name(output.Temp)+")", lines, limits)
+	return plots.Curves(plots.Chart{Title: "Wall temperature through the ride " + name,
+		XLabel: "time (min)", YLabel: "wall temperature at the fin roots (" + u.Name(output.Temp) + ")",
+		Designs: names, Lines: lines, Limits: limitLines(u, ds)})
 }
