@@ -298,3 +298,46 @@ func TestWarningsNameTheirDesign(t *testing.T) {
 		}
 	}
 }
+
+// optimise says how its optimum runs by the methods it did not search
+// with (newcomer's trial: an optimum by Gibson ran 40 K hotter by the
+// channel march, and nothing said so): each figure is estimate's own on
+// the written design.
+func TestOptimiseOtherMethods(t *testing.T) {
+	up, _ := designs(t)
+	w := filepath.Join(t.TempDir(), "opt.toml")
+	out, errs, code := run(t, "optimise", up, "--goal", "light", "--limit", "200 C", "--write", w, "-q")
+	if code != 0 {
+		t.Fatalf("exit %d %s", code, errs)
+	}
+	js, errs, code := run(t, "estimate", w, "-f", "json", "-q", "--samples", "0")
+	if code != 0 {
+		t.Fatal(errs)
+	}
+	var v struct {
+		Result struct {
+			Methods []struct {
+				Method  string   `json:"method"`
+				Used    bool     `json:"used"`
+				Applies bool     `json:"applies"`
+				Head    *float64 `json:"head_wall_temperature_K"`
+			} `json:"methods"`
+		} `json:"result"`
+	}
+	if err := json.Unmarshal([]byte(js), &v); err != nil {
+		t.Fatal(err)
+	}
+	n := 0
+	for _, m := range v.Result.Methods {
+		if m.Used || !m.Applies || m.Head == nil {
+			continue
+		}
+		n++
+		if want := fmt.Sprintf("%s %.1f C", m.Method, *m.Head-273.15); !strings.Contains(strings.Join(strings.Fields(out), " "), want) {
+			t.Errorf("optimise does not say %q:\n%s", want, out)
+		}
+	}
+	if n < 2 {
+		t.Errorf("%d other methods in the estimate of the optimum", n)
+	}
+}

@@ -45,8 +45,14 @@ func (e *env) march(d *design.Design) error {
 				u.N(u.Of(output.H, sg.H), 1), u.N(sg.FinEff, 3), u.N(u.Of(output.Flux, sg.Flux), 0), u.N(u.Of(output.Power, sg.Heat), 1)})
 		}
 	}
-	doc := output.Doc{Title: fmt.Sprintf("%s: channel march at %s %s (head wall %s, barrel wall %s)", d.Name,
-		u.N(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), wallPhrase(u, o.Result.Head), wallPhrase(u, o.Result.Barrel)),
+	est := ""
+	if o.Result.Method != def.Result.Method {
+		// the march is the channel method's: say the estimate's own head
+		// beside it, so the two never read as a contradiction
+		est = fmt.Sprintf("; the estimate, by %s: head %s", def.Result.Method, wallPhrase(u, def.Result.Head))
+	}
+	doc := output.Doc{Title: fmt.Sprintf("%s: channel march at %s %s (by the channel method: head wall %s, barrel wall %s%s)", d.Name,
+		u.N(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), wallPhrase(u, o.Result.Head), wallPhrase(u, o.Result.Barrel), est),
 		Grids: []output.Grid{g}, Caution: true}
 	for _, s := range []cylinder.SetResult{o.Result.Head, o.Result.Barrel} {
 		if len(s.March) == 0 {

@@ -239,6 +239,9 @@ func (e *env) optimise(d *design.Design, names []string, goal string, p fins.Pro
 	}
 	doc := e.optimumDoc(d, pr, sol, u)
 	kvs := optimumKeys(pr, sol.Optimum.X)
+	if n := e.otherMethodsNote(d, pr, kvs, u); n != "" {
+		doc.Notes = append(doc.Notes, n)
+	}
 	if write != "" {
 		if err := e.writeOptimum(d, pr, sol, kvs, write); err != nil {
 			return err
@@ -280,6 +283,40 @@ func keysTOML(kvs []design.KV) string {
 		fmt.Fprintf(&b, "%s = %s\n", key, kv.Value)
 	}
 	return b.String()
+}
+
+// otherMethodsNote says how the optimised set runs by the air-side
+// methods the search did not use, against the design as drawn: an
+// optimum of one method can be worse by another, and the spread is the
+// model's own uncertainty. "" when only one method applies.
+func (e *env) otherMethodsNote(d *design.Design, pr optimise.Problem, kvs []design.KV, u output.Units) string {
+	nd, err := e.parse(design.SetKeys(e.sources[d.Source], kvs), d.Source)
+	if err != nil {
+		return ""
+	}
+	before, err1 := evaluate(d, d.Case.Speed)
+	after, err2 := evaluate(nd, nd.Case.Speed)
+	if err1 != nil || err2 != nil {
+		return ""
+	}
+	set := pr.Primary()
+	var parts []string
+	for i, m := range after.Result.Methods {
+		if m.Used || !m.Applies || i >= len(before.Result.Methods) {
+			continue
+		}
+		b := before.Result.Methods[i]
+		wa, wb, eqa, eqb := m.Head, b.Head, m.HeadEq, b.HeadEq
+		if set == 1 {
+			wa, wb, eqa, eqb = m.Barrel, b.Barrel, m.BarrelEq, b.BarrelEq
+		}
+		parts = append(parts, fmt.Sprintf("%s %s %s (as drawn %s)", m.Method, methodWall(u, wa, eqa), u.Name(output.Temp), methodWall(u, wb, eqb)))
+	}
+	if len(parts) == 0 {
+		return ""
+	}
+	return fmt.Sprintf("The search used %s's method; by the others the optimum's %s runs at %s. An optimum of one method can be worse by another: the spread is the model's own uncertainty ('finmarch estimate' on the result shows every method and the band).",
+		after.Result.Method, optimise.SetNames[set], strings.Join(parts, ", "))
 }
 
 // writeOptimum writes the design with the optimum's keys set, after

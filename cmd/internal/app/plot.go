@@ -336,6 +336,12 @@ func (e *env) compareFigure(ds []*design.Design) (*plots.Figure, error) {
 			}
 			if b.Head.P95 <= cylinder.SaneWallLimit {
 				h = u.Of(output.Temp, b.Head.P95)
+			} else if o.Result.Head.Equilibrium {
+				// an open band: the whisker runs to the top of the chart's
+				// reach, and the name says why, so the less certain design
+				// never looks the tighter one
+				h = u.Of(output.Temp, cylinder.SaneWallLimit)
+				name += " (95 %: no equilibrium, whisker open)"
 			}
 		}
 		names = append(names, name)
