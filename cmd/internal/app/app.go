@@ -7,6 +7,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"regexp"
 	"strconv"
 	"strings"
 
@@ -415,15 +416,57 @@ func (e *env) emitAll(docs []output.Doc, names []string) error {
 	return e.write(e.opt.out, buf.Bytes())
 }
 
+// rangeWarning is a range warning's text (validity.Warning.String, after
+// a design's name): the correlation and quantity, the value or values
+// seen, and the valid range.
+var rangeWarning = regexp.MustCompile(`^(.* used outside its range: .* = )(\S+?)(?: to (\S+?))?(, valid .*)$`)
+
+// warningsOf joins warnings, each once; range warnings of one cause (the
+// same design, correlation, quantity and range) seen at several values,
+// as over a tilt table's rows, become one warning with the span of the
+// values seen.
 func warningsOf(ws ...[]string) []string {
+	type span struct {
+		i      int
+		lo, hi float64
+		a, b   string
+	}
+	spans := map[string]*span{}
 	seen := map[string]bool{}
 	var out []string
 	for _, l := range ws {
 		for _, w := range l {
-			if !seen[w] {
-				seen[w] = true
-				out = append(out, w)
+			if seen[w] {
+				continue
 			}
+			seen[w] = true
+			if m := rangeWarning.FindStringSubmatch(w); m != nil {
+				a, b := m[2], m[3]
+				if b == "" {
+					b = a
+				}
+				lo, e1 := strconv.ParseFloat(a, 64)
+				hi, e2 := strconv.ParseFloat(b, 64)
+				if e1 == nil && e2 == nil {
+					key := m[1] + "\x00" + m[4]
+					if sp, ok := spans[key]; ok {
+						if lo < sp.lo {
+							sp.lo, sp.a = lo, a
+						}
+						if hi > sp.hi {
+							sp.hi, sp.b = hi, b
+						}
+						seen := sp.a
+						if sp.b != sp.a {
+							seen += " to " + sp.b
+						}
+						out[sp.i] = m[1] + seen + m[4]
+						continue
+					}
+					spans[key] = &span{i: len(out), lo: lo, hi: hi, a: a, b: b}
+				}
+			}
+			out = append(out, w)
 		}
 	}
 	return out

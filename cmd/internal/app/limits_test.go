@@ -341,3 +341,24 @@ func TestOptimiseOtherMethods(t *testing.T) {
 		t.Errorf("%d other methods in the estimate of the optimum", n)
 	}
 }
+
+// Range warnings of one cause seen at several values (a tilt table's rows)
+// are one warning with the span of the values; other warnings stay as
+// they are, each once, in order (newcomer's trial: 16 lines from one tilt).
+func TestWarningsOfMergesSpans(t *testing.T) {
+	got := warningsOf(
+		[]string{"d: F used outside its range: Ra = 6272, valid 1e+05 to 1e+10", "d: casting: head fins: x"},
+		[]string{"d: F used outside its range: Ra = 3321, valid 1e+05 to 1e+10", "d: G used outside its range: Tb/Tw = 0.45 to 0.47, valid 0.5 to 1"},
+		[]string{"d: F used outside its range: Ra = 7000 to 8000, valid 1e+05 to 1e+10", "d: casting: head fins: x", "e: F used outside its range: Ra = 10, valid 1e+05 to 1e+10"},
+		[]string{"d: G used outside its range: Tb/Tw = 0.3986, valid 0.5 to 1"},
+	)
+	want := []string{
+		"d: F used outside its range: Ra = 3321 to 8000, valid 1e+05 to 1e+10",
+		"d: casting: head fins: x",
+		"d: G used outside its range: Tb/Tw = 0.3986 to 0.47, valid 0.5 to 1",
+		"e: F used outside its range: Ra = 10, valid 1e+05 to 1e+10",
+	}
+	if strings.Join(got, "\n") != strings.Join(want, "\n") {
+		t.Errorf("got\n%s\nwant\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
+	}
+}
