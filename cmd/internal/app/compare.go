@@ -115,6 +115,9 @@ func (e *env) compareDoc(ds []*design.Design, heading string) (output.Doc, error
 		return u.N(u.Of(output.Mass, o.Result.FinMass()), 2)
 	})
 	add("heat rejected per mass of fin", u.Name(output.PerMass), func(o outcome) string {
+		if !o.Fixed && o.NoEquilibrium != nil {
+			return noValue(u, "-") // the heat at the search's cap: not a state of the engine
+		}
 		return u.N(u.Of(output.PerMass, o.Result.HeatPerFinMass()), 0)
 	})
 	doc := output.Doc{Title: heading, Grids: []output.Grid{g}, Caution: true}
