@@ -456,11 +456,11 @@ func warningsOf(ws ...[]string) []string {
 						if hi > sp.hi {
 							sp.hi, sp.b = hi, b
 						}
-						seen := sp.a
+						vals := sp.a
 						if sp.b != sp.a {
-							seen += " to " + sp.b
+							vals += " to " + sp.b
 						}
-						out[sp.i] = m[1] + seen + m[4]
+						out[sp.i] = m[1] + vals + m[4]
 						continue
 					}
 					spans[key] = &span{i: len(out), lo: lo, hi: hi, a: a, b: b}

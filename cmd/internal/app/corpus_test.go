@@ -1,7 +1,6 @@
 package app
 
 import (
-	"bufio"
 	"os"
 	"path/filepath"
 	"strconv"
@@ -15,23 +14,32 @@ const badDir = "../../../testdata/bad"
 // real estimate command: it must exit with the expected code, print nothing
 // on stdout, name the line where one applies, and carry the expected
 // message fragment. No case may panic.
-func TestBadDesignCorpus(t *testing.T) {
-	f, err := os.Open(filepath.Join(badDir, "expect.tsv"))
+// tsvRows are the rows of a corpus table in badDir: tab-separated, n
+// fields each (the last takes the rest of the line), skipping blank lines
+// and # comments; a row of another width fails the test.
+func tsvRows(t *testing.T, name string, n int) [][]string {
+	t.Helper()
+	b, err := os.ReadFile(filepath.Join(badDir, name))
 	if err != nil {
 		t.Fatal(err)
 	}
-	defer f.Close()
-	n := 0
-	sc := bufio.NewScanner(f)
-	for sc.Scan() {
-		l := sc.Text()
+	var rows [][]string
+	for _, l := range strings.Split(string(b), "\n") {
 		if strings.HasPrefix(l, "#") || strings.TrimSpace(l) == "" {
 			continue
 		}
-		p := strings.SplitN(l, "\t", 4)
-		if len(p) != 4 {
-			t.Fatalf("bad expect line %q", l)
+		p := strings.SplitN(strings.TrimRight(l, "\r"), "\t", n)
+		if len(p) != n {
+			t.Fatalf("bad %s line %q", name, l)
 		}
+		rows = append(rows, p)
+	}
+	return rows
+}
+
+func TestBadDesignCorpus(t *testing.T) {
+	n := 0
+	for _, p := range tsvRows(t, "expect.tsv", 4) {
 		code, _ := strconv.Atoi(p[1])
 		line, _ := strconv.Atoi(p[2])
 		path := filepath.Join(badDir, p[0])

@@ -1,8 +1,6 @@
 package app
 
 import (
-	"bufio"
-	"os"
 	"path/filepath"
 	"strconv"
 	"strings"
@@ -17,26 +15,12 @@ import (
 // nothing on stdout when it must fail). No case may panic.
 func TestReaderCorpus(t *testing.T) {
 	up, _ := designs(t)
-	f, err := os.Open(filepath.Join(badDir, "readers.tsv"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
 	n := 0
-	sc := bufio.NewScanner(f)
-	for sc.Scan() {
-		l := sc.Text()
-		if strings.HasPrefix(l, "#") || strings.TrimSpace(l) == "" {
-			continue
-		}
-		p := strings.SplitN(l, "\t", 5)
-		if len(p) != 5 {
-			t.Fatalf("bad readers.tsv line %q", l)
-		}
+	for _, p := range tsvRows(t, "readers.tsv", 5) {
 		code, err1 := strconv.Atoi(p[2])
 		line, err2 := strconv.Atoi(p[3])
 		if err1 != nil || err2 != nil || p[4] == "" {
-			t.Fatalf("bad readers.tsv line %q", l)
+			t.Fatalf("bad readers.tsv row %q", p)
 		}
 		path := filepath.Join(badDir, p[1])
 		var args []string

@@ -232,6 +232,21 @@ func (p *tomlLexer) lineEnd() int {
 }
 
 // key reads a dotted key: bare, "basic" or 'literal' parts.
+// keyEquals reads a key and the '=' after it, leaving the lexer at the
+// value.
+func (p *tomlLexer) keyEquals() ([]string, error) {
+	k, err := p.key()
+	if err != nil {
+		return nil, err
+	}
+	if p.eof() || p.s[p.i] != '=' {
+		return nil, p.errorf("'=' expected after a key")
+	}
+	p.i++
+	p.spaces()
+	return k, nil
+}
+
 func (p *tomlLexer) key() ([]string, error) {
 	var parts []string
 	for {
@@ -377,15 +392,10 @@ func (p *tomlLexer) value(path []string, d *tomlDoc, array bool) (*inlineTable, 
 				p.i++
 				return t, nil
 			}
-			k, err := p.key()
+			k, err := p.keyEquals()
 			if err != nil {
 				return nil, err
 			}
-			if p.eof() || p.s[p.i] != '=' {
-				return nil, p.errorf("'=' expected after a key")
-			}
-			p.i++
-			p.spaces()
 			full := append(slices.Clone(path), k...)
 			st := &tomlStmt{path: full, scope: len(path), array: array, member: true, valStart: p.i, comment: -1}
 			if st.inline, err = p.value(full, d, array); err != nil {
@@ -457,15 +467,10 @@ func lexTOML(s string) (*tomlDoc, error) {
 			table, array = k, h.array
 			continue
 		}
-		k, err := p.key()
+		k, err := p.keyEquals()
 		if err != nil {
 			return nil, err
 		}
-		if p.eof() || p.s[p.i] != '=' {
-			return nil, p.errorf("'=' expected after a key")
-		}
-		p.i++
-		p.spaces()
 		full := append(slices.Clone(table), k...)
 		st := &tomlStmt{path: full, scope: len(table), array: array, valStart: p.i, comment: -1}
 		d.stmts = append(d.stmts, st)
