@@ -286,3 +286,30 @@ func TestGasHeatingFactor(t *testing.T) {
 		t.Error("laminar end with the factor")
 	}
 }
+
+// The disk facing a stream (Sparrow & Geiger, J. Heat Transfer 107, 1985;
+// the form recalled from memory, Nu = 1.05 Re^(1/2) Pr^0.36): the coded
+// constant and exponents at one point by the recalled formula; a face
+// meeting the stream head-on carries more than a flat plate of the same
+// length swept edge-on in laminar flow (Incropera Eq. 7.30), as a
+// stagnation-point boundary layer must; and its recalled range (5e3 to
+// 5e4) warns past its ends and not inside.
+func TestDiskFacingFlow(t *testing.T) {
+	if got := DiskFacingFlowNu(1e4, 0.7, nil); rel(got, 1.05*100*math.Pow(0.7, 0.36)) > 1e-12 {
+		t.Errorf("disk facing the stream: Nu %g", got)
+	}
+	for _, re := range []float64{5e3, 2e4, 5e4} {
+		if d, f := DiskFacingFlowNu(re, 0.71, nil), FlatPlateNu(re, 0.71, nil); !(d > f) {
+			t.Errorf("Re %g: the facing disk's Nu %g is not above the edge-on plate's %g", re, d, f)
+		}
+	}
+	var log validity.Log
+	DiskFacingFlowNu(3e4, 0.7, &log)
+	if log.Len() != 0 {
+		t.Errorf("inside its range it warns: %v", log.Warnings())
+	}
+	DiskFacingFlowNu(1.5e5, 0.7, &log)
+	if log.Len() != 1 {
+		t.Errorf("Re 1.5e5 (past 5e4): %d warnings, want 1", log.Len())
+	}
+}

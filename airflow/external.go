@@ -35,3 +35,24 @@ func CylinderCrossflowNu(re, pr float64, log *validity.Log) float64 {
 	a := 0.62 * math.Sqrt(re) * math.Cbrt(pr) / math.Pow(1+math.Pow(0.4/pr, 2.0/3), 0.25)
 	return 0.3 + a*math.Pow(1+math.Pow(re/282000, 5.0/8), 0.8)
 }
+
+// DiskFacingFlowNu returns the average Nusselt number h D / k over the
+// upstream face of a thin disk of diameter D set normal to a uniform
+// stream, by Sparrow & Geiger (J. Heat Transfer 107, 1985, 321-326; the
+// form as recalled, from memory, not read: medium confidence in the
+// constant and the exponents):
+//
+//	Nu_D = 1.05 Re_D^(1/2) Pr^0.36,
+//
+// Re_D = rho V D / mu with V the approach velocity, properties at the film
+// temperature. Stated range (from memory) 5e3 <= Re_D <= 5e4, Pr of air;
+// outside it the form still answers, with a warning. The Re^(1/2) law is
+// that of a laminar stagnation-region boundary layer, which grows over
+// the face from its centre. finmarch uses it for the fin face that meets
+// the axial road air first on an inclined or laid-over cylinder with
+// annular fins (airflow/cylinder: the leading face).
+func DiskFacingFlowNu(re, pr float64, log *validity.Log) float64 {
+	log.Check("Sparrow-Geiger disk facing the stream (from memory)", "Reynolds number", re, 5e3, 5e4)
+	log.Check("Sparrow-Geiger disk facing the stream (from memory)", "Prandtl number", pr, 0.6, 1)
+	return 1.05 * math.Sqrt(re) * math.Pow(pr, 0.36)
+}

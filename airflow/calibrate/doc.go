@@ -36,7 +36,7 @@
 // none below cylinder.SaneWallLimit, and the temperature stays at that cap
 // however the parameters move) is refused like a step that raises the sum
 // of squares, so that a fit started far from the answer (a hot reading
-// that needs a recovery of 0.1 against the default 0.5) does not stall on
+// that needs a recovery of 0.1 against the default 0.8) does not stall on
 // the cap; a start without an equilibrium is replaced by the best of a
 // grid over each parameter's range when one has it.
 //

@@ -48,10 +48,10 @@ func Example() {
 	}
 	// Output:
 	// heat load: head 2681 W, barrel 1443 W
-	// head wall 177.8 C, barrel wall 105.1 C
-	// head: mean h 62.6 W/m2K by gibson
-	//   gibson       head 177.8 C, barrel 105.1 C
-	//   briggs-young head 183.6 C, barrel 107.9 C
-	//   channel      head 212.7 C, barrel 120.7 C
+	// head wall 158.4 C, barrel wall 95.5 C
+	// head: mean h 74.3 W/m2K by gibson
+	//   gibson       head 158.4 C, barrel 95.5 C
+	//   briggs-young head 164.6 C, barrel 98.4 C
+	//   channel      head 176.5 C, barrel 106.4 C
 
 }

@@ -63,12 +63,12 @@ func (p *prepared) natural(st *setState, tw float64) (float64, float64, float64)
 //
 // across longitudinal fins the slots facing the stream carry a flow of
 // their own (frontHeat) and take no slot share.
-func (p *prepared) envelope(st *setState, tw float64) (float64, float64) {
+func (p *prepared) envelope(st *setState, tw float64) (spread, front, hOut float64) {
 	dT := tw - p.c.Ambient
 	if dT <= 0 || p.c.Speed <= 0 || p.c.Supply.ducted() || p.c.FixedH > 0 {
 		// inside a shroud or baffles the road air does not reach the fins;
 		// a fixed h ([override] h) stands instead of every forced correlation
-		return 0, 0
+		return 0, 0, 0
 	}
 	fs, g := st.fs, st.g
 	air := airflow.Properties(0.5*(tw+p.c.Ambient), p.c.Pressure, p.log)
@@ -77,14 +77,14 @@ func (p *prepared) envelope(st *setState, tw float64) (float64, float64) {
 	if fs.Set.Style == fins.StyleLongitudinal {
 		v := r * p.c.Speed * math.Cos(p.c.Tilt)
 		if v <= 1e-3 {
-			return 0, 0
+			return 0, 0, 0
 		}
 		D := g.TipDiameter
 		h = airflow.CylinderCrossflowNu(air.Rho*v*D/air.Mu, air.Pr, p.log) * air.K / D
 	} else {
 		v := r * p.c.Speed * math.Sin(p.c.Tilt)
 		if v <= 1e-3 {
-			return 0, 0
+			return 0, 0, 0
 		}
 		L := fs.Set.Length
 		h = airflow.FlatPlateVDINu(air.Rho*v*L/air.Mu, air.Pr, p.log) * air.K / L
@@ -103,7 +103,7 @@ func (p *prepared) envelope(st *setState, tw float64) (float64, float64) {
 	eta := st.cv.Efficiency(hEq, p.set.ConductivityFactor*fs.Alloy.Conductivity(tw), p.log)
 	// the front slots of longitudinal fins take the cross flow's
 	// stagnation pressure through them (front.go)
-	return hEq*g.SurfaceEfficiency(eta)*g.TotalArea*dT + p.frontHeat(st, tw), h
+	return hEq * g.SurfaceEfficiency(eta) * g.TotalArea * dT, p.frontHeat(st, tw), h
 }
 
 // setHeat evaluates one fin set at wall temperature tw with air entering
@@ -112,9 +112,37 @@ func (p *prepared) envelope(st *setState, tw float64) (float64, float64) {
 // of Churchill & Usagi, AIChE J. 18, 1972, with the exponent of the mixed
 // rule: our choice), that and natural convection combined as
 // Q^3 = Q_F^3 + Q_N^3 (Churchill 1977's rule for assisting mixed
-// convection, applied to the heats of the set), and radiation from the
-// envelope at the mean fin surface temperature T_a + eta_o (T_w - T_a) to
-// surroundings at ambient (Incropera 6th ed. Eq. 1.7).
+// convection), and radiation from the envelope at the mean fin surface
+// temperature T_a + eta_o (T_w - T_a) to surroundings at ambient
+// (Incropera 6th ed. Eq. 1.7). The mixing rules are local: they combine
+// mechanisms acting on the same surface. Where a part of the set's surface
+// has a forced flow of its own (the front slots of longitudinal fins in a
+// cross stream, the leading face of annular fins in an axial one: front.go,
+// leading.go) that part, a share f of the surface, is combined apart, with
+// its share of the passage, envelope and natural heats,
+//
+//	Q_part = [ (f Q_P)^3 + (f Q_E)^3 + Q_own^3 + (f Q_N)^3 ]^(1/3),
+//
+// and the parts' heats add (combine rests; with no such part it is the
+// rule above unchanged).
+func combine(qp, qe, qn float64, parts [][2]float64) (forced, conv float64) {
+	rest := 1.0
+	add := func(f, own float64) {
+		a, b, n := f*qp, f*qe, f*qn
+		qf := math.Cbrt(a*a*a + b*b*b + own*own*own)
+		forced += qf
+		conv += math.Cbrt(qf*qf*qf + n*n*n)
+	}
+	for _, pt := range parts {
+		if pt[1] > 0 && pt[0] > 0 {
+			add(pt[0], pt[1])
+			rest -= pt[0]
+		}
+	}
+	add(math.Max(rest, 0), 0)
+	return forced, conv
+}
+
 func (p *prepared) setHeat(st *setState, tw, tin float64, keep bool) (SetResult, marchOut) {
 	fs, g, pt := st.fs, st.g, st.pt
 	var m marchOut
@@ -124,11 +152,11 @@ func (p *prepared) setHeat(st *setState, tw, tin float64, keep bool) (SetResult,
 		m = p.freeStream(st, tw, tin)
 	}
 	qn, hn, etaN := p.natural(st, tw)
-	qe, he := p.envelope(st, tw)
-	qf := math.Cbrt(m.q*m.q*m.q + qe*qe*qe)
-	qc := math.Cbrt(qf*qf*qf + qn*qn*qn)
+	qe, qfront, he := p.envelope(st, tw)
+	qface := p.faceHeat(st, tw)
+	qf, qc := combine(m.q, qe, qn, [][2]float64{{FrontShare, qfront}, {st.faceShare(), qface}})
 	r := SetResult{Name: fs.Name, Style: fs.Set.Style.String(), WallTemp: tw, AirIn: tin, AirOut: m.tOut,
-		ForcedHeat: qf, PassageHeat: m.q, EnvelopeHeat: qe, EnvelopeH: he,
+		ForcedHeat: qf, PassageHeat: m.q, EnvelopeHeat: qe + qfront + qface, EnvelopeH: he, LeadingFaceHeat: qface,
 		NaturalHeat: qn, ConvectionHeat: qc, NaturalH: hn, Paths: pt.Paths, PathLength: pt.Length,
 		Series: pt.Series, FinArea: g.FinArea, TotalArea: g.TotalArea, FinMass: g.FinVolume * fs.Alloy.Density,
 		ApproachComponent: pt.Component, Reynolds: m.re, Regime: m.regime, March: m.seg}

@@ -1,11 +1,11 @@
 package cylinder
 
 import (
-	"errors"
 	"math"
 	"testing"
 
 	"finmarch/airflow"
+	"finmarch/fins"
 )
 
 // On open fins in the road air the default method is Gibson's, and the
@@ -170,44 +170,88 @@ func BenchmarkEstimateMethods(b *testing.B) {
 	}
 }
 
-// The tilt table at the demo's full cruise load (2.7 kW head, 1.45 kW
-// barrel at 90 km/h) on the default method: finite from 10 to 80 deg for
-// both fin styles, and smooth there (no 5 deg step moves the head by more
-// than 80 K), each style warming monotonically toward its unfavourable
-// extreme; at the extremes themselves only the broadside air cools the
-// fins (annular fins laid over: the envelope's tips and the slots under
-// it; longitudinal fins upright: those and the front slots' own flow), and
-// the demo's head may find no equilibrium there, but not for want of more
-// than a third of its load at 500 C: the broadside credit is doing real
-// work.
+// The tilt table at the demo's cruise load (2681 W head, 1443 W barrel at
+// 90 km/h, the road-load model's figures) on the default method and the
+// default recovery, for the demo's annular fins and for the longitudinal
+// variant 'finmarch tilt' gives it (47 head fins at 8.0 mm, 42 barrel fins
+// at 6.8 mm root pitch): finite at every 5 deg from 0 to 90 for both fin
+// styles (issue: "the tilt table smooth and finite from 0 to 90 deg"),
+// each style warming monotonically toward its unfavourable extreme, and
+// smooth: no 5 deg step moves the head by 100 K, and no step differs from
+// the one before by 40 K (no kink where one credit hands over to another;
+// the steps grow toward the extreme and ease in its last 5 deg, where the
+// along-fin share vanishes and the broadside credits level off). At the extremes only the broadside
+// air and natural convection cool the fins (annular laid over: the
+// envelope, the slots under it and the leading fin face; longitudinal
+// upright: those and the front slots' own flow).
 func TestTiltSmoothAtCruise(t *testing.T) {
+	load := HeatLoad{Head: 2681, Barrel: 1443}
 	for _, lo := range []bool{false, true} {
-		c := demoCase(t, lo)
-		prev := 0.0
+		c := demoCase(t, false)
+		c.Recovery = DefaultRecovery
+		if lo {
+			c.Head.Set.Style, c.Head.Set.Count, c.Head.Set.Pitch = fins.StyleLongitudinal, 47, 0.008
+			c.Barrel.Set.Style, c.Barrel.Set.Count, c.Barrel.Set.Pitch = fins.StyleLongitudinal, 42, 0.0068
+		}
+		var walls []float64
 		for deg := 0.0; deg <= 90; deg += 5 {
 			c.Tilt = deg * math.Pi / 180
-			r, err := c.Balance(demoLoad, Settings{OneMethod: true})
-			if errors.Is(err, ErrNoEquilibrium) && (deg < 10 || deg > 80) {
-				if short := r.Head.Shortfall / demoLoad.Head; !(short < 1.0/3) {
-					t.Errorf("longitudinal %v at %g deg: %.0f %% of the load short at 500 C", lo, deg, 100*short)
-				}
-				prev = SaneWallLimit
-				continue
-			}
+			r, err := c.Balance(load, Settings{OneMethod: true})
 			if err != nil {
-				t.Fatalf("longitudinal %v at %g deg: %v", lo, deg, err)
+				t.Fatalf("longitudinal %v at %g deg: %v (%.0f W short at 500 C)", lo, deg, err, r.Head.Shortfall)
 			}
-			w := r.Head.WallTemp
-			if deg > 0 && prev < SaneWallLimit {
-				if math.Abs(w-prev) > 80 {
-					t.Errorf("longitudinal %v: head %.1f K at %g deg after %.1f K", lo, w, deg, prev)
-				}
-				if lo && w > prev+1e-6 || !lo && w < prev-1e-6 {
-					t.Errorf("longitudinal %v: head %.2f K at %g deg after %.2f K, against the trend", lo, w, deg, prev)
-				}
-			}
-			prev = w
+			walls = append(walls, r.Head.WallTemp)
 		}
+		if lo { // toward the extreme: longitudinal fins warm as the tilt falls
+			for i, j := 0, len(walls)-1; i < j; i, j = i+1, j-1 {
+				walls[i], walls[j] = walls[j], walls[i]
+			}
+		}
+		prevStep := 0.0
+		for i := 1; i < len(walls); i++ {
+			step := walls[i] - walls[i-1]
+			if step < -1e-6 || step > 100 || i > 1 && math.Abs(step-prevStep) > 40 {
+				t.Errorf("longitudinal %v: head %.1f K after %.1f K (step %.1f K after %.1f K), 5 deg further toward the extreme", lo, walls[i], walls[i-1], step, prevStep)
+			}
+			prevStep = step
+		}
+		t.Logf("longitudinal %v: head at the extreme %.1f C", lo, walls[len(walls)-1]-273.15)
+	}
+}
+
+// The leading face of annular fins: on an upright cylinder it takes no
+// heat (no axial component); laid over it takes the Sparrow & Geiger disk
+// coefficient (1985, from memory) on the head's first fin face, about a
+// fifth of the head's load on the demo at 90 deg, and the estimate with it
+// runs cooler than the same case with the face credit's Nusselt number
+// halved would (the face is a real part of the balance, not a label).
+func TestLeadingFace(t *testing.T) {
+	c := demoCase(t, false)
+	c.Recovery = DefaultRecovery
+	up := mustBalance(t, c, demoLoad, Settings{OneMethod: true})
+	if up.Head.LeadingFaceHeat != 0 || up.Barrel.LeadingFaceHeat != 0 {
+		t.Errorf("upright: leading face %.1f / %.1f W, want none", up.Head.LeadingFaceHeat, up.Barrel.LeadingFaceHeat)
+	}
+	c.Tilt = math.Pi / 2
+	lo := mustBalance(t, c, HeatLoad{Head: 2681, Barrel: 1443}, Settings{OneMethod: true})
+	// by hand: the face is the head's first fin ring, 120 to 200 mm
+	g, err := c.Head.Set.Geometry()
+	if err != nil {
+		t.Fatal(err)
+	}
+	area := math.Pi / 4 * (g.TipDiameter*g.TipDiameter - c.Head.Set.RootDiameter*c.Head.Set.RootDiameter)
+	air := airflow.Properties(0.5*(lo.Head.WallTemp+c.Ambient), c.Pressure, nil)
+	v := math.Sqrt(c.Recovery) * c.Speed
+	h := 1.05 * math.Sqrt(air.Rho*v*g.TipDiameter/air.Mu) * math.Pow(air.Pr, 0.36) * air.K / g.TipDiameter
+	upper := h * area * (lo.Head.WallTemp - c.Ambient) // fin efficiency 1
+	if q := lo.Head.LeadingFaceHeat; !(q > 0.7*upper && q < upper) {
+		t.Errorf("laid over: leading face %.0f W, want the Sparrow-Geiger face heat %.0f W times a fin efficiency of 0.7 to 1", q, upper)
+	}
+	if b := lo.Barrel.LeadingFaceHeat; b != 0 {
+		t.Errorf("the barrel's fins (152 mm) stand inside the head's (200 mm) tip circle: leading face %.1f W, want none", b)
+	}
+	if share := lo.Head.LeadingFaceHeat / lo.Head.HeatLoad; share < 0.1 || share > 0.35 {
+		t.Errorf("laid over: the face takes %.0f %% of the head's load, want about a fifth", 100*share)
 	}
 }
 

@@ -157,7 +157,7 @@ func TestResolved(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	for _, k := range []string{`"pressure_recovery":0.5`, `"rolling_resistance":0.02`, `"pitch_m":0.009`, `"style":"annular"`, `"head_K":493.15`} {
+	for _, k := range []string{`"pressure_recovery":0.8`, `"rolling_resistance":0.02`, `"pitch_m":0.009`, `"style":"annular"`, `"head_K":493.15`} {
 		if !strings.Contains(string(js), k) {
 			t.Errorf("design JSON lacks %s", k)
 		}

@@ -29,6 +29,9 @@ type setState struct {
 	front     float64
 	frontMdot float64
 	frontPath Path
+	// face is the area (m2) of the set's fin face that meets the road
+	// air's axial component first (leading.go)
+	face float64
 }
 
 // prepared is a case ready for marches: the geometry, the paths and the
@@ -94,6 +97,7 @@ func (c Case) prepare(s Settings, log *validity.Log) (*prepared, error) {
 	if err := p.frontFlows(); err != nil {
 		return nil, err
 	}
+	p.faces()
 	for i := range p.sets {
 		st := &p.sets[i]
 		st.vel = st.mdot / (p.amb.Rho * st.pt.FlowArea)

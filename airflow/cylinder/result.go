@@ -23,17 +23,20 @@ type Segment struct {
 
 // SetResult is the outcome for one fin set.
 type SetResult struct {
-	Name           string  `json:"name"`
-	Style          string  `json:"style"`
-	HeatLoad       float64 `json:"heat_load_W"`
-	HeatRejected   float64 `json:"heat_rejected_W"`
-	ForcedHeat     float64 `json:"forced_heat_W"`   // passages and envelope combined
-	PassageHeat    float64 `json:"passage_heat_W"`  // the march along the fin passages
-	EnvelopeHeat   float64 `json:"envelope_heat_W"` // the air over the fin envelope
-	EnvelopeH      float64 `json:"envelope_h_W_m2K"`
-	NaturalHeat    float64 `json:"natural_heat_W"`
-	ConvectionHeat float64 `json:"convection_heat_W"`
-	RadiationHeat  float64 `json:"radiation_heat_W"`
+	Name         string  `json:"name"`
+	Style        string  `json:"style"`
+	HeatLoad     float64 `json:"heat_load_W"`
+	HeatRejected float64 `json:"heat_rejected_W"`
+	ForcedHeat   float64 `json:"forced_heat_W"`   // passages and envelope combined
+	PassageHeat  float64 `json:"passage_heat_W"`  // the march along the fin passages
+	EnvelopeHeat float64 `json:"envelope_heat_W"` // the air over the fin envelope
+	EnvelopeH    float64 `json:"envelope_h_W_m2K"`
+	// LeadingFaceHeat is the part of EnvelopeHeat the leading face of
+	// annular fins takes from an axial stream (leading.go)
+	LeadingFaceHeat float64 `json:"leading_face_heat_W"`
+	NaturalHeat     float64 `json:"natural_heat_W"`
+	ConvectionHeat  float64 `json:"convection_heat_W"`
+	RadiationHeat   float64 `json:"radiation_heat_W"`
 	// WallTemp is the wall at the fin roots, K. Without an equilibrium
 	// (Equilibrium false) it is the search's cap, SaneWallLimit, where the
 	// set falls Shortfall short of its load: not a temperature the set

@@ -121,8 +121,8 @@ func TestSoakTime(t *testing.T) {
 var climbAndCool = []Segment{{Duration: 300, Speed: 80 / 3.6}, {Duration: 1200, Speed: 60 / 3.6, Grade: 7}, {Duration: 600}, {Duration: 900, Speed: 40 / 3.6}}
 
 // limitsClimb are limits the road demo passes on climbAndCool: the head
-// 190 C, the barrel 115 C.
-var limitsClimb = cylinder.Limits{Head: 190 + 273.15, Barrel: 115 + 273.15}
+// 175 C, the barrel 105 C.
+var limitsClimb = cylinder.Limits{Head: 175 + 273.15, Barrel: 105 + 273.15}
 
 // The summary does not depend on the output interval: the same ride
 // sampled every 1 s, 60 s and 300 s gives the same peaks, first passings

@@ -32,9 +32,10 @@ type Spread struct {
 }
 
 // DefaultSpread is the spread a design gets unless it states its own:
-//   - pressure recovery +-0.2 around the design's (common practice: it lumps
-//     the frame, tank and legs of an uncowled cylinder, and is the first
-//     thing to calibrate);
+//   - pressure recovery +-0.2 around the design's (our assumption: the
+//     default 0.8 spans 0.6 to 1, from a cylinder half shaded by wheel,
+//     frame and legs to Gibson's open tunnel; it is the first thing to
+//     calibrate);
 //   - cooling share +-20 % (Heywood, Internal Combustion Engine
 //     Fundamentals, 1988, Table 12.1: 17 to 26 % of the fuel energy to the
 //     coolant of SI engines; from memory);

@@ -27,7 +27,7 @@ func reportFiles(t *testing.T) (string, string) {
 	bad := filepath.Join(dir, "hostile.toml")
 	src := strings.Replace(string(demo.LaidOver), `name = "demo single, laid over, longitudinal fins"`, `name = `+strconv.Quote(hostileName), 1)
 	// and over its limit, for the Warnings section
-	src = strings.Replace(src, `head = "220 C"`, `head = "170 C"`, 1)
+	src = strings.Replace(src, `head = "220 C"`, `head = "150 C"`, 1)
 	if err := os.WriteFile(bad, []byte(src), 0o644); err != nil {
 		t.Fatal(err)
 	}

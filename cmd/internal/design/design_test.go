@@ -153,7 +153,7 @@ func TestDefaults(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if d.Case.Tilt != 0 || d.Case.Recovery != 0.5 || d.Run.Segments != 40 || d.Case.Head.Set.TipThickness != 0.004 {
+	if d.Case.Tilt != 0 || d.Case.Recovery != 0.8 || d.Run.Segments != 40 || d.Case.Head.Set.TipThickness != 0.004 {
 		t.Errorf("defaults wrong: %+v", d.Case)
 	}
 	if d.HeadLimit != d.Case.Head.Alloy.MaxService || !d.Load.Direct || d.Load.Given.Head != 2000 {
