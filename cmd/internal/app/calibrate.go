@@ -128,6 +128,7 @@ func (e *env) calibrate(d *design.Design, path string, names []string, write str
 			"Standard errors come from the fit's covariance, scaled by the residuals when the points outnumber the parameters and by the points' stated uncertainty (5 K unless given) otherwise."}}
 	kvs, clamped := calibratedKeys(f, d.Band.Spread, d.Case.Method(d.Run))
 	doc.Notes = append(doc.Notes, clamped...)
+	doc.Notes = append(doc.Notes, calibratedNotes(u, d, f)...)
 	doc.JSON = map[string]any{"design": d.Name, "inputs": d.Cylinder().Resolved(), "parameters": f.Params, "residuals_K": f.Residuals, "chi2": f.Chi2, "warnings": f.Warnings, "caution": output.Caution}
 	doc.Warnings = f.Warnings
 	if write != "" {
@@ -261,4 +262,41 @@ func halfWidthText(v float64) string {
 		return "unbounded"
 	}
 	return strconv.FormatFloat(v, 'g', 4, 64)
+}
+
+// calibratedNotes say what the fit means for the design: its head and
+// barrel at the design's own point (speed, ambient) before and after, and,
+// when the fitted recovery lies further from the design's than the band's
+// half-width, what the readings say about the cylinder's air.
+func calibratedNotes(u output.Units, d *design.Design, f calibrate.Fit) []string {
+	var notes []string
+	before, err1 := d.Cylinder().Evaluate(d.Run)
+	cd, cs := f.Apply(d.Cylinder(), d.Run)
+	after, err2 := cd.Evaluate(cs)
+	at := fmt.Sprintf("%s %s, %s", u.N(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), fmtT(u, d.Case.Ambient)+" "+u.Name(output.Temp))
+	wall := func(o cylinder.Outcome, err error, r cylinder.SetResult) string {
+		if err != nil || !r.Equilibrium {
+			return "no equilibrium"
+		}
+		return fmtT(u, r.WallTemp) + " " + u.Name(output.Temp)
+	}
+	notes = append(notes, fmt.Sprintf("At the design's own point (%s) the calibrated design puts the head at %s and the barrel at %s; as it stood, %s and %s.",
+		at, wall(after, err2, after.Result.Head), wall(after, err2, after.Result.Barrel), wall(before, err1, before.Result.Head), wall(before, err1, before.Result.Barrel)))
+	if r, ok := f.Get(calibrate.Recovery); ok {
+		was := d.Case.Recovery
+		if was == 0 {
+			was = cylinder.DefaultRecovery
+		}
+		half := d.Band.Spread.Recovery
+		if half <= 0 {
+			half = uncertainty.DefaultSpread().Recovery
+		}
+		switch {
+		case r < was-half:
+			notes = append(notes, fmt.Sprintf("The readings need a pressure recovery of %s against the design's %s: less air reaches the fins than assumed (a wheel, mudguard, fairing, legs or luggage shading the cylinder), or more heat reaches them than the road-load shares give (a richer or harder-worked engine, a smaller oil share): the fit cannot tell which, and puts it all on the air.", output.Num(r, 2), output.Num(was, 2)))
+		case r > was+half:
+			notes = append(notes, fmt.Sprintf("The readings need a pressure recovery of %s against the design's %s: the fins get more air than assumed, or less heat than the road-load shares give (an oil cooler, a leaner or lightly loaded engine): the fit cannot tell which, and puts it all on the air.", output.Num(r, 2), output.Num(was, 2)))
+		}
+	}
+	return notes
 }

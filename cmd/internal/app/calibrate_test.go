@@ -45,7 +45,7 @@ func headAt(t *testing.T, path, speed, ambient string, samples int) (wall, p5, p
 }
 
 // The end-to-end promise of calibration: an "engine" that is the demo
-// design at a pressure recovery of 0.35 (the design assumes 0.5) is
+// design at a pressure recovery of 0.35 (the design assumes 0.8) is
 // measured at three road speeds with 5 K of noise at a plug seat 15 K over
 // the fin root; the calibrated design's band at a hotter day and another
 // speed covers the engine's true head temperature there, and is narrower
@@ -162,5 +162,42 @@ func TestTopGearSpeed(t *testing.T) {
 	_, errs, _ = run(t, "estimate", path, "--speed", "120 km/h", "--samples", "0")
 	if !strings.Contains(errs, "cannot hold this speed") || !strings.Contains(errs, "top speed here is 100 km/h") {
 		t.Errorf("estimate past the top-gear speed: %s", errs)
+	}
+}
+
+// Calibrate says what the fit means at the design's own point: the head and
+// barrel there as the calibrated design gives them (the same as 'finmarch
+// estimate' of the written design, to the printed 0.1 K) and as the design
+// stood; and, when the readings need a recovery further from the design's
+// than the band's half-width (0.35 against 0.8), what that says about the
+// cylinder's air, but not for one within it (0.7).
+func TestCalibrateSaysWhatItMeans(t *testing.T) {
+	for _, c := range []struct {
+		rec  string
+		note bool
+	}{{"0.35", true}, {"0.7", false}} {
+		w, _, _ := headAt(t, withRecovery(t, c.rec, ""), "90 km/h", "35 C", 0)
+		in := withRecovery(t, "0.8", fmt.Sprintf("\n[[measurement]]\nspeed = \"90 km/h\"\nambient = \"35 C\"\nhead = \"%.4f K\"\n", w))
+		out := filepath.Join(t.TempDir(), "cal.toml")
+		txt, errs, code := run(t, "calibrate", in, "--write", out, "-q")
+		if code != 0 {
+			t.Fatalf("recovery %s: exit %d %s", c.rec, code, errs)
+		}
+		flat := strings.Join(strings.Fields(txt), " ")
+		m := regexp.MustCompile(`At the design's own point \(90 km/h, 35\.0 C\) the calibrated design puts the head at ([0-9.]+) C and the barrel at [0-9.]+ C; as it stood, ([0-9.]+) C`).FindStringSubmatch(flat)
+		if m == nil {
+			t.Fatalf("recovery %s: no design-point note:\n%s", c.rec, txt)
+		}
+		got, _, _ := headAt(t, out, "90 km/h", "35 C", 0)
+		if v, _ := strconv.ParseFloat(m[1], 64); math.Abs(v-(got-273.15)) > 0.05+1e-9 {
+			t.Errorf("recovery %s: note says %s C, the calibrated design estimates %.2f C", c.rec, m[1], got-273.15)
+		}
+		was, _, _ := headAt(t, in, "90 km/h", "35 C", 0)
+		if v, _ := strconv.ParseFloat(m[2], 64); math.Abs(v-(was-273.15)) > 0.05+1e-9 {
+			t.Errorf("recovery %s: note says %s C as it stood, the design estimates %.2f C", c.rec, m[2], was-273.15)
+		}
+		if has := strings.Contains(flat, "The readings need a pressure recovery of"); has != c.note {
+			t.Errorf("recovery %s: recovery note %v, want %v:\n%s", c.rec, has, c.note, txt)
+		}
 	}
 }
