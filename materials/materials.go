@@ -74,7 +74,7 @@ func (a Alloy) ProcessFit(process string) (bool, string) {
 	for _, m := range a.Made {
 		by = append(by, processWords[m])
 	}
-	return false, fmt.Sprintf("alloy %s (%s) is not made into fins by %s in common practice, only by %s: name the alloy or the process (cylinder.casting) your fins are made of", a.Name, a.Kind, processWords[process], strings.Join(by, " or "))
+	return false, fmt.Sprintf("alloy %s (%s) is not made into fins by %s in common practice, only by %s: name the alloy or the process (cylinder.casting, or the set's own casting key) your fins are made of", a.Name, a.Kind, processWords[process], strings.Join(by, " or "))
 }
 
 // MadeBy is ProcessFit's verdict alone, without building its words (a

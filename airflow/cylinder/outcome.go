@@ -43,8 +43,20 @@ type Design struct {
 	// the estimate then gives the heat each set rejects there.
 	Walls *[2]float64 `json:"fixed_walls_K,omitempty"`
 	// Process is how the fins are made; Castability checks them against
-	// its limits (a zero Process checks nothing).
-	Process fins.Process `json:"process"`
+	// its limits (a zero Process checks nothing). BarrelProcess, when it
+	// names one, is the barrel fins' own (an iron barrel sand cast under a
+	// die-cast alloy head); otherwise Process holds for both sets.
+	Process       fins.Process `json:"process"`
+	BarrelProcess fins.Process `json:"barrel_process"`
+}
+
+// ProcessOf returns the process the fins of set i (0 head, 1 barrel) are
+// made by.
+func (d Design) ProcessOf(i int) fins.Process {
+	if i == barrel && d.BarrelProcess.Name != "" {
+		return d.BarrelProcess
+	}
+	return d.Process
 }
 
 // Resolved returns the design with every zero that stands for a sourced
@@ -69,12 +81,12 @@ func (d Design) Resolved() Design {
 // die-casting alloy poured in sand); nil when every limit holds or no
 // process is named. The limits are common practice (fins.Processes).
 func (d Design) Castability() []string {
-	p := d.Process
-	if p.Name == "" {
-		return nil
-	}
 	var out []string
-	for _, fs := range []FinSet{d.Case.Head, d.Case.Barrel} {
+	for i, fs := range []FinSet{d.Case.Head, d.Case.Barrel} {
+		p := d.ProcessOf(i)
+		if p.Name == "" {
+			continue
+		}
 		s := fs.Set
 		if !fs.Alloy.MadeBy(p.Name) {
 			_, why := fs.Alloy.ProcessFit(p.Name)

@@ -22,9 +22,10 @@ type Constraint struct {
 // limit within 1 K, a bound when the optimum sits on it (with a Step, on
 // the bound's nearest multiple of the step inside the box).
 func (pr Problem) Constraints(sol Solution, label func(k int, name string) string) []Constraint {
-	p, opt := pr.Process, sol.Optimum
+	opt := sol.Optimum
 	out := []Constraint{}
 	for k := range pr.Vars {
+		p := pr.ProcessOf(pr.Sets[k])
 		vs, err := pr.OnStep(k) // the bounds as the search took them
 		if err != nil {
 			vs = pr.Vars[k]

@@ -68,7 +68,10 @@ type Problem struct {
 	Vars     [][]Var           // per varied set, the five variables of DefaultVars in order
 	Goal     Goal
 	Limit    float64      // K, the objective wall's limit under GoalLight
-	Process  fins.Process // casting limits every candidate keeps
+	Process  fins.Process // casting limits every candidate keeps (the barrel's too, unless BarrelProcess names one)
+	// BarrelProcess, when it names one, is the barrel fins' own process
+	// (an iron barrel sand cast under a die-cast head).
+	BarrelProcess fins.Process
 	Levels   int          // grid levels per variable before the pattern search (default 5)
 	// Step, when above zero, is the size step of the lengths (m): pitch,
 	// height and thicknesses are searched on its multiples only, the sizes
@@ -154,7 +157,7 @@ func (p Problem) measure(x []float64, cast bool) (float64, float64, float64, boo
 	sets := [2]fins.Set{p.Base.Case.Head.Set, p.Base.Case.Barrel.Set}
 	for k, i := range p.Sets {
 		s := p.Set(k, x)
-		if s.TipThickness > s.RootThickness || cast && !p.Process.Feasible(s) {
+		if s.TipThickness > s.RootThickness || cast && !p.ProcessOf(i).Feasible(s) {
 			return 0, 0, 0, false
 		}
 		sets[i] = s
@@ -245,7 +248,7 @@ func Solve(p Problem) (Solution, error) {
 		if err != nil {
 			return sol, err
 		}
-		m := setMap{base: p.base(p.Sets[k]), vars: vs, proc: p.Process, step: p.Step}
+		m := setMap{base: p.base(p.Sets[k]), vars: vs, proc: p.ProcessOf(p.Sets[k]), step: p.Step}
 		l, h, in := m.bounds()
 		maps, lo, hi, integer = append(maps, m), append(lo, l...), append(hi, h...), append(integer, in...)
 	}
@@ -341,7 +344,7 @@ func Solve(p Problem) (Solution, error) {
 	dt, dm, do, dok := p.measure(p.X(), false)
 	sol.AsDesigned = Point{X: p.X(), Wall: dt, Mass: dm, Other: do, Feasible: dok}
 	for k := range p.Sets {
-		for _, v := range p.Process.Check(p.base(p.Sets[k])) {
+		for _, v := range p.ProcessOf(p.Sets[k]).Check(p.base(p.Sets[k])) {
 			if v.Slack < -1e-12 {
 				c := v.Constraint
 				if p.Both() {
@@ -460,4 +463,12 @@ func Pareto(pts []Point, n int) []Point {
 		}
 	}
 	return out
+}
+
+// ProcessOf returns the process set i (Head or Barrel) is made by.
+func (p Problem) ProcessOf(i int) fins.Process {
+	if i == Barrel && p.BarrelProcess.Name != "" {
+		return p.BarrelProcess
+	}
+	return p.Process
 }

@@ -199,8 +199,8 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 // cannot be made is a casting warning instead.
 func alloyNotes(d *design.Design) []string {
 	var out []string
-	for _, a := range []materials.Alloy{d.Case.Head.Alloy, d.Case.Barrel.Alloy} {
-		if ok, n := a.ProcessFit(d.Casting.Name); ok && n != "" && !slices.Contains(out, "Alloy and process: "+n+".") {
+	for i, a := range []materials.Alloy{d.Case.Head.Alloy, d.Case.Barrel.Alloy} {
+		if ok, n := a.ProcessFit(d.CastingOf(i).Name); ok && n != "" && !slices.Contains(out, "Alloy and process: "+n+".") {
 			out = append(out, "Alloy and process: "+n+".")
 		}
 	}

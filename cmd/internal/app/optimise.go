@@ -55,21 +55,23 @@ optimum's keys for the design file (--write FILE writes the design with them).`,
 			if goal != "cool" && goal != "light" {
 				return fail(ExitUsage, fmt.Errorf("--goal %q: cool or light", goal))
 			}
-			if process == "" {
-				process = d.Casting.Name // the design's own process
-			}
-			p, err := fins.LookupProcess(process)
-			if err != nil {
-				return fail(ExitUsage, err)
+			// each set's own process (its casting key, else
+			// cylinder.casting), or --process for both
+			procs := [2]fins.Process{d.CastingOf(0), d.CastingOf(1)}
+			if process != "" {
+				p, err := fins.LookupProcess(process)
+				if err != nil {
+					return fail(ExitUsage, err)
+				}
+				procs = [2]fins.Process{p, p}
 			}
 			for _, o := range []struct {
 				flag, s string
-				dst     *float64
 				parse   func(string) (float64, error)
 			}{
-				{"--min-thickness", minThick, &p.MinThickness, design.ParseValue[design.Length]},
-				{"--max-aspect", maxAspect, &p.MaxAspect, func(s string) (float64, error) { return design.ParseFor("air.pressure_recovery", s) }},
-				{"--draft", draft, &p.MinDraft, design.ParseValue[design.Angle]},
+				{"--min-thickness", minThick, design.ParseValue[design.Length]},
+				{"--max-aspect", maxAspect, func(s string) (float64, error) { return design.ParseFor("air.pressure_recovery", s) }},
+				{"--draft", draft, design.ParseValue[design.Angle]},
 			} {
 				if o.s == "" {
 					continue
@@ -78,8 +80,9 @@ optimum's keys for the design file (--write FILE writes the design with them).`,
 				if err != nil || v < 0 {
 					return fail(ExitUsage, fmt.Errorf("%s %q: %v", o.flag, o.s, err))
 				}
-				*o.dst = v
-				p.Name += " (adjusted)"
+				for i := range procs {
+					adjust(&procs[i], o.flag, v)
+				}
 			}
 			lim := d.HeadLimit
 			if set == "barrel" {
@@ -119,19 +122,19 @@ optimum's keys for the design file (--write FILE writes the design with them).`,
 			}
 			var vars [][]optimise.Var
 			for _, n := range names {
-				v, err := optBounds(d, n, p, ranges, step, stepFlag)
+				v, err := optBounds(d, n, procs[map[string]int{"head": 0, "barrel": 1}[n]], ranges, step, stepFlag)
 				if err != nil {
 					return err
 				}
 				vars = append(vars, v)
 			}
-			return e.optimise(d, names, goal, p, lim, vars, levels, step, write)
+			return e.optimise(d, names, goal, procs, lim, vars, levels, step, write)
 		},
 	}
 	f := cmd.Flags()
 	f.StringVar(&set, "set", "head", "fin set to optimise: head, barrel, or both (the head's wall with the barrel's limit kept)")
 	f.StringVar(&goal, "goal", "cool", "cool (lowest wall temperature) or light (least fin mass within the limit)")
-	f.StringVar(&process, "process", "", "casting process: sand, permanent-mould, die-casting or machined (default: the design's cylinder.casting)")
+	f.StringVar(&process, "process", "", "casting process for the sets varied: sand, permanent-mould, die-casting or machined (default: each set's casting key, else the design's cylinder.casting)")
 	complete(cmd, "process", processNames)
 	complete(cmd, "set", func() []string { return []string{"head", "barrel", "both"} })
 	complete(cmd, "goal", func() []string { return []string{"cool", "light"} })
@@ -209,12 +212,12 @@ func optBounds(d *design.Design, set string, p fins.Process, ranges map[string]*
 // optimum, its constraints and the trade-off front. Each candidate is the
 // design with the keys of its fin sets changed, checked by the design
 // file's rules (Design.With).
-func (e *env) optimise(d *design.Design, names []string, goal string, p fins.Process, limit float64, vars [][]optimise.Var, levels int, step float64, write string) error {
+func (e *env) optimise(d *design.Design, names []string, goal string, procs [2]fins.Process, limit float64, vars [][]optimise.Var, levels int, step float64, write string) error {
 	_, u, err := e.settings()
 	if err != nil {
 		return err
 	}
-	pr := optimise.Problem{Base: d.Cylinder(), Settings: d.Run, Vars: vars, Goal: optimise.Goal(goal), Limit: limit, Process: p, Levels: levels, Step: step}
+	pr := optimise.Problem{Base: d.Cylinder(), Settings: d.Run, Vars: vars, Goal: optimise.Goal(goal), Limit: limit, Process: procs[0], BarrelProcess: procs[1], Levels: levels, Step: step}
 	for _, n := range names {
 		pr.Sets = append(pr.Sets, map[string]int{"head": optimise.Head, "barrel": optimise.Barrel}[n])
 	}
@@ -370,7 +373,12 @@ func (e *env) noOptimum(pr optimise.Problem, sol optimise.Solution, u output.Uni
 // optimumDoc is the optimiser's report: the optimum against the design,
 // the constraints that hold it, the trade-off front, and the JSON.
 func (e *env) optimumDoc(d *design.Design, pr optimise.Problem, sol optimise.Solution, u output.Units) output.Doc {
-	both, p, goal := pr.Both(), pr.Process, string(pr.Goal)
+	both, goal := pr.Both(), string(pr.Goal)
+	p := pr.ProcessOf(pr.Primary())
+	if both && pr.ProcessOf(optimise.Barrel).Name != pr.Process.Name {
+		// two processes: named by set wherever one name is written
+		p.Name = fmt.Sprintf("head %s, barrel %s", pr.Process.Name, pr.ProcessOf(optimise.Barrel).Name)
+	}
 	primary, other := optimise.SetNames[pr.Primary()], optimise.SetNames[pr.Other()]
 	L := func(v float64) string { return u.N(u.Of(output.Len, v), u.Dec(output.Len)+1) }
 	opt := sol.Optimum
@@ -425,7 +433,7 @@ func (e *env) optimumDoc(d *design.Design, pr optimise.Problem, sol optimise.Sol
 	doc := output.Doc{Title: fmt.Sprintf("%s: fin optimisation at %s %s, ambient %s %s", d.Name, u.N(u.Of(output.Road, d.Case.Speed), 0), u.Name(output.Road), fmtT(u, d.Case.Ambient), u.Name(output.Temp)),
 		Grids: []output.Grid{g, c, fg}, Caution: true,
 		Notes: []string{
-			fmt.Sprintf("Casting limits (%s): %s.", p.Name, processSource(p)),
+			castingLimitsNote(pr, p),
 			fmt.Sprintf("Sizes are whole multiples of %s %s (--step), as a pattern maker works to: the optimum and every design on the front were estimated at those sizes, and no design a step away (in any combination of each set's pitch, height, thicknesses and count) does better.", strconv.FormatFloat(u.Of(output.Len, pr.Step), 'g', 4, 64), u.Name(output.Len)),
 			fmt.Sprintf("%d designs evaluated: a grid of %d levels per variable and %d points spread over the bounds, then compass search from %d starts (the design as drawn and the best points apart from each other).", sol.Evals, pr.Levels, sol.Sample, sol.Starts),
 			designNote(sol.Broken, p),
@@ -554,4 +562,30 @@ func frontJSON(f []optimise.Point, pr optimise.Problem) []map[string]float64 {
 		out = append(out, m)
 	}
 	return out
+}
+
+// adjust sets the limit a process flag overrides (--min-thickness,
+// --max-aspect, --draft) on p, and marks its name adjusted once.
+func adjust(p *fins.Process, flag string, v float64) {
+	switch flag {
+	case "--min-thickness":
+		p.MinThickness = v
+	case "--max-aspect":
+		p.MaxAspect = v
+	case "--draft":
+		p.MinDraft = v
+	}
+	if !strings.HasSuffix(p.Name, " (adjusted)") {
+		p.Name += " (adjusted)"
+	}
+}
+
+// castingLimitsNote names the casting limits the search kept and their
+// source: one process, or each set's when they differ.
+func castingLimitsNote(pr optimise.Problem, p fins.Process) string {
+	h, b := pr.ProcessOf(optimise.Head), pr.ProcessOf(optimise.Barrel)
+	if !pr.Both() || h.Name == b.Name {
+		return fmt.Sprintf("Casting limits (%s): %s.", p.Name, processSource(p))
+	}
+	return fmt.Sprintf("Casting limits: head %s (%s); barrel %s (%s).", h.Name, processSource(h), b.Name, processSource(b))
 }

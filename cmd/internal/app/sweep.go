@@ -490,7 +490,7 @@ func sweepSummary(d *design.Design, axes sweep.Grid, op []bool, sum *sweep.Summa
 	}
 	doc.Notes = append(doc.Notes, fmt.Sprintf("Fins: head / barrel. Limits: head %s %s, barrel %s %s; the margins and the heat per fin mass are in the rows (--format csv or json).",
 		fmtT(u, d.HeadLimit), T, fmtT(u, d.BarrelLimit), T))
-	doc.Notes = append(doc.Notes, fmt.Sprintf("Casting limits: %s (cylinder.casting); a row marked uncastable breaks them (its note in the full rows says how).", d.Casting.Name))
+	doc.Notes = append(doc.Notes, fmt.Sprintf("Casting limits: %s; a row marked uncastable breaks them (its note in the full rows says how).", castingName(d)))
 	if fi := sum.FirstInvalid; fi != nil {
 		doc.Notes = append(doc.Notes, fmt.Sprintf("Invalid points break a design rule (the row's note says which) and are not estimated; the first, point %d: %s.",
 			fi.Index, strings.TrimSuffix(fi.Note, ".")))

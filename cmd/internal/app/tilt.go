@@ -46,11 +46,12 @@ casting process allows). Beside each head temperature is its uncertainty band, t
 func restyled(d *design.Design, st fins.Style) (*design.Design, []string, error) {
 	cp := *d
 	var thinned []string
-	for _, x := range []struct {
+	for i, x := range []struct {
 		name string
 		dst  *fins.Set
 		src  fins.Set
 	}{{"head", &cp.Case.Head.Set, d.Case.Head.Set}, {"barrel", &cp.Case.Barrel.Set, d.Case.Barrel.Set}} {
+		proc := d.CastingOf(i)
 		if x.src.Style == st {
 			continue // as drawn
 		}
@@ -58,11 +59,11 @@ func restyled(d *design.Design, st fins.Style) (*design.Design, []string, error)
 		if err != nil {
 			return nil, nil, fmt.Errorf("%s fins as %s: %w", x.name, st, err)
 		}
-		v, _, err := x.src.RestyleFor(st, d.Casting)
+		v, _, err := x.src.RestyleFor(st, proc)
 		if err != nil {
 			return nil, nil, fmt.Errorf("%s fins as %s: %w", x.name, st, err)
 		}
-		if *x.dst, err = pasteable(v, d.Casting); err != nil {
+		if *x.dst, err = pasteable(v, proc); err != nil {
 			return nil, nil, fmt.Errorf("%s fins as %s: %w", x.name, st, err)
 		}
 		if x.dst.Count < same.Count {
@@ -156,7 +157,7 @@ func castNote(process string, thinA, thinL []string, an, lo *design.Design) stri
 		}
 	}
 	if len(parts) == 0 {
-		return fmt.Sprintf("Both variants keep the %s limits (cylinder.casting).", process)
+		return fmt.Sprintf("Both variants keep the %s limits.", process)
 	}
 	return "Casting: " + strings.Join(parts, "; ") + "."
 }
@@ -304,7 +305,7 @@ func (e *env) tilt(d *design.Design, step float64) error {
 		}
 	}
 	doc.Notes = append(doc.Notes,
-		castNote(d.Casting.Name, thinA, thinL, an, lo),
+		castNote(castingName(d), thinA, thinL, an, lo),
 		tiltAirNote(d),
 		noteWall)
 	doc.Warnings = warningsOf(warns...)
@@ -324,4 +325,13 @@ func tiltAirNote(d *design.Design) string {
 	}
 	return "Annular fins take the road-speed share in their plane (cos tilt); longitudinal fins the share along the axis (sin tilt), head first then barrel in series. " +
 		"The rest of the road air crosses the fins broadside: it is credited over the fin envelope, in the slots between the fins near their mouths and, across longitudinal fins, through the slots facing the stream; these rest on stated assumptions (README 'Model and sources'), so each style's unfavourable extreme is its least certain row."
+}
+
+// castingName names the process the fins are made by, for a note: one
+// name with its key, or each set's when they differ.
+func castingName(d *design.Design) string {
+	if d.OneCasting() {
+		return d.CastingOf(0).Name + " (cylinder.casting)"
+	}
+	return fmt.Sprintf("head %s and barrel %s (their casting keys)", d.CastingOf(0).Name, d.CastingOf(1).Name)
 }

@@ -120,6 +120,22 @@ func (b *builder) casting() {
 		return
 	}
 	b.d.Casting = p
+	b.d.SetCasting = [2]fins.Process{p, p}
+	// a set's own casting key: an iron barrel sand cast under a die-cast
+	// alloy head, say
+	for i, t := range []struct {
+		tbl, name string
+	}{{"head", b.f.Head.Casting}, {"barrel", b.f.Barrel.Casting}} {
+		if strings.TrimSpace(t.name) == "" {
+			continue
+		}
+		sp, err := fins.LookupProcess(t.name)
+		if err != nil {
+			b.add(setKey(t.tbl, "casting"), "%v", err)
+			continue
+		}
+		b.d.SetCasting[i] = sp
+	}
 }
 
 // alloy returns the alloy named n: a custom [alloys.n] table or the

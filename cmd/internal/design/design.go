@@ -60,6 +60,7 @@ type FinSetT struct {
 	RootThickness Q[Length]   `toml:"root_thickness"`
 	TipThickness  Q[Length]   `toml:"tip_thickness"`
 	Alloy         string      `toml:"alloy"`
+	Casting       string      `toml:"casting"` // this set's own process, over cylinder.casting
 	Finish        string      `toml:"finish"`
 	Emissivity    Q[Fraction] `toml:"emissivity"`
 }
@@ -161,7 +162,8 @@ type Design struct {
 	Case        cylinder.Case
 	Run         cylinder.Settings // segments; the command line adds caches and totals-only per use
 	Load        cylinder.Load
-	Casting     fins.Process      // the process the fins are made by; every command checks them against its limits
+	Casting     fins.Process      // the process the fins are made by (cylinder.casting); every command checks them against its limits
+	SetCasting  [2]fins.Process   // each set's process, head and barrel: its own casting key, else Casting
 	Band        BandSpec          // the uncertainty band's samples, seed and spread
 	Points      []calibrate.Point // the design's [[measurement]]s
 	Metal       transient.Metal   // the [ride] masses and link (zero: the estimates)
@@ -196,7 +198,7 @@ type BandSpec struct {
 // Cylinder is the design as the estimator takes it: the case, the load,
 // the limits and any fixed walls.
 func (d *Design) Cylinder() cylinder.Design {
-	cd := cylinder.Design{Case: d.Case, Load: d.Load, Limits: cylinder.Limits{Head: d.HeadLimit, Barrel: d.BarrelLimit}, Process: d.Casting}
+	cd := cylinder.Design{Case: d.Case, Load: d.Load, Limits: cylinder.Limits{Head: d.HeadLimit, Barrel: d.BarrelLimit}, Process: d.SetCasting[0], BarrelProcess: d.SetCasting[1]}
 	if d.WallFixed {
 		cd.Walls = &[2]float64{d.HeadWall, d.BarrelWall}
 	}
@@ -526,3 +528,15 @@ var (
 	defaultTexts sync.Map
 	defaultCount atomic.Int64
 )
+
+// CastingOf returns the process the fins of set i (0 head, 1 barrel) are
+// made by: the set's own casting key, else cylinder.casting.
+func (d *Design) CastingOf(i int) fins.Process {
+	if d.SetCasting[i].Name != "" {
+		return d.SetCasting[i]
+	}
+	return d.Casting
+}
+
+// OneCasting reports whether both fin sets are made by one process.
+func (d *Design) OneCasting() bool { return d.CastingOf(0).Name == d.CastingOf(1).Name }
