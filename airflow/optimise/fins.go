@@ -72,7 +72,7 @@ type Problem struct {
 	// BarrelProcess, when it names one, is the barrel fins' own process
 	// (an iron barrel sand cast under a die-cast head).
 	BarrelProcess fins.Process
-	Levels   int          // grid levels per variable before the pattern search (default 5)
+	Levels        int // grid levels per variable before the pattern search (default 5)
 	// Step, when above zero, is the size step of the lengths (m): pitch,
 	// height and thicknesses are searched on its multiples only, the sizes
 	// a pattern maker works to, so that the optimum and every design on
