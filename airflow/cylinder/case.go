@@ -33,7 +33,7 @@ const (
 	// pressure. Our assumption, no source found: Gibson's correlation, the
 	// default method, was measured in a tunnel's free stream (recovery 1 is
 	// its own reference), and on the road the front wheel, mudguard and
-	// frame shade part of the stream; the band draws it +-0.2 (0.6 to 1).
+	// frame shade part of the stream; the band draws it +-0.3 (0.5 to 1).
 	// Until 2026-12 it was 0.5, carried over from baffled practice (a cowl
 	// passes about half the dynamic pressure across the fins), which put the
 	// open-road approach at 0.71 of the road speed and the heads 20 to 35 K

@@ -9,6 +9,7 @@ import (
 	"testing"
 
 	"finmarch/cmd/internal/demo"
+	"finmarch/cmd/internal/design"
 )
 
 // The README's fan paragraph is the tool's output: each figure it gives for
@@ -123,7 +124,8 @@ func TestReadmeExample250(t *testing.T) {
 		return m, [2]float64{v.Band.Head.P5 - 273.15, v.Band.Head.P95 - 273.15}, v.Band.Over
 	}
 	now, band, over := est(src)
-	old, oldBand, _ := est([]byte(strings.Replace(string(src), "[air]\n", "[air]\npressure_recovery = 0.5\n", 1)))
+	// the former defaults: recovery 0.5, drawn +-0.2 in the band
+	old, oldBand, _ := est(design.SetKeys(src, []design.KV{{Key: "air.pressure_recovery", Value: "0.5"}, {Key: "uncertainty.pressure_recovery", Value: "0.2"}}))
 	for _, want := range []string{
 		fmt.Sprintf("100 km/h on a 35 C day: %.1f C at the head by Gibson (band %.0f to %.0f C, %.0f %% chance over its 250 C limit), %.1f C by Briggs & Young, %.1f C by the channel march; the barrel %.1f C.",
 			now["gibson"][0], band[0], band[1], 100*over, now["briggs-young"][0], now["channel"][0], now["gibson"][1]),
@@ -140,5 +142,102 @@ func TestReadmeExample250(t *testing.T) {
 	// the 250 C an aluminium head is held to (common practice)
 	if h := now["gibson"][0]; !(h > 150 && h < 250) {
 		t.Errorf("the 250 cc head at 100 km/h: %.1f C", h)
+	}
+}
+
+// The README's prose figures of the demo's ride, speeds and march are the
+// tool's own (a newcomer found them left behind by a change of the
+// physics): the upright head's peak on the mountain-pass grade and at the
+// ride's end, the road speed at which each demo head passes its 220 C
+// limit (to 1 km/h, by linear interpolation on a 1 km/h sweep), and the
+// air leaving the laid-over head fins in the channel march.
+func TestReadmeProseFigures(t *testing.T) {
+	b, err := os.ReadFile("../../../README.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	readme := strings.Join(strings.Fields(string(b)), " ")
+	up, lo := designs(t)
+	js, errs, code := run(t, "ride", up, "--profile", "mountain-pass", "-f", "json", "-q")
+	if code != 0 {
+		t.Fatalf("ride: exit %d %s", code, errs)
+	}
+	var ride struct {
+		Samples []struct {
+			Grade float64 `json:"grade_percent"`
+			Head  float64 `json:"head_wall_temperature_K"`
+		} `json:"samples"`
+	}
+	if err := json.Unmarshal([]byte(js), &ride); err != nil {
+		t.Fatal(err)
+	}
+	grade := 0.0
+	for _, s := range ride.Samples {
+		if s.Grade > 0 {
+			grade = max(grade, s.Head-273.15)
+		}
+	}
+	end := ride.Samples[len(ride.Samples)-1].Head - 273.15
+	crossing := func(path string) float64 {
+		js, errs, code := run(t, "speeds", path, "--from", "80 km/h", "--to", "140 km/h", "--step", "1 km/h", "--samples", "0", "-f", "json", "-q")
+		if code != 0 {
+			t.Fatalf("speeds: exit %d %s", code, errs)
+		}
+		var v struct {
+			Rows []struct {
+				Speed float64 `json:"speed_m_s"`
+				Head  struct {
+					Wall float64 `json:"wall_temperature_K"`
+				} `json:"head"`
+			} `json:"rows"`
+		}
+		if err := json.Unmarshal([]byte(js), &v); err != nil {
+			t.Fatal(err)
+		}
+		lim := 220 + 273.15
+		for i := 1; i < len(v.Rows); i++ {
+			a, b := v.Rows[i-1], v.Rows[i]
+			if a.Head.Wall < lim && b.Head.Wall >= lim {
+				return 3.6 * (a.Speed + (b.Speed-a.Speed)*(lim-a.Head.Wall)/(b.Head.Wall-a.Head.Wall))
+			}
+		}
+		t.Fatalf("%s: the head does not pass 220 C between 80 and 140 km/h", path)
+		return 0
+	}
+	js, errs, code = run(t, "march", lo, "-f", "json", "-q")
+	if code != 0 {
+		t.Fatalf("march: exit %d %s", code, errs)
+	}
+	var m struct {
+		Head struct {
+			Out float64 `json:"air_outlet_K"`
+		} `json:"head"`
+	}
+	if err := json.Unmarshal([]byte(js), &m); err != nil {
+		t.Fatal(err)
+	}
+	src, err := os.ReadFile(up)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var heads []any
+	for _, r := range []string{"0.3", "0.5", "0.8", "1"} {
+		p := filepath.Join(t.TempDir(), "r.toml")
+		if err := os.WriteFile(p, design.SetKeys(src, []design.KV{{Key: "air.pressure_recovery", Value: r}}), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		w, _, _ := headAt(t, p, "90 km/h", "35 C", 0)
+		heads = append(heads, w-273.15, r)
+	}
+	for _, want := range []string{
+		fmt.Sprintf("(the demo's head: %.1f C at %s, %.1f C at %s, %.1f C at %s, %.1f C at %s)", heads...),
+		fmt.Sprintf("On the demo the head climbs to about %.0f C on the grade", grade),
+		fmt.Sprintf("(%.1f C at the end of the ride)", end),
+		fmt.Sprintf("from about %.0f km/h (laid over) and %.0f km/h (upright) the head passes its 220 C limit", crossing(lo), crossing(up)),
+		fmt.Sprintf("the air leaves the head fins at about %.0f C", m.Head.Out-273.15),
+	} {
+		if !strings.Contains(readme, want) {
+			t.Errorf("README lacks %q", want)
+		}
 	}
 }
