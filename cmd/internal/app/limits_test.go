@@ -362,3 +362,46 @@ func TestWarningsOfMergesSpans(t *testing.T) {
 		t.Errorf("got\n%s\nwant\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
 	}
 }
+
+// A tilt row without an equilibrium says how short it falls (the laid-over
+// demo's own longitudinal fins stood upright: the JSON's shortfall over
+// the load, as a percentage), and the tilt column reads as typed in every
+// format ("15", not the 14.999999999999998 the radians round-trip gave).
+func TestTiltNamesItsShortfall(t *testing.T) {
+	_, lo := designs(t)
+	js, errs, code := run(t, "tilt", lo, "--samples", "0", "-f", "json", "-q")
+	if code != 0 {
+		t.Fatalf("exit %d %s", code, errs)
+	}
+	var v struct {
+		Rows []struct {
+			Tilt float64 `json:"tilt_deg"`
+			Lo   struct {
+				Head struct {
+					Load  float64 `json:"heat_load_W"`
+					Short float64 `json:"heat_shortfall_W"`
+					Eq    bool    `json:"equilibrium"`
+				} `json:"head"`
+			} `json:"longitudinal"`
+		} `json:"rows"`
+	}
+	if err := json.Unmarshal([]byte(js), &v); err != nil {
+		t.Fatal(err)
+	}
+	if len(v.Rows) < 2 || v.Rows[1].Tilt != 15 {
+		t.Fatalf("tilt rows %+v: want 0, 15, ...", v.Rows)
+	}
+	r := v.Rows[0].Lo.Head
+	if r.Eq || !(r.Short > 0) {
+		t.Fatalf("the laid-over demo's fins upright now find an equilibrium (short %.0f W): give this test a case without one", r.Short)
+	}
+	txt, _, _ := run(t, "tilt", lo, "--samples", "0", "-q")
+	want := fmt.Sprintf("longitudinal head at 0 deg %.0f %% short", 100*r.Short/r.Load)
+	if !strings.Contains(strings.Join(strings.Fields(txt), " "), want) {
+		t.Errorf("tilt lacks %q:\n%s", want, txt)
+	}
+	csv, _, _ := run(t, "tilt", lo, "--samples", "0", "-f", "csv", "-q")
+	if strings.Contains(csv, "14.99") || !strings.Contains(csv, "\n15,") {
+		t.Errorf("tilt CSV's tilt column:\n%s", csv)
+	}
+}

@@ -22,7 +22,7 @@ func (e *env) tiltCmd() *cobra.Command {
 		if err != nil {
 			return fail(ExitUsage, fmt.Errorf("--step: %w", err))
 		}
-		step := rad * 180 / math.Pi
+		step := math.Round(rad*180/math.Pi*1e9) / 1e9 // "15 deg" is 15, not 14.999999999999998 after the radians
 		if !(step >= 1-1e-9 && step <= 90+1e-9) {
 			return fail(ExitUsage, fmt.Errorf("--step %s: allowed 1 to 90 deg", stepText))
 		}
@@ -209,6 +209,7 @@ func (e *env) tilt(d *design.Design, step float64) error {
 		}
 	}
 	var warns [][]string
+	var noEq []string // the rows without an equilibrium, and how short
 	var rows []map[string]any
 	rated := "" // the speed past the engine's rated power: the same at every tilt
 	cell := func(_ outcome, r cylinder.SetResult) string { return wallText(u, r) }
@@ -242,6 +243,13 @@ func (e *env) tilt(d *design.Design, step float64) error {
 			}
 		}
 		a, l := outs[0], outs[1]
+		for k, o := range outs {
+			for _, r := range []cylinder.SetResult{o.Result.Head, o.Result.Barrel} {
+				if !r.Equilibrium && r.HeatLoad > 0 && r.Shortfall > 0 {
+					noEq = append(noEq, fmt.Sprintf("%s %s at %s deg %.0f %% short", []string{"annular", "longitudinal"}[k], r.Name, u.N(t, 0), 100*r.Shortfall/r.HeatLoad))
+				}
+			}
+		}
 		better := "annular"
 		if math.Max(l.Result.Head.WallTemp, l.Result.Barrel.WallTemp) < math.Max(a.Result.Head.WallTemp, a.Result.Barrel.WallTemp) {
 			better = "longitudinal"
@@ -303,6 +311,10 @@ func (e *env) tilt(d *design.Design, step float64) error {
 			variants[v.name] = t
 			doc.Blocks = append(doc.Blocks, output.Block{Caption: fmt.Sprintf("The %s variant as design keys (paste them over the same keys of your tables; the rest stays as it is):", v.name), Text: t})
 		}
+	}
+	if len(noEq) > 0 {
+		doc.Notes = append(doc.Notes, fmt.Sprintf("No equilibrium below %s: %s of the load at %s (the shortfall is the fins' area or h that is missing there; a set behind one without an equilibrium has none either, its air unknown). Those rows rest on the broadside credits, the least certain part of the model (README 'Limitations').",
+			capText(u), strings.Join(noEq, ", "), capText(u)))
 	}
 	doc.Notes = append(doc.Notes,
 		castNote(castingName(d), thinA, thinL, an, lo),
