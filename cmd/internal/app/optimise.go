@@ -10,6 +10,7 @@ import (
 
 	"finmarch/airflow/cylinder"
 	"finmarch/airflow/optimise"
+	"finmarch/airflow/uncertainty"
 	"finmarch/cmd/internal/design"
 	"finmarch/cmd/internal/output"
 	"finmarch/fins"
@@ -243,6 +244,13 @@ func (e *env) optimise(d *design.Design, names []string, goal string, procs [2]f
 	doc := e.optimumDoc(d, pr, sol, u)
 	kvs := optimumKeys(pr, sol.Optimum.X)
 	if n := e.otherMethodsNote(d, pr, kvs, u); n != "" {
+		doc.Notes = append(doc.Notes, n)
+	}
+	n, err := e.bandNote(d, pr, kvs, u, doc.JSON)
+	if err != nil {
+		return err
+	}
+	if n != "" {
 		doc.Notes = append(doc.Notes, n)
 	}
 	if write != "" {
@@ -588,4 +596,68 @@ func castingLimitsNote(pr optimise.Problem, p fins.Process) string {
 		return fmt.Sprintf("Casting limits (%s): %s.", p.Name, processSource(p))
 	}
 	return fmt.Sprintf("Casting limits: head %s (%s); barrel %s (%s).", h.Name, processSource(h), b.Name, processSource(b))
+}
+
+// bandNote gives the optimum's uncertainty band beside the design's as
+// drawn: the objective wall's 5th to 95th percentile and its chance over
+// the limit. The search holds the nominal estimate at the limit, so under
+// --goal light the optimum goes over it about half the time; the note
+// says which --limit holds the limit with the band's 95th percentile (the
+// limit less the optimum's 95th-percentile excess over its nominal wall,
+// to first order). The band goes into the JSON as "band". "" without a
+// band (--samples 0).
+func (e *env) bandNote(d *design.Design, pr optimise.Problem, kvs []design.KV, u output.Units, js any) (string, error) {
+	nd, err := e.parse(design.SetKeys(e.sources[d.Source], kvs), d.Source)
+	if err != nil {
+		return "", nil
+	}
+	after, err := e.band(nd, nd.Case.Speed)
+	if err != nil || after == nil {
+		return "", err
+	}
+	before, err := e.band(d, d.Case.Speed)
+	if err != nil || before == nil {
+		return "", err
+	}
+	o, err := evaluate(nd, nd.Case.Speed)
+	if err != nil {
+		return "", nil
+	}
+	set := pr.Primary()
+	pick := func(b *uncertainty.Band) (uncertainty.Percentiles, float64) {
+		if set == optimise.Barrel {
+			return b.Barrel, b.BarrelOver
+		}
+		return b.Head, b.HeadOver
+	}
+	pa, oa := pick(after)
+	pb, ob := pick(before)
+	lim, wall := nd.HeadLimit, o.Result.Head.WallTemp
+	if set == optimise.Barrel {
+		lim, wall = nd.BarrelLimit, o.Result.Barrel.WallTemp
+	}
+	if pr.Goal == optimise.GoalLight {
+		lim = pr.Limit
+	}
+	if m, ok := js.(map[string]any); ok {
+		putBand(m, "band", after)
+	}
+	T := u.Name(output.Temp)
+	name := optimise.SetNames[set]
+	note := fmt.Sprintf("The band (%d samples, as 'finmarch estimate' draws it): the optimum's %s %s %s, a %.0f %% chance over its %s %s limit; as drawn %s %s, %.0f %%.",
+		after.Samples, name, bandText(u, pa), T, 100*oa, fmtT(u, lim), T, bandText(u, pb), T, 100*ob)
+	if pr.Goal == optimise.GoalLight && pa.P95 > wall {
+		note += " The search holds the nominal estimate at the limit, so the lightest fins go over it about half the time"
+		switch excess := pa.P95 - wall; {
+		case math.IsInf(pa.P95, 1):
+			note += ", and more than 5 % of the band finds no equilibrium: do not cut a pattern from it before a measurement."
+		case lim-excess > nd.Case.Ambient+0.5*(lim-nd.Case.Ambient):
+			note += fmt.Sprintf(": for a 5 %% chance, run with --limit about %s %s (the limit less the band's %s %s above the nominal wall), and check the result's band.",
+				fmtT(u, lim-excess), T, fmtDT(u, excess), u.Name(output.TempDiff))
+		default:
+			note += fmt.Sprintf("; the band's 95th percentile lies %s %s above the nominal wall, too far for a lower --limit to buy back: a reading on the running engine narrows the band ('finmarch calibrate'), and the optimum of the calibrated design can be held to its limit.",
+				fmtDT(u, excess), u.Name(output.TempDiff))
+		}
+	}
+	return note, nil
 }

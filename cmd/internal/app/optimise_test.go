@@ -525,3 +525,38 @@ func TestOptimisePrintsDesignsAsMade(t *testing.T) {
 		}
 	}
 }
+
+// The optimum carries its uncertainty band (a newcomer cut a pattern from
+// a "light" optimum that the estimate then gave a 52 % chance over its
+// limit): the JSON's band of the optimum straddles the limit the search
+// held the nominal wall at, with a chance over it near a half, and the
+// text note states the same chance and the band as drawn.
+func TestOptimiseStatesItsBand(t *testing.T) {
+	up, _ := designs(t)
+	js, errs, code := run(t, "optimise", up, "--goal", "light", "--limit", "200 C", "-f", "json", "-q")
+	if code != 0 {
+		t.Fatalf("exit %d %s", code, errs)
+	}
+	var v struct {
+		Band struct {
+			Head struct {
+				P5  float64 `json:"p5_K"`
+				P95 float64 `json:"p95_K"`
+			} `json:"head"`
+			Over float64 `json:"head_over_limit_probability"`
+		} `json:"band"`
+	}
+	if err := json.Unmarshal([]byte(js), &v); err != nil {
+		t.Fatal(err)
+	}
+	lim := 473.15
+	if !(v.Band.Head.P5 < lim && lim < v.Band.Head.P95) || v.Band.Over < 0.2 || v.Band.Over > 0.8 {
+		t.Errorf("the optimum's band %.1f to %.1f K, %.0f %% over the %.2f K limit", v.Band.Head.P5, v.Band.Head.P95, 100*v.Band.Over, lim)
+	}
+	txt, _, _ := run(t, "optimise", up, "--goal", "light", "--limit", "200 C", "-q")
+	flat := strings.Join(strings.Fields(txt), " ")
+	want := fmt.Sprintf("a %.0f %% chance over its 200.0 C limit; as drawn", 100*v.Band.Over)
+	if !strings.Contains(flat, want) || !strings.Contains(flat, "go over it about half the time") {
+		t.Errorf("optimise lacks %q:\n%s", want, txt)
+	}
+}
