@@ -107,6 +107,8 @@ repl('unit-unknown', 'speed = "90 km/h"', 'speed = "90 furlongs/fortnight"', 'no
 repl('unit-no-number', 'height = "40 mm"', 'height = "mm"', 'has no number', line=14)
 repl('unit-temperature-as-length', 'ambient = "35 C"', 'ambient = "35 m"', 'not a temperature unit', line=None)
 repl('unit-bare-tilt-degrees', 'tilt = "0 deg"', 'tilt = 90', 'a bare number is radians', line=4)
+repl('unit-bare-speed', 'speed = "90 km/h"', 'speed = 90', 'a bare number would be 90 m/s (324 km/h)', line=None)
+repl('unit-bare-pitch', 'pitch = "9 mm"', 'pitch = 9', 'did you mean "9 mm"', line=13)
 # sizes
 repl('size-negative-pitch', 'pitch = "9 mm"', 'pitch = "-9 mm"', 'outside the allowed range', line=13)
 repl('size-zero-height', 'height = "40 mm"', 'height = "0 mm"', 'outside the allowed range', line=14)

@@ -543,10 +543,19 @@ func (b *builder) ranges() {
 		switch {
 		case !r.set:
 			b.add(r.key, "missing (%s)", rangeText(r))
+		case r.bare && r.unit == "km/h":
+			// a bare speed is m/s, and road speeds in km/h or mph are
+			// in range as m/s too: "speed = 90" would be 324 km/h
+			b.add(r.key, "%s has no unit: a bare number would be %s m/s (%s km/h); write \"%s km/h\", \"%s mph\" or \"%s m/s\"",
+				strconv.FormatFloat(r.v, 'g', 6, 64), strconv.FormatFloat(r.v, 'g', 6, 64), strconv.FormatFloat(r.v*3.6, 'g', 4, 64),
+				strconv.FormatFloat(r.v, 'g', 6, 64), strconv.FormatFloat(r.v, 'g', 6, 64), strconv.FormatFloat(r.v, 'g', 6, 64))
 		case math.IsNaN(r.v) || r.v < r.lo || r.v > r.hi:
 			msg := fmt.Sprintf("%s %s is outside the allowed range %s", r.show(r.v), r.unit, rangeText(r))
 			if hint := unitHint(r.key); hint != "" && r.bare {
 				msg += "; " + hint
+			} else if r.bare && r.unit != "" && r.scale != 1 {
+				// a bare number is SI: "pitch = 9" is 9 m
+				msg += fmt.Sprintf("; a bare number is read in SI units (here %s %s); did you mean \"%s %s\"?", strconv.FormatFloat(r.v, 'g', 5, 64), siUnit(r.unit), strconv.FormatFloat(r.v, 'g', 5, 64), r.unit)
 			}
 			b.add(r.key, "%s", strings.Replace(msg, "  ", " ", -1))
 			if b.outOfRange == nil {
@@ -611,4 +620,14 @@ func (b *builder) crossRules() {
 			b.add("override.barrel_wall", "%.4g C is not above the ambient %.4g C", d.BarrelWall-C, c.Ambient-C)
 		}
 	}
+}
+
+// siUnit names the SI unit a display unit of a range check stands for.
+func siUnit(display string) string {
+	for _, d := range []*dimension{dimLength, dimSpeed, dimPower, dimArea, dimMass, dimPressure, dimHCoef, dimDensity, dimConductivity, dimConductance, dimVolumeFlow, dimMassFlow} {
+		if _, ok := d.units[strings.ToLower(display)]; ok {
+			return d.si
+		}
+	}
+	return "SI units"
 }

@@ -258,10 +258,7 @@ func (d *Design) CheckVary(src []byte, key string, values []float64) error {
 		if _, err := d.With(map[string]float64{key: v}); err != nil {
 			continue // an invalid point: its row says why
 		}
-		text := strconv.FormatFloat(v, 'g', -1, 64)
-		if Dimension(key) == "count" {
-			text = strconv.Itoa(int(math.Round(v)))
-		}
+		text := siText(key, v)
 		edited, err := EditKeys(src, []KV{{Key: key, Value: text}})
 		if err != nil {
 			return nil // the editor cannot place it; the parser's rules hold for the rows
@@ -278,4 +275,25 @@ func (d *Design) CheckVary(src []byte, key string, values []float64) error {
 		return fmt.Errorf("%s is not used by %s, and the design file itself would refuse it (%s); a sweep varies only keys the design's cooling source and settings use", key, d.Name, strings.Join(why, "; "))
 	}
 	return nil
+}
+
+// siText writes the SI value v of a numeric key as design text: a whole
+// number for a count, the value with its SI unit where the dimension has
+// one to write ("16.67 m/s": a bare speed is refused), else bare.
+func siText(key string, v float64) string {
+	if Dimension(key) == "count" {
+		return strconv.Itoa(int(math.Round(v)))
+	}
+	num := strconv.FormatFloat(v, 'g', -1, 64)
+	var f File
+	if fv, err := field(&f, key); err == nil {
+		if q, ok := fv.Addr().Interface().(quantityField); ok {
+			if d := q.dimension(); d.si != "" {
+				if _, ok := d.units[strings.ToLower(d.si)]; ok {
+					return strconv.Quote(num + " " + d.si)
+				}
+			}
+		}
+	}
+	return num
 }
