@@ -86,9 +86,9 @@ repl('syntax-duplicate-key', 'count = 8', 'count = 8\ncount = 9', 'already been 
 repl('syntax-duplicate-table', '[limits]', '[head]\n[limits]', 'already been defined', line=None)
 repl('syntax-bad-number', 'count = 8', 'count = 08', 'leading zero', line=12)
 # types
-repl('type-count-float', 'count = 8', 'count = 8.5', 'wrong type', line=12)
+repl('type-count-float', 'count = 8', 'count = 8.5', 'takes a whole number', line=12)
 repl('type-count-string', 'count = 8', 'count = "eight"', 'wrong type', line=12)
-repl('type-style-number', 'style = "annular"', 'style = 1', 'wrong type', line=11)
+repl('type-style-number', 'style = "annular"', 'style = 1', 'takes a quoted name', line=11)
 repl('type-pitch-bool', 'pitch = "9 mm"', 'pitch = true', 'want a number or a quoted length', line=13)
 repl('type-name-table', 'name = "corpus base"', 'name = ["a", "b"]', 'wrong type', line=1)
 repl('type-speed-array', 'speed = "90 km/h"', 'speed = [90]', 'speed', line=None)

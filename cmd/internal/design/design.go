@@ -365,6 +365,16 @@ func decodeError(err error, name string) *Error {
 		msg := m[3]
 		msg = strings.Replace(msg, "incompatible types: TOML value has type ", "wrong type: the file has a ", 1)
 		msg = strings.Replace(msg, "; destination has type ", " where this key takes a ", 1)
+		// in the trade's words, not Go's type names
+		for _, r := range [][2]string{{"a float64 where this key takes a integer", "a number with a fraction where this key takes a whole number (write it without a decimal point, e.g. count = 8)"},
+			{"a string where this key takes a integer", "a string where this key takes a whole number (write it bare, e.g. count = 8)"},
+			{"a float64 where this key takes a string", "a number where this key takes a quoted name"},
+			{"a int64 where this key takes a string", "a number where this key takes a quoted name"},
+			{"a bool where", "true or false where"}, {"where this key takes a integer", "where this key takes a whole number"},
+			{"where this key takes a string", "where this key takes a quoted name"}, {"the file has a float64", "the file has a number"},
+			{"the file has a int64", "the file has a whole number"}} {
+			msg = strings.Replace(msg, r[0], r[1], 1)
+		}
 		return &Error{File: name, Line: line, Key: m[2], Msg: msg}
 	}
 	return &Error{File: name, Msg: err.Error()}
