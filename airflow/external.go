@@ -48,7 +48,10 @@ func CylinderCrossflowNu(re, pr float64, log *validity.Log) float64 {
 // temperature. Stated range (from memory) 5e3 <= Re_D <= 5e4, Pr of air;
 // outside it the form still answers, with a warning. The Re^(1/2) law is
 // that of a laminar stagnation-region boundary layer, which grows over
-// the face from its centre. finmarch uses it for the fin face that meets
+// the face from its centre in a favourable pressure gradient (the flow
+// accelerates toward the rim); above 5e4 it is extrapolated on that law
+// (our assumption: the face's layer stays laminar, and free-stream
+// turbulence would only raise the coefficient). finmarch uses it for the fin face that meets
 // the axial road air first on an inclined or laid-over cylinder with
 // annular fins (airflow/cylinder: the leading face).
 func DiskFacingFlowNu(re, pr float64, log *validity.Log) float64 {

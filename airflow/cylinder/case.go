@@ -34,10 +34,16 @@ const (
 	// default method, was measured in a tunnel's free stream (recovery 1 is
 	// its own reference), and on the road the front wheel, mudguard and
 	// frame shade part of the stream; the band draws it +-0.3 (0.5 to 1).
-	// Until 2026-12 it was 0.5, carried over from baffled practice (a cowl
-	// passes about half the dynamic pressure across the fins), which put the
-	// open-road approach at 0.71 of the road speed and the heads 20 to 35 K
-	// hotter. Calibrate it against a measured head temperature.
+	// Until 2026-12 it was 0.5, also without a source ("common practice",
+	// lumping frame, tank and legs), which put the open-road approach at
+	// 0.71 of the road speed and the heads about 20 to 37 K hotter (the
+	// demo and the examples). For the channel march the same share drives
+	// the passages: a free cylinder's front-to-rear pressure difference is
+	// larger than one dynamic head (stagnation in front, base suction
+	// behind), so 0.8 is not beyond it there either. The default moves
+	// the estimate in the less safe direction, which is why the band draws
+	// it +-0.3: its hot tail reaches 0.5. Calibrate it against a measured
+	// head temperature.
 	DefaultRecovery = 0.8
 	// minDrive is the driving pressure (Pa) below which a passage is taken
 	// to have no forced flow: a road-speed component under about 1 mm/s,

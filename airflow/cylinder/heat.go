@@ -62,7 +62,9 @@ func (p *prepared) natural(st *setState, tw float64) (float64, float64, float64)
 //	Q = eta_o h (A_tip/A_t + s (1 - A_tip/A_t)) A_t (T_w - T_a);
 //
 // across longitudinal fins the slots facing the stream carry a flow of
-// their own (frontHeat) and take no slot share.
+// their own (frontHeat, returned apart as front; setHeat's combine gives
+// the envelope's heat to the rest of the surface by area and mixes the
+// front slots' share of it with their own flow).
 func (p *prepared) envelope(st *setState, tw float64) (spread, front, hOut float64) {
 	dT := tw - p.c.Ambient
 	if dT <= 0 || p.c.Speed <= 0 || p.c.Supply.ducted() || p.c.FixedH > 0 {
@@ -96,9 +98,6 @@ func (p *prepared) envelope(st *setState, tw float64) (spread, front, hOut float
 	// carry a flow of their own (frontHeat)
 	tips := g.EnvelopeArea * tipShare(fs.Set, g)
 	s := slotShare(g.GapMean, fs.Set.Height)
-	if st.frontMdot > 0 {
-		s *= 1 - FrontShare
-	}
 	hEq := h * (tips/g.TotalArea + s*(1-tips/g.TotalArea))
 	eta := st.cv.Efficiency(hEq, p.set.ConductivityFactor*fs.Alloy.Conductivity(tw), p.log)
 	// the front slots of longitudinal fins take the cross flow's
@@ -156,7 +155,7 @@ func (p *prepared) setHeat(st *setState, tw, tin float64, keep bool) (SetResult,
 	qface := p.faceHeat(st, tw)
 	qf, qc := combine(m.q, qe, qn, [][2]float64{{FrontShare, qfront}, {st.faceShare(), qface}})
 	r := SetResult{Name: fs.Name, Style: fs.Set.Style.String(), WallTemp: tw, AirIn: tin, AirOut: m.tOut,
-		ForcedHeat: qf, PassageHeat: m.q, EnvelopeHeat: qe + qfront + qface, EnvelopeH: he, LeadingFaceHeat: qface,
+		ForcedHeat: qf, PassageHeat: m.q, EnvelopeHeat: qe, FrontHeat: qfront, EnvelopeH: he, LeadingFaceHeat: qface,
 		NaturalHeat: qn, ConvectionHeat: qc, NaturalH: hn, Paths: pt.Paths, PathLength: pt.Length,
 		Series: pt.Series, FinArea: g.FinArea, TotalArea: g.TotalArea, FinMass: g.FinVolume * fs.Alloy.Density,
 		ApproachComponent: pt.Component, Reynolds: m.re, Regime: m.regime, March: m.seg}

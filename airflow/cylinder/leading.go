@@ -12,24 +12,20 @@ import (
 // meets the first annular fin face on: a disk facing the stream, with a
 // stagnation-point boundary layer over it, where the fins behind it stand
 // in slots the envelope stream passes over. The head leads (as on the
-// series path of longitudinal fins): the face is the head's first fin, and
-// of the barrel's first fin the ring outside the head's tip circle, if its
-// fins reach beyond the head's (our assumptions, stated in the README).
+// series path of longitudinal fins): the face is the head's first fin
+// ring, from root to tip. The barrel's first fin takes none, even where it
+// reaches beyond the head's tip circle: that ring stands behind the
+// head's rim, in the flow that separates from it, not in a stagnation
+// flow. An oblique stream is credited by its component along the axis
+// alone (V sin tilt; the component across the axis belongs to the
+// passages). These are our assumptions, stated in the README.
 
-// faces sets the leading-face area of each annular set.
+// faces sets the leading-face area of each annular set: the head's
+// first fin ring.
 func (p *prepared) faces() {
-	h, b := &p.sets[head], &p.sets[barrel]
-	ring := func(outer, inner float64) float64 {
-		if outer <= inner {
-			return 0
-		}
-		return math.Pi / 4 * (outer*outer - inner*inner)
-	}
+	h := &p.sets[head]
 	if h.fs.Set.Style == fins.StyleAnnular {
-		h.face = ring(h.g.TipDiameter, h.fs.Set.RootDiameter)
-	}
-	if b.fs.Set.Style == fins.StyleAnnular {
-		b.face = ring(b.g.TipDiameter, math.Max(b.fs.Set.RootDiameter, h.g.TipDiameter))
+		h.face = math.Pi / 4 * (h.g.TipDiameter*h.g.TipDiameter - h.fs.Set.RootDiameter*h.fs.Set.RootDiameter)
 	}
 }
 

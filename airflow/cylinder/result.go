@@ -29,10 +29,13 @@ type SetResult struct {
 	HeatRejected float64 `json:"heat_rejected_W"`
 	ForcedHeat   float64 `json:"forced_heat_W"`   // passages and envelope combined
 	PassageHeat  float64 `json:"passage_heat_W"`  // the march along the fin passages
-	EnvelopeHeat float64 `json:"envelope_heat_W"` // the air over the fin envelope
+	EnvelopeHeat float64 `json:"envelope_heat_W"` // the air over the fin envelope: its tips and the slots under it
 	EnvelopeH    float64 `json:"envelope_h_W_m2K"`
-	// LeadingFaceHeat is the part of EnvelopeHeat the leading face of
-	// annular fins takes from an axial stream (leading.go)
+	// FrontHeat is what the front slots of longitudinal fins take from a
+	// cross stream through them (front.go), LeadingFaceHeat what the
+	// leading face of annular fins takes from an axial one (leading.go):
+	// each alone, before the part-by-part mixing (setHeat)
+	FrontHeat       float64 `json:"front_slots_heat_W"`
 	LeadingFaceHeat float64 `json:"leading_face_heat_W"`
 	NaturalHeat     float64 `json:"natural_heat_W"`
 	ConvectionHeat  float64 `json:"convection_heat_W"`

@@ -91,6 +91,16 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		row("    forced alone", u.Name(output.Power), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Power, r.ForcedHeat), 0) })),
 		row("      through the passages", u.Name(output.Power), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Power, r.PassageHeat), 0) })),
 		row("      over the fin envelope", u.Name(output.Power), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Power, r.EnvelopeHeat), 0) })),
+	)
+	// the parts with a forced flow of their own, where the design has them
+	hr, br := o.Result.Head, o.Result.Barrel
+	if hr.FrontHeat > 0 || br.FrontHeat > 0 {
+		g.Rows = append(g.Rows, row("      through the front slots", u.Name(output.Power), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Power, r.FrontHeat), 0) })))
+	}
+	if hr.LeadingFaceHeat > 0 || br.LeadingFaceHeat > 0 {
+		g.Rows = append(g.Rows, row("      on the leading fin face", u.Name(output.Power), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Power, r.LeadingFaceHeat), 0) })))
+	}
+	g.Rows = append(g.Rows,
 		row("    natural alone", u.Name(output.Power), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Power, r.NaturalHeat), 0) })),
 		row("  by radiation", u.Name(output.Power), pair(func(r cylinder.SetResult) string { return u.N(u.Of(output.Power, r.RadiationHeat), 0) })),
 	)
@@ -297,7 +307,7 @@ func topSpeedNote(u output.Units, d *design.Design) string {
 }
 
 // noteMixed explains why the forced and natural rows do not add up.
-const noteMixed = "Convection combines the forced and natural heats as Q^3 = QF^3 + QN^3 (Churchill 1977's rule for assisting flows), and the forced heat its passage and envelope parts the same way, so the 'alone' rows do not add up; convection plus radiation is the heat rejected."
+const noteMixed = "Convection combines the forced and natural heats as Q^3 = QF^3 + QN^3 (Churchill 1977's rule for assisting flows), and the forced heat its passage and envelope parts the same way, so the 'alone' rows do not add up; where a part of the surface has a forced flow of its own (front slots, leading fin face) that part is combined apart with its area's share of the others and the parts add; convection plus radiation is the heat rejected."
 
 // energyNote reports the two energy checks: the heat rejected against the
 // load (the wall balance's own tolerance), and the air's enthalpy rise from

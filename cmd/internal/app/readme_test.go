@@ -72,9 +72,10 @@ func TestReadmeFanFigures(t *testing.T) {
 
 // The README's figures for the invented 250 cc single (issue "air side
 // v3": a head temperature a builder would believe at 100 km/h, with its
-// band and each method's figure) and for the demo's methods are the tool's
-// own: its estimate now, and at the former default recovery 0.5, printed
-// as the README prints them. A change of the physics that moves them fails
+// band and each method's figure), for the demo's methods and for the
+// 125 cc singles are the tool's own: their estimates now, and (the 250 cc
+// single and the demo) at the former default recovery 0.5, printed as the
+// README prints them. A change of the physics that moves them fails
 // here until the README is brought up to date.
 func TestReadmeExample250(t *testing.T) {
 	b, err := os.ReadFile("../../../README.md")
@@ -134,6 +135,32 @@ func TestReadmeExample250(t *testing.T) {
 		fmt.Sprintf("so the head runs %.0f K above the barrel", now["gibson"][0]-now["gibson"][1]),
 	} {
 		if !strings.Contains(readme, want) {
+			t.Errorf("README lacks %q", want)
+		}
+	}
+	// the demo's and the 125 cc single's figures by each method, now and
+	// (the demo) at the former default recovery 0.5
+	up, lo := designs(t)
+	methods := func(path, rec string) map[string][2]float64 {
+		src, err := os.ReadFile(path)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if rec != "" {
+			src = design.SetKeys(src, []design.KV{{Key: "air.pressure_recovery", Value: rec}})
+		}
+		m, _, _ := est(src)
+		return m
+	}
+	du, dl, ou, ol := methods(up, ""), methods(lo, ""), methods(up, "0.5"), methods(lo, "0.5")
+	su, sl := methods("../../../testdata/examples/single-125-upright.toml", ""), methods("../../../testdata/examples/single-125-laid-over.toml", "")
+	for _, want := range []string{
+		fmt.Sprintf("On the demo at 90 km/h the upright head is %.1f C by Gibson, %.1f C by Briggs & Young and %.1f C by the channel march; laid over, %.1f C by Gibson and %.1f C by the channel march (at the former default recovery 0.5: %.1f, %.1f, %.1f; %.1f and %.1f C).",
+			du["gibson"][0], du["briggs-young"][0], du["channel"][0], dl["gibson"][0], dl["channel"][0], ou["gibson"][0], ou["briggs-young"][0], ou["channel"][0], ol["gibson"][0], ol["channel"][0]),
+		fmt.Sprintf("upright %.1f C by Gibson, %.1f C by Briggs & Young, %.1f C by the channel march; laid over with 39 longitudinal fins a set, %.1f C by Gibson and %.1f C by the channel march",
+			su["gibson"][0], su["briggs-young"][0], su["channel"][0], sl["gibson"][0], sl["channel"][0]),
+	} {
+		if !strings.Contains(strings.Join(strings.Fields(readme), " "), want) {
 			t.Errorf("README lacks %q", want)
 		}
 	}
