@@ -418,11 +418,21 @@ func unit(name string) string {
 
 // sigma is a point's uncertainty, DefaultSigma when none is given.
 func sigma(p Point) float64 {
-	if p.Sigma > 0 {
-		return p.Sigma
+	s := p.Sigma
+	if !(s > 0) {
+		s = DefaultSigma
 	}
-	return DefaultSigma
+	return math.Hypot(s, OffsetShare*p.Offset)
 }
+
+// OffsetShare is the share of a point's stated measuring-place offset
+// taken as the offset's own standard uncertainty, 0.5 (our assumption: a
+// plug seat's excess over the mean fin root, stated without measuring
+// both, is known to about half its size). It adds in quadrature to the
+// reading's uncertainty, so a fit through a guessed offset, and the band
+// of the calibrated design, are no narrower than the guess allows; a
+// reading at a fin root (offset 0) keeps its own uncertainty.
+const OffsetShare = 0.5
 
 // Apply returns the design and settings with the fit's parameters: what a
 // calibrated design estimates with (the offset belongs to the measuring

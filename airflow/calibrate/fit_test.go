@@ -397,3 +397,31 @@ func TestNarrow(t *testing.T) {
 		t.Errorf("an offset narrowed the band: %+v", n)
 	}
 }
+
+// A stated measuring-place offset carries half its size as its own
+// uncertainty (OffsetShare, our assumption), in quadrature with the
+// reading's: one reading at a plug seat stated 30 K over the fin root
+// fits the same recovery as the same wall read at the fin root, with a
+// standard error larger by hypot(5, 15)/5 (the single point's error
+// scales with its uncertainty), and the calibrated band is therefore no
+// narrower than the guessed offset allows.
+func TestOffsetCarriesItsUncertainty(t *testing.T) {
+	d := demo(t)
+	var se [2]float64
+	for i, off := range []float64{0, 30} {
+		p := measure(t, d, 0.35, 90/3.6, 303.15, 0, off)
+		p.Offset = off
+		f, err := Calibrate(d, cylinder.Settings{}, []Point{p})
+		if err != nil {
+			t.Fatal(err)
+		}
+		r, _ := f.Get(Recovery)
+		if math.Abs(r-0.35) > 1e-3 {
+			t.Fatalf("offset %g K: recovery %.5f", off, r)
+		}
+		se[i] = f.Params[0].StdError
+	}
+	if want := math.Hypot(5, 15) / 5; math.Abs(se[1]/se[0]-want) > 0.02*want {
+		t.Errorf("standard error with a 30 K offset %.5f, without %.5f: ratio %.3f, want %.3f", se[1], se[0], se[1]/se[0], want)
+	}
+}
