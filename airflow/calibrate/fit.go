@@ -418,20 +418,21 @@ func unit(name string) string {
 
 // sigma is a point's uncertainty, DefaultSigma when none is given.
 func sigma(p Point) float64 {
-	s := p.Sigma
-	if !(s > 0) {
-		s = DefaultSigma
+	if p.Sigma > 0 {
+		return p.Sigma // stated: the reading's whole uncertainty, offset included
 	}
-	return math.Hypot(s, OffsetShare*p.Offset)
+	return math.Hypot(DefaultSigma, OffsetShare*p.Offset)
 }
 
 // OffsetShare is the share of a point's stated measuring-place offset
 // taken as the offset's own standard uncertainty, 0.5 (our assumption: a
 // plug seat's excess over the mean fin root, stated without measuring
-// both, is known to about half its size). It adds in quadrature to the
-// reading's uncertainty, so a fit through a guessed offset, and the band
-// of the calibrated design, are no narrower than the guess allows; a
-// reading at a fin root (offset 0) keeps its own uncertainty.
+// both, is known to about half its size). Where a point states no
+// uncertainty it adds in quadrature to the default one, so a fit through
+// a guessed offset, and the band of the calibrated design, are no
+// narrower than the guess allows; a point that states its uncertainty
+// (Sigma) states the whole of it, the offset's included; a reading at a
+// fin root (offset 0) keeps the default.
 const OffsetShare = 0.5
 
 // Apply returns the design and settings with the fit's parameters: what a

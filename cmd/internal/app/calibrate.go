@@ -125,7 +125,7 @@ func (e *env) calibrate(d *design.Design, path string, names []string, write str
 	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: calibration against %s", d.Name, count(len(d.Points), "measured point")), Grids: []output.Grid{pg, rg}, Caution: true,
 		Notes: []string{"A residual is the model (plus the measuring place's offset) less the measurement; a plug seat runs hotter than the mean fin root the model gives.",
-			"Standard errors come from the fit's covariance, scaled by the residuals when the points outnumber the parameters and by the points' stated uncertainty (5 K unless given, with half of any stated offset added in quadrature: a guessed plug-seat offset is known to about half its size, our assumption) otherwise."}}
+			"Standard errors come from the fit's covariance, scaled by the residuals when the points outnumber the parameters and by the points' stated uncertainty (unless given, 5 K with half of any stated offset added in quadrature: a guessed plug-seat offset is known to about half its size, our assumption) otherwise."}}
 	kvs, clamped := calibratedKeys(f, d.Band.Spread, d.Case.Method(d.Run))
 	doc.Notes = append(doc.Notes, clamped...)
 	doc.Notes = append(doc.Notes, calibratedNotes(u, d, f)...)
