@@ -22,6 +22,10 @@ type Point struct {
 	Sigma    float64 // K, the measurement's standard uncertainty (0: 5 K)
 	Barrel   bool    // measured on the barrel (false: the head)
 	Offset   float64 // K, how much hotter the measuring place runs than the mean fin-root wall (a plug seat: stated by the user; 0 at a fin root)
+	// OffsetSigma is the offset's own standard uncertainty, K; below 0 (or
+	// unset by a caller that gives -1) it is OffsetShare times the offset
+	// (a guess); 0 when the offset was measured exactly.
+	OffsetSigma float64
 }
 
 // Check lists what is wrong with a measured point (nothing when it is
@@ -418,21 +422,26 @@ func unit(name string) string {
 
 // sigma is a point's uncertainty, DefaultSigma when none is given.
 func sigma(p Point) float64 {
-	if p.Sigma > 0 {
-		return p.Sigma // stated: the reading's whole uncertainty, offset included
+	s := p.Sigma
+	if !(s > 0) {
+		s = DefaultSigma
 	}
-	return math.Hypot(DefaultSigma, OffsetShare*p.Offset)
+	o := p.OffsetSigma
+	if o < 0 {
+		o = OffsetShare * math.Abs(p.Offset)
+	}
+	return math.Hypot(s, o)
 }
 
 // OffsetShare is the share of a point's stated measuring-place offset
 // taken as the offset's own standard uncertainty, 0.5 (our assumption: a
 // plug seat's excess over the mean fin root, stated without measuring
-// both, is known to about half its size). Where a point states no
-// uncertainty it adds in quadrature to the default one, so a fit through
-// a guessed offset, and the band of the calibrated design, are no
-// narrower than the guess allows; a point that states its uncertainty
-// (Sigma) states the whole of it, the offset's included; a reading at a
-// fin root (offset 0) keeps the default.
+// both, is known to about half its size), unless the point states it
+// (OffsetSigma at or above 0: an offset measured once, plug seat and fin
+// root together). It adds in quadrature to the reading's own uncertainty,
+// so a fit through a guessed offset, and the band of the calibrated
+// design, are no narrower than the guess allows; a reading at a fin root
+// (offset 0) keeps its own.
 const OffsetShare = 0.5
 
 // Apply returns the design and settings with the fit's parameters: what a

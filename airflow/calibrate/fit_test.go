@@ -410,7 +410,7 @@ func TestOffsetCarriesItsUncertainty(t *testing.T) {
 	var se [2]float64
 	for i, off := range []float64{0, 30} {
 		p := measure(t, d, 0.35, 90/3.6, 303.15, 0, off)
-		p.Offset = off
+		p.Offset, p.OffsetSigma = off, -1
 		f, err := Calibrate(d, cylinder.Settings{}, []Point{p})
 		if err != nil {
 			t.Fatal(err)
@@ -424,15 +424,15 @@ func TestOffsetCarriesItsUncertainty(t *testing.T) {
 	if want := math.Hypot(5, 15) / 5; math.Abs(se[1]/se[0]-want) > 0.02*want {
 		t.Errorf("standard error with a 30 K offset %.5f, without %.5f: ratio %.3f, want %.3f", se[1], se[0], se[1]/se[0], want)
 	}
-	// a stated uncertainty is the whole of it: 5 K stated with the 30 K
-	// offset (measured, say) fits as the fin-root reading does
+	// an offset measured (its uncertainty stated as 0) fits as the
+	// fin-root reading does
 	p := measure(t, d, 0.35, 90/3.6, 303.15, 0, 30)
-	p.Offset, p.Sigma = 30, 5
+	p.Offset, p.OffsetSigma = 30, 0
 	f, err := Calibrate(d, cylinder.Settings{}, []Point{p})
 	if err != nil {
 		t.Fatal(err)
 	}
 	if e := f.Params[0].StdError; math.Abs(e/se[0]-1) > 0.02 {
-		t.Errorf("a stated 5 K with a 30 K offset: standard error %.5f, the fin-root reading's %.5f", e, se[0])
+		t.Errorf("a measured 30 K offset: standard error %.5f, the fin-root reading's %.5f", e, se[0])
 	}
 }

@@ -435,7 +435,7 @@ func measuredPoint(m MeasurementT, pressure float64) (calibrate.Point, []problem
 	add := func(field, format string, a ...any) { bad = append(bad, problem{field, fmt.Sprintf(format, a...)}) }
 	temp := func(x float64) string { return strconv.FormatFloat(x-C, 'g', 6, 64) + " C" }
 	p := calibrate.Point{Speed: m.Speed.Or(math.NaN()), Ambient: m.Ambient.Or(math.NaN()), Barrel: m.Barrel.Set,
-		Offset: m.Offset.Or(0), Sigma: m.Sigma.Or(calibrate.DefaultSigma), Pressure: pressure}
+		Offset: m.Offset.Or(0), Sigma: m.Sigma.Or(calibrate.DefaultSigma), OffsetSigma: m.OffsetSigma.Or(-1), Pressure: pressure}
 	switch {
 	case !m.Speed.Set:
 		add("speed", "missing; every reading needs its road speed, 0 to 400 km/h")
@@ -488,6 +488,9 @@ func measuredPoint(m MeasurementT, pressure float64) (calibrate.Point, []problem
 	}
 	if m.Offset.Set && !(p.Offset > -100 && p.Offset < 200) {
 		add("offset", "%s K is outside the allowed range, above -100 K and below 200 K", strconv.FormatFloat(p.Offset, 'g', 6, 64))
+	}
+	if m.OffsetSigma.Set && !(p.OffsetSigma >= 0 && p.OffsetSigma <= maxSigma) {
+		add("offset_uncertainty", "%s K is outside the allowed 0 to %g K (leave it out for half the offset)", strconv.FormatFloat(p.OffsetSigma, 'g', 6, 64), maxSigma)
 	}
 	if m.Sigma.Set && !(p.Sigma >= minSigma && p.Sigma <= maxSigma) {
 		add("uncertainty", "%s K is outside the allowed %g to %g K (leave it out for %g K)", strconv.FormatFloat(p.Sigma, 'g', 6, 64), minSigma, maxSigma, calibrate.DefaultSigma)

@@ -143,6 +143,9 @@ type MeasurementT struct {
 	Place    string         `toml:"place"`
 	Offset   Q[TempDiff]    `toml:"offset"`
 	Sigma    Q[TempDiff]    `toml:"uncertainty"`
+	// OffsetSigma is the offset's own uncertainty (default: half the
+	// offset, calibrate.OffsetShare)
+	OffsetSigma Q[TempDiff] `toml:"offset_uncertainty"`
 }
 
 // AlloyT is one [alloys.NAME] table: a custom alloy.

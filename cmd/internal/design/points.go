@@ -19,7 +19,7 @@ import (
 // of each (nil: text).
 var pointColumns = map[string]*dimension{
 	"speed": dimSpeed, "ambient": dimTemp, "altitude": dimLength, "head": dimTemp, "barrel": dimTemp,
-	"place": nil, "offset": dimTempDiff, "uncertainty": dimTempDiff,
+	"place": nil, "offset": dimTempDiff, "uncertainty": dimTempDiff, "offset_uncertainty": dimTempDiff,
 }
 
 // MaxPointRows is the most readings a points file may hold, and the most
@@ -221,6 +221,8 @@ func pointRow(rec, cols, units []string) (MeasurementT, Errors) {
 			m.Offset = Q[TempDiff](q)
 		case "uncertainty":
 			m.Sigma = Q[TempDiff](q)
+		case "offset_uncertainty":
+			m.OffsetSigma = Q[TempDiff](q)
 		}
 	}
 	if len(rec) > len(cols) {
@@ -236,7 +238,7 @@ func exampleUnit(col string) string {
 		return "km/h"
 	case "altitude":
 		return "m"
-	case "offset", "uncertainty":
+	case "offset", "uncertainty", "offset_uncertainty":
 		return "K"
 	}
 	return "C"
