@@ -201,3 +201,30 @@ func TestCalibrateSaysWhatItMeans(t *testing.T) {
 		}
 	}
 }
+
+// The offset's own uncertainty from the design file: a plug-seat reading
+// with a guessed 15 K offset fits with a standard error hypot(5, 7.5)/5
+// times that of the same reading with offset_uncertainty = "0 K" (an
+// offset measured once), the key reaching the fit (calibrate.OffsetShare).
+func TestCalibrateOffsetUncertaintyKey(t *testing.T) {
+	se := func(extra string) float64 {
+		in := withRecovery(t, "0.8", "\n[[measurement]]\nspeed = \"90 km/h\"\nambient = \"28 C\"\nhead = \"204 C\"\nplace = \"plug-seat\"\noffset = \"15 K\"\n"+extra)
+		js, errs, code := run(t, "calibrate", in, "-f", "json", "-q")
+		if code != 0 {
+			t.Fatalf("exit %d %s", code, errs)
+		}
+		var v struct {
+			Parameters []struct {
+				SE float64 `json:"standard_error"`
+			} `json:"parameters"`
+		}
+		if err := json.Unmarshal([]byte(js), &v); err != nil || len(v.Parameters) != 1 {
+			t.Fatalf("%v: %s", err, js)
+		}
+		return v.Parameters[0].SE
+	}
+	guessed, measured := se(""), se("offset_uncertainty = \"0 K\"\n")
+	if want := math.Hypot(5, 7.5) / 5; math.Abs(guessed/measured-want) > 0.02*want {
+		t.Errorf("standard error %.5f with the offset guessed, %.5f measured: ratio %.3f, want %.3f", guessed, measured, guessed/measured, want)
+	}
+}
