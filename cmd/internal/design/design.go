@@ -273,7 +273,7 @@ func Parse(src []byte, name string) (*Design, error) {
 	var f File
 	md, err := toml.Decode(string(src), &f)
 	if err != nil {
-		return nil, Errors{decodeError(err, name)}
+		return nil, Errors{decodeError(err, name, src)}
 	}
 	loc := locate(string(src))
 	var errs Errors
@@ -354,12 +354,20 @@ func checkStrings(f *File, add func(key, format string, a ...any)) {
 	}
 }
 
-func decodeError(err error, name string) *Error {
+func decodeError(err error, name string, src []byte) *Error {
 	var pe toml.ParseError
 	if errors.As(err, &pe) {
 		msg := pe.Message
 		if pe.Usage != "" {
 			msg += "; " + strings.TrimSpace(pe.Usage)
+		}
+		// a bad table header: the line as written, not the parser's last
+		// good key (it was reported under the table before it)
+		lines := strings.Split(string(src), "\n")
+		if l := pe.Position.Line; l >= 1 && l <= len(lines) {
+			if text := strings.TrimSpace(strings.TrimSuffix(lines[l-1], "\r")); strings.HasPrefix(text, "[") && len(text) <= 120 {
+				return &Error{File: name, Line: l, Msg: fmt.Sprintf("%s (the table header reads %q)", msg, text)}
+			}
 		}
 		return &Error{File: name, Line: pe.Position.Line, Key: pe.LastKey, Msg: msg}
 	}
