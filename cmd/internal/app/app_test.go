@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"encoding/json"
 	"flag"
+	"fmt"
 	"os"
 	"path/filepath"
 	"regexp"
@@ -141,7 +142,8 @@ func TestExitCodesAndFiles(t *testing.T) {
 	}
 	bad := filepath.Join(dir, "bad.toml")
 	os.WriteFile(bad, []byte(strings.Replace(string(demo.Upright), `pitch = "9 mm"`, `pitch = "9 mmm"`, 1)), 0o644)
-	if _, e, code := run(t, "estimate", bad); code != ExitDesign || !strings.Contains(e, "bad.toml:22: head.pitch") {
+	line := 1 + strings.Count(string(demo.Upright)[:strings.Index(string(demo.Upright), `pitch = "9 mm"`)], "\n")
+	if _, e, code := run(t, "estimate", bad); code != ExitDesign || !strings.Contains(e, fmt.Sprintf("bad.toml:%d: head.pitch", line)) {
 		t.Errorf("bad design: exit %d %s", code, e)
 	}
 	// new refuses to overwrite; --force allows it

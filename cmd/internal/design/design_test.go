@@ -2,6 +2,7 @@ package design
 
 import (
 	"errors"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -334,7 +335,8 @@ func TestWith(t *testing.T) {
 	}
 	// the same rules as Parse: a pitch below the root thickness is refused with the key and the line
 	_, err = d.With(map[string]float64{"head.pitch": 0.003})
-	if err == nil || !strings.Contains(err.Error(), "u.toml:22: head.pitch") {
+	line := 1 + strings.Count(string(demo.Upright)[:strings.Index(string(demo.Upright), `pitch = "9 mm"`)], "\n")
+	if err == nil || !strings.Contains(err.Error(), fmt.Sprintf("u.toml:%d: head.pitch", line)) {
 		t.Errorf("bad variant: %v", err)
 	}
 	if _, err := d.With(map[string]float64{"head.count": 7.5}); err == nil {
