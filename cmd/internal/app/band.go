@@ -2,6 +2,7 @@ package app
 
 import (
 	"fmt"
+	"math"
 
 	"finmarch/airflow/cylinder"
 	"finmarch/airflow/uncertainty"
@@ -101,4 +102,27 @@ func bandJSON(b *uncertainty.Band) map[string]any {
 	return map[string]any{"samples": b.Samples, "seed": b.Seed, "head": pj(b.Head), "barrel": pj(b.Barrel),
 		"head_over_limit_probability": b.HeadOver, "barrel_over_limit_probability": b.BarrelOver,
 		"no_equilibrium_samples": b.NoEquilibrium, "failed_samples": b.Failed}
+}
+
+// swingGrid is the one-at-a-time study (uncertainty.Sensitivity): each
+// input alone at the ends of its half-width, the head's and barrel's
+// walls there, largest head swing first.
+func swingGrid(u output.Units, ws []uncertainty.Swing) output.Grid {
+	T, dT := u.Name(output.Temp), u.Name(output.TempDiff)
+	g := output.Grid{Title: "What moves the walls: each input alone at the ends of its half-width (the estimate's method)",
+		Header: []string{"input", "half-width", "head, low end (" + T + ")", "head, high end (" + T + ")", "head swing (" + dT + ")", "barrel swing (" + dT + ")"}, Left: 1}
+	swing := func(v [2]float64) string {
+		if math.IsInf(v[0], 0) || math.IsInf(v[1], 0) {
+			return "to no equilibrium"
+		}
+		return u.N(math.Abs(v[1]-v[0]), 1)
+	}
+	for _, w := range ws {
+		half := "+-" + u.N(w.Half, 2)
+		if w.Relative {
+			half = "+-" + u.N(100*w.Half, 0) + " %"
+		}
+		g.Rows = append(g.Rows, []string{w.Input, half, percentileText(u, w.Head[0]), percentileText(u, w.Head[1]), swing(w.Head), swing(w.Barrel)})
+	}
+	return g
 }

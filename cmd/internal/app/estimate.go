@@ -161,9 +161,16 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 	if sg := supplyGrid(u, o.Result); sg != nil {
 		doc.Grids = append(doc.Grids, *sg)
 	}
+	var swings []uncertainty.Swing
 	if band != nil {
 		doc.Grids = append(doc.Grids, bandGrid(u, d, band))
 		doc.Notes = append(doc.Notes, bandNote)
+		if swings, err = uncertainty.Sensitivity(d.Cylinder(), d.Run, d.Band.Spread); err != nil {
+			return output.Doc{}, o, modelError(d.Name, err)
+		}
+		if !u.Full {
+			doc.Grids = append(doc.Grids, swingGrid(u, swings))
+		}
 	}
 	if !o.Fixed && !d.Load.Direct {
 		doc.Notes = append(doc.Notes, fmt.Sprintf("Road load at %s %s: %s %s at the wheel, %s %s at the crank, %s %s of fuel; %.0f%% of the fuel power to the fins of %s, %.0f%% of it through the head.",
@@ -201,6 +208,9 @@ func (e *env) estimateDoc(d *design.Design) (output.Doc, outcome, error) {
 		"warnings": doc.Warnings, "defaults_applied": d.Defaults, "caution": output.Caution,
 	}
 	putBand(doc.JSON.(map[string]any), "band", band)
+	if swings != nil {
+		doc.JSON.(map[string]any)["sensitivity"] = swings
+	}
 	return doc, o, nil
 }
 
