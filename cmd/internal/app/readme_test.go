@@ -3,6 +3,7 @@ package app
 import (
 	"encoding/json"
 	"fmt"
+	"math"
 	"os"
 	"path/filepath"
 	"strings"
@@ -256,7 +257,25 @@ func TestReadmeProseFigures(t *testing.T) {
 		w, _, _ := headAt(t, p, "90 km/h", "35 C", 0)
 		heads = append(heads, w-273.15, r)
 	}
+	js, errs, code = run(t, "estimate", up, "-f", "json", "-q")
+	if code != 0 {
+		t.Fatalf("estimate: exit %d %s", code, errs)
+	}
+	var est struct {
+		Sens []struct {
+			Input string     `json:"input"`
+			Head  [2]float64 `json:"head_K"`
+		} `json:"sensitivity"`
+	}
+	if err := json.Unmarshal([]byte(js), &est); err != nil || len(est.Sens) < 5 {
+		t.Fatalf("sensitivity: %v %s", err, js)
+	}
+	sw := func(i int) float64 { return math.Abs(est.Sens[i].Head[1] - est.Sens[i].Head[0]) }
+	if est.Sens[0].Input != "forced convection" || est.Sens[1].Input != "cooling share" || est.Sens[4].Input != "pressure recovery" {
+		t.Errorf("the demo's sensitivity order changed: %+v", est.Sens)
+	}
 	for _, want := range []string{
+		fmt.Sprintf("(on the demo's head: the forced-convection scatter, %.0f K across +-25 %%, then the cooling share, %.0f K across +-20 %%, the head share and the thermal efficiency, %.0f K each, the pressure recovery, %.0f K across 0.5 to 1)", sw(0), sw(1), sw(2), sw(4)),
 		fmt.Sprintf("(the demo's head: %.1f C at %s, %.1f C at %s, %.1f C at %s, %.1f C at %s)", heads...),
 		fmt.Sprintf("On the demo the head climbs to about %.0f C on the grade", grade),
 		fmt.Sprintf("(%.1f C at the end of the ride)", end),
