@@ -33,8 +33,8 @@ func (w Swing) HeadSwing() float64 {
 // first. It shows which input decides a wall: the band mixes them all, and
 // a builder asks which one to pin down or which lever to pull. Inputs
 // with a zero half-width are left out, and so are the thermal efficiency
-// and the head share of a load given per set; the emissivities of the two
-// finishes move together. It takes 2 estimates per input, about 16 in all.
+// and the head share of a load given per set, and the recovery of fins fed
+// by a fan or a duct; the emissivities of the two finishes move together. It takes 2 estimates per input, about 16 in all.
 func Sensitivity(d cylinder.Design, s cylinder.Settings, sp Spread) ([]Swing, error) {
 	s.Workspace, s.TotalsOnly = cylinder.NewWorkspace(), true
 	sp.Methods = false // the default method throughout: the methods' spread is shown apart
@@ -61,6 +61,9 @@ func Sensitivity(d cylinder.Design, s cylinder.Settings, sp Spread) ([]Swing, er
 		}
 		if d.Load.Direct && (in.name == "brake thermal efficiency" || in.name == "head share") {
 			continue // a load given per set has no efficiency or share to move
+		}
+		if in.name == "pressure recovery" && d.Case.Supply.Kind != cylinder.SupplyRam {
+			continue // a shroud or a duct feeds the fins, not the road's pressure
 		}
 		w := Swing{Input: in.name, Half: in.half, Relative: in.relative}
 		for end, u := range []float64{0, 1} {

@@ -405,3 +405,38 @@ func TestTiltNamesItsShortfall(t *testing.T) {
 		t.Errorf("tilt CSV's tilt column:\n%s", csv)
 	}
 }
+
+// estimate's one-at-a-time table leaves out what plays no part: the fan
+// scooter's fins are fed by its shroud, so the pressure recovery is not in
+// its table (it would show a swing of nothing), and the upright demo's is.
+func TestSensitivityOmitsWhatPlaysNoPart(t *testing.T) {
+	up, _ := designs(t)
+	fan := filepath.Join(t.TempDir(), "scooter.toml")
+	if err := os.WriteFile(fan, demo.ScooterFan, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct {
+		path string
+		want bool
+	}{{up, true}, {fan, false}} {
+		js, errs, code := run(t, "estimate", c.path, "-f", "json", "-q")
+		if code != 0 {
+			t.Fatalf("exit %d %s", code, errs)
+		}
+		var v struct {
+			Sens []struct {
+				Input string `json:"input"`
+			} `json:"sensitivity"`
+		}
+		if err := json.Unmarshal([]byte(js), &v); err != nil || len(v.Sens) == 0 {
+			t.Fatalf("%v %s", err, js)
+		}
+		has := false
+		for _, s := range v.Sens {
+			has = has || s.Input == "pressure recovery"
+		}
+		if has != c.want {
+			t.Errorf("%s: pressure recovery in the table %v, want %v", c.path, has, c.want)
+		}
+	}
+}
