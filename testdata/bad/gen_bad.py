@@ -196,6 +196,7 @@ measurement('measurement-speed-missing', 'speed = "90 km/h"\n', '', 'measurement
 measurement('measurement-head-and-barrel', None, 'barrel = "150 C"\n', 'measurement[1].head: a reading is of the head or of the barrel, not both', mark='head =')
 measurement('measurement-plug-seat-no-offset', None, 'place = "plug-seat"\n', 'measurement[1].offset: missing: a plug-seat reading needs offset', mark='[[measurement]]')
 measurement('measurement-offset-uncertainty-negative', None, 'place = "plug-seat"\noffset = "15 K"\noffset_uncertainty = "-2 K"\n', 'measurement[1].offset_uncertainty: -2 K is outside the allowed 0 to 50 K', mark='offset_uncertainty')
+measurement('measurement-bare-speed', 'speed = "90 km/h"', 'speed = 90', 'measurement[1].speed: 90 has no unit', mark='speed = 90')
 measurement('measurement-below-ambient', 'head = "204 C"', 'head = "20 C"', 'measurement[1].head: 20 C: the measured temperature must lie between the ambient (28 C) and 500 C', mark='head =')
 
 out = []

@@ -81,3 +81,37 @@ func TestSetCasting(t *testing.T) {
 		t.Errorf("a bad barrel.casting: exit %d %q", code, errs)
 	}
 }
+
+// --set both keeps each set's process in the JSON: process is the head's
+// (die casting, 1.2 mm), barrel_process the barrel's own (sand, 3 mm),
+// each with its real limits, not a joined name.
+func TestSetCastingBoth(t *testing.T) {
+	up, _ := designs(t)
+	src, _ := os.ReadFile(up)
+	s := string(src)
+	i := strings.Index(s, "\n[barrel]")
+	j := i + strings.Index(s[i:], "alloy = \"A356-T6\"")
+	p := filepath.Join(t.TempDir(), "iron.toml")
+	if err := os.WriteFile(p, []byte(s[:j]+"alloy = \"grey-iron\"\ncasting = \"sand\"\n"+s[j+len("alloy = \"A356-T6\"\n"):]), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	js, errs, code := run(t, "optimise", p, "--set", "both", "--samples", "0", "-f", "json", "-q")
+	if code != 0 {
+		t.Fatalf("exit %d %s", code, errs)
+	}
+	var v struct {
+		Process, Barrel struct {
+			Name string  `json:"name"`
+			Min  float64 `json:"min_thickness_m"`
+		}
+	}
+	var raw map[string]json.RawMessage
+	if err := json.Unmarshal([]byte(js), &raw); err != nil {
+		t.Fatal(err)
+	}
+	json.Unmarshal(raw["process"], &v.Process)
+	json.Unmarshal(raw["barrel_process"], &v.Barrel)
+	if v.Process.Name != "die-casting" || v.Process.Min != 0.0012 || v.Barrel.Name != "sand" || v.Barrel.Min != 0.003 {
+		t.Errorf("process %+v, barrel_process %+v", v.Process, v.Barrel)
+	}
+}

@@ -463,9 +463,14 @@ func (e *env) optimumDoc(d *design.Design, pr optimise.Problem, sol optimise.Sol
 	if both {
 		setName = "both"
 	}
-	js := map[string]any{"design": d.Name, "inputs": d.Cylinder().Resolved(), "set": setName, "goal": goal, "process": p, "optimum": optimum,
+	// the process of the varied set (the head's under --set both), and
+	// the barrel's own under --set both: real limits, not a joined name
+	js := map[string]any{"design": d.Name, "inputs": d.Cylinder().Resolved(), "set": setName, "goal": goal, "process": pr.ProcessOf(pr.Primary()), "optimum": optimum,
 		"constraints": checks, "front": frontJSON(sol.Front, pr), "evaluations": sol.Evals, "caution": output.Caution,
 		"speed_m_s": d.Case.Speed, "ambient_K": d.Case.Ambient, "pressure_Pa": d.Case.Pressure}
+	if both {
+		js["barrel_process"] = pr.ProcessOf(optimise.Barrel)
+	}
 	if ad.Feasible {
 		js["as_designed"] = map[string]any{"wall_temperature_K": ad.Wall, "fin_mass_kg": ad.Mass, "other_set_wall_temperature_K": ad.Other}
 	}
@@ -611,11 +616,30 @@ func (e *env) bandNote(d *design.Design, pr optimise.Problem, kvs []design.KV, u
 	if err != nil {
 		return "", nil
 	}
-	after, err := e.band(nd, nd.Case.Speed)
+	set := pr.Primary()
+	// the chance is counted over the limit the search held (--limit under
+	// --goal light), for the optimum and the design as drawn alike
+	lim := nd.HeadLimit
+	if set == optimise.Barrel {
+		lim = nd.BarrelLimit
+	}
+	if pr.Goal == optimise.GoalLight {
+		lim = pr.Limit
+	}
+	held := func(x *design.Design) *design.Design {
+		c := *x
+		if set == optimise.Barrel {
+			c.BarrelLimit = lim
+		} else {
+			c.HeadLimit = lim
+		}
+		return &c
+	}
+	after, err := e.band(held(nd), nd.Case.Speed)
 	if err != nil || after == nil {
 		return "", err
 	}
-	before, err := e.band(d, d.Case.Speed)
+	before, err := e.band(held(d), d.Case.Speed)
 	if err != nil || before == nil {
 		return "", err
 	}
@@ -623,7 +647,6 @@ func (e *env) bandNote(d *design.Design, pr optimise.Problem, kvs []design.KV, u
 	if err != nil {
 		return "", nil
 	}
-	set := pr.Primary()
 	pick := func(b *uncertainty.Band) (uncertainty.Percentiles, float64) {
 		if set == optimise.Barrel {
 			return b.Barrel, b.BarrelOver
@@ -632,12 +655,9 @@ func (e *env) bandNote(d *design.Design, pr optimise.Problem, kvs []design.KV, u
 	}
 	pa, oa := pick(after)
 	pb, ob := pick(before)
-	lim, wall := nd.HeadLimit, o.Result.Head.WallTemp
+	wall := o.Result.Head.WallTemp
 	if set == optimise.Barrel {
-		lim, wall = nd.BarrelLimit, o.Result.Barrel.WallTemp
-	}
-	if pr.Goal == optimise.GoalLight {
-		lim = pr.Limit
+		wall = o.Result.Barrel.WallTemp
 	}
 	if m, ok := js.(map[string]any); ok {
 		putBand(m, "band", after)
@@ -646,14 +666,14 @@ func (e *env) bandNote(d *design.Design, pr optimise.Problem, kvs []design.KV, u
 	name := optimise.SetNames[set]
 	note := fmt.Sprintf("The band (%d samples, as 'finmarch estimate' draws it): the optimum's %s %s %s, a %.0f %% chance over its %s %s limit; as drawn %s %s, %.0f %%.",
 		after.Samples, name, bandText(u, pa), T, 100*oa, fmtT(u, lim), T, bandText(u, pb), T, 100*ob)
-	if pr.Goal == optimise.GoalLight && pa.P95 > wall {
-		note += " The search holds the nominal estimate at the limit, so the lightest fins go over it about half the time"
+	if pr.Goal == optimise.GoalLight && pa.P95 > wall && oa > 0.05 {
+		note += " The search holds the nominal estimate at the limit, so the band puts the lightest fins over it that often"
 		switch excess := pa.P95 - wall; {
 		case math.IsInf(pa.P95, 1):
-			note += ", and more than 5 % of the band finds no equilibrium: do not cut a pattern from it before a measurement."
-		case lim-excess > nd.Case.Ambient+0.5*(lim-nd.Case.Ambient):
-			note += fmt.Sprintf(": for a 5 %% chance, run with --limit about %s %s (the limit less the band's %s %s above the nominal wall), and check the result's band.",
-				fmtT(u, lim-excess), T, fmtDT(u, excess), u.Name(output.TempDiff))
+			note += ", and more than 5 % of it finds no equilibrium: do not cut a pattern from it before a measurement."
+		case wall-excess > nd.Case.Ambient+0.5*(wall-nd.Case.Ambient):
+			note += fmt.Sprintf(": for a 5 %% chance the nominal wall must sit about %s %s below the limit you mean to keep (the band's 95th percentile above the nominal wall), so run with --limit that much below it, and read the result's chance against your limit, not the --limit.",
+				fmtDT(u, excess), u.Name(output.TempDiff))
 		default:
 			note += fmt.Sprintf("; the band's 95th percentile lies %s %s above the nominal wall, too far for a lower --limit to buy back: a reading on the running engine narrows the band ('finmarch calibrate'), and the optimum of the calibrated design can be held to its limit.",
 				fmtDT(u, excess), u.Name(output.TempDiff))

@@ -439,6 +439,10 @@ func measuredPoint(m MeasurementT, pressure float64) (calibrate.Point, []problem
 	switch {
 	case !m.Speed.Set:
 		add("speed", "missing; every reading needs its road speed, 0 to 400 km/h")
+	case m.Speed.Bare:
+		// as air.speed: a bare 90 would be 90 m/s, 324 km/h
+		v := strconv.FormatFloat(p.Speed, 'g', 6, 64)
+		add("speed", "%s has no unit: a bare number would be %s m/s (%s km/h); write \"%s km/h\", \"%s mph\" or \"%s m/s\"", v, v, strconv.FormatFloat(p.Speed*3.6, 'g', 4, 64), v, v, v)
 	case !(p.Speed >= 0 && p.Speed <= 400/3.6):
 		add("speed", "%s km/h is outside the allowed 0 to 400 km/h", strconv.FormatFloat(p.Speed*3.6, 'g', 6, 64))
 	}
