@@ -178,7 +178,57 @@ func Calibrate(d cylinder.Design, s cylinder.Settings, pts []Point, names ...str
 			return f, err
 		}
 	}
+	offsetErrors(&f, xf, d, s, pts, seen[Offset])
 	return f, nil
+}
+
+// offsetErrors adds the measuring places' offsets' own uncertainty to the
+// standard errors. A guessed offset is one error shared by every reading
+// at that place, so it does not average away over points as their scatter
+// does: the fit is repeated with every point's offset moved by its own
+// uncertainty (offsetSigma) up and down, started from the fit, and half
+// each parameter's move between the two is added in quadrature to its
+// standard error (to first order the parameters' response to that shared
+// error). Nothing is added when the
+// offset is itself fitted, or no point has an offset uncertainty.
+func offsetErrors(f *Fit, xf []float64, d cylinder.Design, s cylinder.Settings, pts []Point, fitted bool) {
+	if fitted {
+		return
+	}
+	refit := func(sign float64) ([]Param, bool) {
+		shifted := make([]Point, len(pts))
+		moved := false
+		for i, p := range pts {
+			o := offsetSigma(p)
+			moved = moved || o > 0
+			p.Offset += sign * o
+			shifted[i] = p
+		}
+		if !moved {
+			return nil, false
+		}
+		g, _, err := levenbergMarquardt(func(x []float64) ([]float64, []bool, error) { return residuals(d, s, shifted, f.Params, x) }, xf, f.Params)
+		return g.Params, err == nil && len(g.Params) == len(f.Params)
+	}
+	up, ok1 := refit(1)
+	down, ok2 := refit(-1)
+	if !ok1 || !ok2 {
+		return
+	}
+	for k := range f.Params {
+		// half the move between the offsets one uncertainty either side:
+		// the response's slope, not its curvature
+		f.Params[k].StdError = math.Hypot(f.Params[k].StdError, (up[k].Value-down[k].Value)/2)
+	}
+}
+
+// offsetSigma is a point's offset uncertainty, K: as stated, else
+// OffsetShare of the offset.
+func offsetSigma(p Point) float64 {
+	if p.OffsetSigma >= 0 {
+		return p.OffsetSigma
+	}
+	return OffsetShare * math.Abs(p.Offset)
 }
 
 // own is the estimator's own range of a parameter, wider than the
@@ -422,15 +472,10 @@ func unit(name string) string {
 
 // sigma is a point's uncertainty, DefaultSigma when none is given.
 func sigma(p Point) float64 {
-	s := p.Sigma
-	if !(s > 0) {
-		s = DefaultSigma
+	if p.Sigma > 0 {
+		return p.Sigma
 	}
-	o := p.OffsetSigma
-	if o < 0 {
-		o = OffsetShare * math.Abs(p.Offset)
-	}
-	return math.Hypot(s, o)
+	return DefaultSigma
 }
 
 // OffsetShare is the share of a point's stated measuring-place offset
@@ -438,10 +483,10 @@ func sigma(p Point) float64 {
 // plug seat's excess over the mean fin root, stated without measuring
 // both, is known to about half its size), unless the point states it
 // (OffsetSigma at or above 0: an offset measured once, plug seat and fin
-// root together). It adds in quadrature to the reading's own uncertainty,
-// so a fit through a guessed offset, and the band of the calibrated
-// design, are no narrower than the guess allows; a reading at a fin root
-// (offset 0) keeps its own.
+// root together). It is one error shared by the readings at that place
+// (offsetErrors), so a fit through a guessed offset, and the band of the
+// calibrated design, are no narrower than the guess allows however many
+// readings there are; a reading at a fin root (offset 0) adds nothing.
 const OffsetShare = 0.5
 
 // Apply returns the design and settings with the fit's parameters: what a

@@ -125,7 +125,7 @@ func (e *env) calibrate(d *design.Design, path string, names []string, write str
 	}
 	doc := output.Doc{Title: fmt.Sprintf("%s: calibration against %s", d.Name, count(len(d.Points), "measured point")), Grids: []output.Grid{pg, rg}, Caution: true,
 		Notes: []string{"A residual is the model (plus the measuring place's offset) less the measurement; a plug seat runs hotter than the mean fin root the model gives.",
-			"Standard errors come from the fit's covariance, scaled by the residuals when the points outnumber the parameters and by the points' stated uncertainty (unless given, 5 K with half of any stated offset added in quadrature: a guessed plug-seat offset is known to about half its size, our assumption) otherwise."}}
+			"Standard errors come from the fit's covariance, scaled by the residuals when the points outnumber the parameters and by the points' stated uncertainty (5 K unless given); the measuring place's offset is one error shared by its readings, so the fit is repeated with every offset moved by its own uncertainty (offset_uncertainty, else half the offset: a guessed plug-seat offset is known to about half its size, our assumption) and the parameters' move is added to their standard errors otherwise."}}
 	kvs, clamped := calibratedKeys(f, d.Band.Spread, d.Case.Method(d.Run))
 	doc.Notes = append(doc.Notes, clamped...)
 	doc.Notes = append(doc.Notes, calibratedNotes(u, d, f)...)
@@ -282,7 +282,8 @@ func calibratedNotes(u output.Units, d *design.Design, f calibrate.Fit) []string
 	}
 	notes = append(notes, fmt.Sprintf("At the design's own point (%s) the calibrated design puts the head at %s and the barrel at %s; as it stood, %s and %s.",
 		at, wall(after, err2, after.Result.Head), wall(after, err2, after.Result.Barrel), wall(before, err1, before.Result.Head), wall(before, err1, before.Result.Barrel)))
-	if r, ok := f.Get(calibrate.Recovery); ok {
+	_, loadFitted := f.Get(calibrate.LoadFactor)
+	if r, ok := f.Get(calibrate.Recovery); ok && !loadFitted {
 		was := d.Case.Recovery
 		if was == 0 {
 			was = cylinder.DefaultRecovery
