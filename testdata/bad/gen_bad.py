@@ -79,7 +79,7 @@ def repl(name, old, new, frag, line=None, exit=3, count=1, after=None, mark=None
     cases.append((name, src, exit, line, frag))
 
 # syntax
-repl('syntax-unclosed-table', '[head]', '[head', "expected '.' or ']'", line=11)
+repl('syntax-unclosed-table', '[head]', '[head', 'the table header reads "[head"', line=10)
 repl('syntax-table-non-ascii', '[air]', '[a\u00edr]', 'the table header reads "[a\u00edr]"', line=None)
 repl('syntax-unterminated-string', 'name = "corpus base"', 'name = "corpus base', 'newlines', line=1)
 repl('syntax-missing-equals', 'count = 8', 'count 8', 'expected', line=12)

@@ -78,7 +78,10 @@ optimum's keys for the design file (--write FILE writes the design with them).`,
 					continue
 				}
 				v, err := o.parse(o.s)
-				if err != nil || v < 0 {
+				if err == nil && !(v >= 0) {
+					err = fmt.Errorf("a negative limit; give 0 or more")
+				}
+				if err != nil {
 					return fail(ExitUsage, fmt.Errorf("%s %q: %v", o.flag, o.s, err))
 				}
 				for i := range procs {

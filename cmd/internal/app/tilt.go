@@ -246,7 +246,11 @@ func (e *env) tilt(d *design.Design, step float64) error {
 		for k, o := range outs {
 			for _, r := range []cylinder.SetResult{o.Result.Head, o.Result.Barrel} {
 				if !r.Equilibrium && r.HeatLoad > 0 && r.Shortfall > 0 {
-					noEq = append(noEq, fmt.Sprintf("%s %s at %s deg %.0f %% short", []string{"annular", "longitudinal"}[k], r.Name, u.N(t, 0), 100*r.Shortfall/r.HeatLoad))
+					short := fmt.Sprintf("%.0f %%", 100*r.Shortfall/r.HeatLoad)
+					if r.Shortfall < 0.01*r.HeatLoad {
+						short = fmt.Sprintf("%.0f W (under 1 %%)", r.Shortfall)
+					}
+					noEq = append(noEq, fmt.Sprintf("%s %s at %s deg %s short", []string{"annular", "longitudinal"}[k], r.Name, tiltLabel(u, t, step), short))
 				}
 			}
 		}
@@ -254,7 +258,7 @@ func (e *env) tilt(d *design.Design, step float64) error {
 		if math.Max(l.Result.Head.WallTemp, l.Result.Barrel.WallTemp) < math.Max(a.Result.Head.WallTemp, a.Result.Barrel.WallTemp) {
 			better = "longitudinal"
 		}
-		label := u.N(t, 0)
+		label := tiltLabel(u, t, step)
 		if math.Abs(t-own) < 1e-6 && !u.Full && drawn != "" {
 			label += " (yours)"
 		}
@@ -342,8 +346,30 @@ func tiltAirNote(d *design.Design) string {
 // castingName names the process the fins are made by, for a note: one
 // name with its key, or each set's when they differ.
 func castingName(d *design.Design) string {
-	if d.OneCasting() {
-		return d.CastingOf(0).Name + " (cylinder.casting)"
+	key := func(i int) string {
+		if d.SetCastKey[i] {
+			return []string{"head", "barrel"}[i] + ".casting"
+		}
+		return "cylinder.casting"
 	}
-	return fmt.Sprintf("head %s and barrel %s (their casting keys)", d.CastingOf(0).Name, d.CastingOf(1).Name)
+	if d.OneCasting() {
+		k := key(0)
+		if key(1) != k {
+			k += " and " + key(1)
+		}
+		return d.CastingOf(0).Name + " (" + k + ")"
+	}
+	return fmt.Sprintf("head %s (%s) and barrel %s (%s)", d.CastingOf(0).Name, key(0), d.CastingOf(1).Name, key(1))
+}
+
+// tiltLabel writes a tilt of the table with as many decimals as the step
+// needs (7.5 deg steps give 7.5, 22.5, ...; 15 deg steps whole degrees).
+func tiltLabel(u output.Units, t, step float64) string {
+	for dec := 0; dec < 3; dec++ {
+		p := math.Pow(10, float64(dec))
+		if math.Abs(step*p-math.Round(step*p)) < 1e-6 {
+			return u.N(t, dec)
+		}
+	}
+	return u.N(t, 3)
 }

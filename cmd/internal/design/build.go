@@ -134,7 +134,7 @@ func (b *builder) casting() {
 			b.add(setKey(t.tbl, "casting"), "%v", err)
 			continue
 		}
-		b.d.SetCasting[i] = sp
+		b.d.SetCasting[i], b.d.SetCastKey[i] = sp, true
 	}
 }
 

@@ -167,6 +167,7 @@ type Design struct {
 	Load        cylinder.Load
 	Casting     fins.Process      // the process the fins are made by (cylinder.casting); every command checks them against its limits
 	SetCasting  [2]fins.Process   // each set's process, head and barrel: its own casting key, else Casting
+	SetCastKey  [2]bool           // the set's own casting key was given
 	Band        BandSpec          // the uncertainty band's samples, seed and spread
 	Points      []calibrate.Point // the design's [[measurement]]s
 	Metal       transient.Metal   // the [ride] masses and link (zero: the estimates)
@@ -364,7 +365,18 @@ func decodeError(err error, name string, src []byte) *Error {
 		// a bad table header: the line as written, not the parser's last
 		// good key (it was reported under the table before it)
 		lines := strings.Split(string(src), "\n")
-		if l := pe.Position.Line; l >= 1 && l <= len(lines) {
+		l := pe.Position.Line
+		if strings.Contains(msg, "table name") {
+			// an unclosed header is found on the line after it: back to
+			// the nearest line that opens a header
+			for k := min(l, len(lines)); k >= 1; k-- {
+				if strings.HasPrefix(strings.TrimSpace(lines[k-1]), "[") {
+					l = k
+					break
+				}
+			}
+		}
+		if l >= 1 && l <= len(lines) {
 			if text := strings.TrimSpace(strings.TrimSuffix(lines[l-1], "\r")); strings.HasPrefix(text, "[") && len(text) <= 120 {
 				return &Error{File: name, Line: l, Msg: fmt.Sprintf("%s (the table header reads %q)", msg, text)}
 			}
@@ -377,8 +389,9 @@ func decodeError(err error, name string, src []byte) *Error {
 		msg = strings.Replace(msg, "incompatible types: TOML value has type ", "wrong type: the file has a ", 1)
 		msg = strings.Replace(msg, "; destination has type ", " where this key takes a ", 1)
 		// in the trade's words, not Go's type names
-		for _, r := range [][2]string{{"a float64 where this key takes a integer", "a number with a fraction where this key takes a whole number (write it without a decimal point, e.g. count = 8)"},
-			{"a string where this key takes a integer", "a string where this key takes a whole number (write it bare, e.g. count = 8)"},
+		field := m[2][strings.LastIndex(m[2], ".")+1:]
+		for _, r := range [][2]string{{"a float64 where this key takes a integer", "a number with a fraction where this key takes a whole number (write it without a decimal point, e.g. " + field + " = 8)"},
+			{"a string where this key takes a integer", "a string where this key takes a whole number (write it bare, e.g. " + field + " = 8)"},
 			{"a float64 where this key takes a string", "a number where this key takes a quoted name"},
 			{"a int64 where this key takes a string", "a number where this key takes a quoted name"},
 			{"a bool where", "true or false where"}, {"where this key takes a integer", "where this key takes a whole number"},
