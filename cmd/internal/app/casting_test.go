@@ -75,6 +75,11 @@ func TestSetCasting(t *testing.T) {
 			t.Errorf("optimise --set %s: process %q (minimum %g m), optimum tip %g m; want %s, %g m", c.set, v.Process.Name, v.Process.MinThickness, v.Optimum.Tip, c.process, c.min)
 		}
 	}
+	// the notes name the keys each process came from
+	txt, _, _ := run(t, "tilt", withKey, "--samples", "0", "-q")
+	if flat := strings.Join(strings.Fields(txt), " "); !strings.Contains(flat, "head die-casting (cylinder.casting) and barrel sand (barrel.casting)") {
+		t.Errorf("tilt's casting note does not name the keys:\n%s", txt)
+	}
 	bad := write("bad.toml", strings.Replace(iron, "casting = \"sand\"", "casting = \"forged\"", 1))
 	_, errs, code = run(t, "estimate", bad)
 	if code != ExitDesign || !strings.Contains(errs, "barrel.casting") {

@@ -271,6 +271,9 @@ func TestReadmeProseFigures(t *testing.T) {
 		t.Fatalf("sensitivity: %v %s", err, js)
 	}
 	sw := func(i int) float64 { return math.Abs(est.Sens[i].Head[1] - est.Sens[i].Head[0]) }
+	if math.Round(sw(2)) != math.Round(sw(3)) {
+		t.Errorf("the README gives the head share and the thermal efficiency one swing (%.0f K each); now %.1f and %.1f K", math.Round(sw(2)), sw(2), sw(3))
+	}
 	if est.Sens[0].Input != "forced convection" || est.Sens[1].Input != "cooling share" || est.Sens[4].Input != "pressure recovery" {
 		t.Errorf("the demo's sensitivity order changed: %+v", est.Sens)
 	}
