@@ -111,7 +111,11 @@ const DefaultCasting = "permanent-mould"
 func (b *builder) casting() {
 	name := b.f.Cylinder.Casting
 	if strings.TrimSpace(name) == "" {
-		b.def("cylinder.casting", DefaultCasting+" (common practice for motorcycle and small-engine cylinders)")
+		// a default only where a set takes it: not when both sets name
+		// their own process
+		if strings.TrimSpace(b.f.Head.Casting) == "" || strings.TrimSpace(b.f.Barrel.Casting) == "" {
+			b.def("cylinder.casting", DefaultCasting+" (common practice for motorcycle and small-engine cylinders)")
+		}
 		name = DefaultCasting
 	}
 	p, err := fins.LookupProcess(name)
