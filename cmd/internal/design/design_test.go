@@ -398,3 +398,34 @@ func TestWithChained(t *testing.T) {
 			d.Case.Head.Set.Pitch, a.Case.Head.Set.Pitch, b.Case.Head.Set.Pitch)
 	}
 }
+
+// cylinder.casting's default is listed as applied only where a set takes
+// it: with both fin sets naming their own process it is not, and each set
+// keeps its own.
+func TestCastingDefaultOnlyWhereTaken(t *testing.T) {
+	src := strings.Replace(minimal, "[barrel]\n", "[barrel]\ncasting = \"sand\"\n", 1)
+	src = strings.Replace(src, "[head]\n", "[head]\ncasting = \"die-casting\"\n", 1)
+	d, err := Parse([]byte(src), "m.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, def := range d.Defaults {
+		if strings.HasPrefix(def, "cylinder.casting") {
+			t.Errorf("default listed though no set takes it: %s", def)
+		}
+	}
+	if d.CastingOf(0).Name != "die-casting" || d.CastingOf(1).Name != "sand" || !d.SetCastKey[0] || !d.SetCastKey[1] {
+		t.Errorf("sets' processes %q and %q", d.CastingOf(0).Name, d.CastingOf(1).Name)
+	}
+	one, err := Parse([]byte(strings.Replace(minimal, "[barrel]\n", "[barrel]\ncasting = \"sand\"\n", 1)), "m.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	listed := false
+	for _, def := range one.Defaults {
+		listed = listed || strings.HasPrefix(def, "cylinder.casting")
+	}
+	if !listed || one.CastingOf(0).Name != DefaultCasting {
+		t.Errorf("the head takes the default (%q) and it is listed: %v", one.CastingOf(0).Name, listed)
+	}
+}
