@@ -246,15 +246,21 @@ func (e *env) optimise(d *design.Design, names []string, goal string, procs [2]f
 	}
 	doc := e.optimumDoc(d, pr, sol, u)
 	kvs := optimumKeys(pr, sol.Optimum.X)
-	if n := e.otherMethodsNote(d, pr, kvs, u); n != "" {
-		doc.Notes = append(doc.Notes, n)
-	}
-	n, err := e.bandNote(d, pr, kvs, u, doc.JSON)
-	if err != nil {
-		return err
-	}
-	if n != "" {
-		doc.Notes = append(doc.Notes, n)
+	// the optimum as a design file gives it, parsed and estimated once for
+	// the notes on its other methods and its band
+	if nd, err := e.parse(design.SetKeys(e.sources[d.Source], kvs), d.Source); err == nil {
+		if after, err := evaluate(nd, nd.Case.Speed); err == nil {
+			if n := otherMethodsNote(d, pr, after, u); n != "" {
+				doc.Notes = append(doc.Notes, n)
+			}
+			n, err := e.bandNote(d, nd, after, pr, u, doc.JSON)
+			if err != nil {
+				return err
+			}
+			if n != "" {
+				doc.Notes = append(doc.Notes, n)
+			}
+		}
 	}
 	if write != "" {
 		if err := e.writeOptimum(d, pr, sol, kvs, write); err != nil {
@@ -303,14 +309,9 @@ func keysTOML(kvs []design.KV) string {
 // methods the search did not use, against the design as drawn: an
 // optimum of one method can be worse by another, and the spread is the
 // model's own uncertainty. "" when only one method applies.
-func (e *env) otherMethodsNote(d *design.Design, pr optimise.Problem, kvs []design.KV, u output.Units) string {
-	nd, err := e.parse(design.SetKeys(e.sources[d.Source], kvs), d.Source)
+func otherMethodsNote(d *design.Design, pr optimise.Problem, after outcome, u output.Units) string {
+	before, err := evaluate(d, d.Case.Speed)
 	if err != nil {
-		return ""
-	}
-	before, err1 := evaluate(d, d.Case.Speed)
-	after, err2 := evaluate(nd, nd.Case.Speed)
-	if err1 != nil || err2 != nil {
 		return ""
 	}
 	set := pr.Primary()
@@ -606,19 +607,15 @@ func castingLimitsNote(pr optimise.Problem, p fins.Process) string {
 	return fmt.Sprintf("Casting limits: head %s (%s); barrel %s (%s).", h.Name, processSource(h), b.Name, processSource(b))
 }
 
-// bandNote gives the optimum's uncertainty band beside the design's as
-// drawn: the objective wall's 5th to 95th percentile and its chance over
-// the limit. The search holds the nominal estimate at the limit, so under
-// --goal light the optimum goes over it about half the time; the note
-// says which --limit holds the limit with the band's 95th percentile (the
-// limit less the optimum's 95th-percentile excess over its nominal wall,
-// to first order). The band goes into the JSON as "band". "" without a
-// band (--samples 0).
-func (e *env) bandNote(d *design.Design, pr optimise.Problem, kvs []design.KV, u output.Units, js any) (string, error) {
-	nd, err := e.parse(design.SetKeys(e.sources[d.Source], kvs), d.Source)
-	if err != nil {
-		return "", nil
-	}
+// bandNote gives the band of the optimum nd (estimated as o) beside the
+// design's as drawn: the objective wall's 5th to 95th percentile and its
+// chance over the limit the search held. The search holds the nominal
+// estimate at the limit, so under --goal light the optimum goes over it
+// at least half the time; the note says how far below a limit the nominal
+// wall must sit for a 5 % chance (the band's 95th percentile above the
+// nominal wall), or, where that is too far, to calibrate first. The band
+// goes into the JSON as "band". "" without a band (--samples 0).
+func (e *env) bandNote(d, nd *design.Design, o outcome, pr optimise.Problem, u output.Units, js any) (string, error) {
 	set := pr.Primary()
 	// the chance is counted over the limit the search held (--limit under
 	// --goal light), for the optimum and the design as drawn alike
@@ -645,10 +642,6 @@ func (e *env) bandNote(d *design.Design, pr optimise.Problem, kvs []design.KV, u
 	before, err := e.band(held(d), d.Case.Speed)
 	if err != nil || before == nil {
 		return "", err
-	}
-	o, err := evaluate(nd, nd.Case.Speed)
-	if err != nil {
-		return "", nil
 	}
 	pick := func(b *uncertainty.Band) (uncertainty.Percentiles, float64) {
 		if set == optimise.Barrel {

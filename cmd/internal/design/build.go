@@ -444,9 +444,7 @@ func measuredPoint(m MeasurementT, pressure float64) (calibrate.Point, []problem
 	case !m.Speed.Set:
 		add("speed", "missing; every reading needs its road speed, 0 to 400 km/h")
 	case m.Speed.Bare:
-		// as air.speed: a bare 90 would be 90 m/s, 324 km/h
-		v := strconv.FormatFloat(p.Speed, 'g', 6, 64)
-		add("speed", "%s has no unit: a bare number would be %s m/s (%s km/h); write \"%s km/h\", \"%s mph\" or \"%s m/s\"", v, v, strconv.FormatFloat(p.Speed*3.6, 'g', 4, 64), v, v, v)
+		add("speed", "%s", bareSpeed(p.Speed)) // as air.speed
 	case !(p.Speed >= 0 && p.Speed <= 400/3.6):
 		add("speed", "%s km/h is outside the allowed 0 to 400 km/h", strconv.FormatFloat(p.Speed*3.6, 'g', 6, 64))
 	}
@@ -555,11 +553,7 @@ func (b *builder) ranges() {
 		case !r.set:
 			b.add(r.key, "missing (%s)", rangeText(r))
 		case r.bare && r.unit == "km/h":
-			// a bare speed is m/s, and road speeds in km/h or mph are
-			// in range as m/s too: "speed = 90" would be 324 km/h
-			b.add(r.key, "%s has no unit: a bare number would be %s m/s (%s km/h); write \"%s km/h\", \"%s mph\" or \"%s m/s\"",
-				strconv.FormatFloat(r.v, 'g', 6, 64), strconv.FormatFloat(r.v, 'g', 6, 64), strconv.FormatFloat(r.v*3.6, 'g', 4, 64),
-				strconv.FormatFloat(r.v, 'g', 6, 64), strconv.FormatFloat(r.v, 'g', 6, 64), strconv.FormatFloat(r.v, 'g', 6, 64))
+			b.add(r.key, "%s", bareSpeed(r.v))
 		case math.IsNaN(r.v) || r.v < r.lo || r.v > r.hi:
 			msg := fmt.Sprintf("%s %s is outside the allowed range %s", r.show(r.v), r.unit, rangeText(r))
 			if hint := unitHint(r.key); hint != "" && r.bare {
@@ -641,4 +635,13 @@ func siUnit(display string) string {
 		}
 	}
 	return "SI units"
+}
+
+// bareSpeed is the refusal of a speed written without its unit: a bare
+// number is m/s, and road speeds in km/h or mph are in range as m/s too
+// ("speed = 90" would be 324 km/h).
+func bareSpeed(v float64) string {
+	n := strconv.FormatFloat(v, 'g', 6, 64)
+	return fmt.Sprintf("%s has no unit: a bare number would be %s m/s (%s km/h); write \"%s km/h\", \"%s mph\" or \"%s m/s\"",
+		n, n, strconv.FormatFloat(v*3.6, 'g', 4, 64), n, n, n)
 }
