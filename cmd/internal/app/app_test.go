@@ -18,6 +18,20 @@ var update = flag.Bool("update", false, "rewrite the golden files of the command
 
 const goldenDir = "../../../testdata/golden"
 
+// runJSON runs the command line (args, "-f json" and "-q" added), fails
+// the test on a non-zero exit or output that is not JSON, and decodes the
+// output into v.
+func runJSON(t *testing.T, v any, args ...string) {
+	t.Helper()
+	js, errs, code := run(t, append(args, "-f", "json", "-q")...)
+	if code != 0 {
+		t.Fatalf("%v: exit %d %s", args, code, errs)
+	}
+	if err := json.Unmarshal([]byte(js), v); err != nil {
+		t.Fatalf("%v: %v", args, err)
+	}
+}
+
 func run(t *testing.T, args ...string) (string, string, int) {
 	t.Helper()
 	var out, errb bytes.Buffer

@@ -18,10 +18,6 @@ import (
 // and ambient, with its band (K; zero when off).
 func headAt(t *testing.T, path, speed, ambient string, samples int) (wall, p5, p95 float64) {
 	t.Helper()
-	js, errs, code := run(t, "estimate", path, "--speed", speed, "--ambient", ambient, "--samples", fmt.Sprint(samples), "-f", "json", "-q")
-	if code != 0 {
-		t.Fatalf("estimate %s at %s, %s: exit %d %s", path, speed, ambient, code, errs)
-	}
 	var v struct {
 		Result struct {
 			Head struct {
@@ -35,9 +31,7 @@ func headAt(t *testing.T, path, speed, ambient string, samples int) (wall, p5, p
 			}
 		}
 	}
-	if err := json.Unmarshal([]byte(js), &v); err != nil {
-		t.Fatal(err)
-	}
+	runJSON(t, &v, "estimate", path, "--speed", speed, "--ambient", ambient, "--samples", fmt.Sprint(samples))
 	if v.Band != nil {
 		p5, p95 = v.Band.Head.P5, v.Band.Head.P95
 	}
@@ -209,17 +203,14 @@ func TestCalibrateSaysWhatItMeans(t *testing.T) {
 func TestCalibrateOffsetUncertaintyKey(t *testing.T) {
 	se := func(extra string) float64 {
 		in := withRecovery(t, "0.8", "\n[[measurement]]\nspeed = \"90 km/h\"\nambient = \"28 C\"\nhead = \"204 C\"\nplace = \"plug-seat\"\noffset = \"15 K\"\n"+extra)
-		js, errs, code := run(t, "calibrate", in, "-f", "json", "-q")
-		if code != 0 {
-			t.Fatalf("exit %d %s", code, errs)
-		}
 		var v struct {
 			Parameters []struct {
 				SE float64 `json:"standard_error"`
 			} `json:"parameters"`
 		}
-		if err := json.Unmarshal([]byte(js), &v); err != nil || len(v.Parameters) != 1 {
-			t.Fatalf("%v: %s", err, js)
+		runJSON(t, &v, "calibrate", in)
+		if len(v.Parameters) != 1 {
+			t.Fatalf("%d parameters, want 1", len(v.Parameters))
 		}
 		return v.Parameters[0].SE
 	}

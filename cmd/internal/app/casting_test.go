@@ -1,7 +1,6 @@
 package app
 
 import (
-	"encoding/json"
 	"os"
 	"path/filepath"
 	"strings"
@@ -63,14 +62,8 @@ func TestSetCasting(t *testing.T) {
 		set, process string
 		min          float64
 	}{{"barrel", "sand", 0.003}, {"head", "die-casting", 0.0012}} {
-		js, errs, code := run(t, "optimise", withKey, "--set", c.set, "-f", "json", "-q")
-		if code != 0 {
-			t.Fatalf("optimise --set %s: exit %d %s", c.set, code, errs)
-		}
 		var v optJSON
-		if err := json.Unmarshal([]byte(js), &v); err != nil {
-			t.Fatal(err)
-		}
+		runJSON(t, &v, "optimise", withKey, "--set", c.set)
 		if v.Process.Name != c.process || v.Process.MinThickness != c.min || v.Optimum.Tip < c.min-1e-12 {
 			t.Errorf("optimise --set %s: process %q (minimum %g m), optimum tip %g m; want %s, %g m", c.set, v.Process.Name, v.Process.MinThickness, v.Optimum.Tip, c.process, c.min)
 		}
@@ -100,22 +93,15 @@ func TestSetCastingBoth(t *testing.T) {
 	if err := os.WriteFile(p, []byte(s[:j]+"alloy = \"grey-iron\"\ncasting = \"sand\"\n"+s[j+len("alloy = \"A356-T6\"\n"):]), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	js, errs, code := run(t, "optimise", p, "--set", "both", "--samples", "0", "-f", "json", "-q")
-	if code != 0 {
-		t.Fatalf("exit %d %s", code, errs)
+	type process struct {
+		Name string  `json:"name"`
+		Min  float64 `json:"min_thickness_m"`
 	}
 	var v struct {
-		Process, Barrel struct {
-			Name string  `json:"name"`
-			Min  float64 `json:"min_thickness_m"`
-		}
+		Process process `json:"process"`
+		Barrel  process `json:"barrel_process"`
 	}
-	var raw map[string]json.RawMessage
-	if err := json.Unmarshal([]byte(js), &raw); err != nil {
-		t.Fatal(err)
-	}
-	json.Unmarshal(raw["process"], &v.Process)
-	json.Unmarshal(raw["barrel_process"], &v.Barrel)
+	runJSON(t, &v, "optimise", p, "--set", "both", "--samples", "0")
 	if v.Process.Name != "die-casting" || v.Process.Min != 0.0012 || v.Barrel.Name != "sand" || v.Barrel.Min != 0.003 {
 		t.Errorf("process %+v, barrel_process %+v", v.Process, v.Barrel)
 	}

@@ -369,10 +369,6 @@ func TestWarningsOfMergesSpans(t *testing.T) {
 // format ("15", not the 14.999999999999998 the radians round-trip gave).
 func TestTiltNamesItsShortfall(t *testing.T) {
 	_, lo := designs(t)
-	js, errs, code := run(t, "tilt", lo, "--samples", "0", "-f", "json", "-q")
-	if code != 0 {
-		t.Fatalf("exit %d %s", code, errs)
-	}
 	var v struct {
 		Rows []struct {
 			Tilt float64 `json:"tilt_deg"`
@@ -385,9 +381,7 @@ func TestTiltNamesItsShortfall(t *testing.T) {
 			} `json:"longitudinal"`
 		} `json:"rows"`
 	}
-	if err := json.Unmarshal([]byte(js), &v); err != nil {
-		t.Fatal(err)
-	}
+	runJSON(t, &v, "tilt", lo, "--samples", "0")
 	if len(v.Rows) < 2 || v.Rows[1].Tilt != 15 {
 		t.Fatalf("tilt rows %+v: want 0, 15, ...", v.Rows)
 	}
@@ -422,17 +416,14 @@ func TestSensitivityOmitsWhatPlaysNoPart(t *testing.T) {
 		path string
 		want bool
 	}{{up, true}, {fan, false}} {
-		js, errs, code := run(t, "estimate", c.path, "-f", "json", "-q")
-		if code != 0 {
-			t.Fatalf("exit %d %s", code, errs)
-		}
 		var v struct {
 			Sens []struct {
 				Input string `json:"input"`
 			} `json:"sensitivity"`
 		}
-		if err := json.Unmarshal([]byte(js), &v); err != nil || len(v.Sens) == 0 {
-			t.Fatalf("%v %s", err, js)
+		runJSON(t, &v, "estimate", c.path)
+		if len(v.Sens) == 0 {
+			t.Fatalf("%s: no sensitivity", c.path)
 		}
 		has := false
 		for _, s := range v.Sens {

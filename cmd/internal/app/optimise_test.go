@@ -281,14 +281,8 @@ type optJSON struct {
 
 func optimiseJSON(t *testing.T, args ...string) optJSON {
 	t.Helper()
-	out, errs, code := run(t, append([]string{"optimise", "-f", "json", "-q"}, args...)...)
-	if code != 0 {
-		t.Fatalf("%v: exit %d: %s", args, code, errs)
-	}
 	var v optJSON
-	if err := json.Unmarshal([]byte(out), &v); err != nil {
-		t.Fatal(err)
-	}
+	runJSON(t, &v, append([]string{"optimise"}, args...)...)
 	return v
 }
 
@@ -535,10 +529,6 @@ func TestOptimisePrintsDesignsAsMade(t *testing.T) {
 func TestOptimiseStatesItsBand(t *testing.T) {
 	up, _ := designs(t)
 	out := filepath.Join(t.TempDir(), "opt.toml")
-	js, errs, code := run(t, "optimise", up, "--goal", "light", "--limit", "200 C", "-f", "json", "-q", "--write", out)
-	if code != 0 {
-		t.Fatalf("exit %d %s", code, errs)
-	}
 	var v struct {
 		Band struct {
 			Head struct {
@@ -548,9 +538,7 @@ func TestOptimiseStatesItsBand(t *testing.T) {
 			Over float64 `json:"head_over_limit_probability"`
 		} `json:"band"`
 	}
-	if err := json.Unmarshal([]byte(js), &v); err != nil {
-		t.Fatal(err)
-	}
+	runJSON(t, &v, "optimise", up, "--goal", "light", "--limit", "200 C", "--write", out)
 	lim := 473.15
 	if !(v.Band.Head.P5 < lim && lim < v.Band.Head.P95) {
 		t.Errorf("the optimum's band %.1f to %.1f K does not straddle the %.2f K limit", v.Band.Head.P5, v.Band.Head.P95, lim)
@@ -563,18 +551,12 @@ func TestOptimiseStatesItsBand(t *testing.T) {
 	if err := os.WriteFile(at, design.SetKeys(src, []design.KV{{Key: "limits.head", Value: `"200 C"`}}), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	ejs, errs, code := run(t, "estimate", at, "-f", "json", "-q")
-	if code != 0 {
-		t.Fatalf("estimate of the optimum: exit %d %s", code, errs)
-	}
 	var ev struct {
 		Band struct {
 			Over float64 `json:"head_over_limit_probability"`
 		} `json:"band"`
 	}
-	if err := json.Unmarshal([]byte(ejs), &ev); err != nil {
-		t.Fatal(err)
-	}
+	runJSON(t, &ev, "estimate", at)
 	if math.Abs(ev.Band.Over-v.Band.Over) > 0.005 {
 		t.Errorf("optimise says %.1f %% over 200 C, estimate of its optimum with that limit %.1f %%", 100*v.Band.Over, 100*ev.Band.Over)
 	}

@@ -1,7 +1,6 @@
 package app
 
 import (
-	"encoding/json"
 	"fmt"
 	"math"
 	"os"
@@ -37,10 +36,6 @@ func TestReadmeFanFigures(t *testing.T) {
 		Warming float64 `json:"inlet_warming_K"`
 	}
 	at := func(speed string) (fanJSON, float64) {
-		js, errs, code := run(t, "estimate", p, "--speed", speed, "-f", "json", "-q")
-		if code != 0 {
-			t.Fatalf("exit %d: %s", code, errs)
-		}
 		var v struct {
 			Result struct {
 				Head struct {
@@ -51,9 +46,7 @@ func TestReadmeFanFigures(t *testing.T) {
 				} `json:"supply"`
 			} `json:"result"`
 		}
-		if err := json.Unmarshal([]byte(js), &v); err != nil {
-			t.Fatal(err)
-		}
+		runJSON(t, &v, "estimate", p, "--speed", speed)
 		return v.Result.Supply.Fan, v.Result.Head.Wall - 273.15
 	}
 	f, head := at("60 km/h")
@@ -98,10 +91,6 @@ func TestReadmeExample250(t *testing.T) {
 		if err := os.WriteFile(p, src, 0o644); err != nil {
 			t.Fatal(err)
 		}
-		js, errs, code := run(t, "estimate", p, "-f", "json", "-q")
-		if code != 0 {
-			t.Fatalf("exit %d: %s", code, errs)
-		}
 		var v struct {
 			Band struct {
 				Head struct {
@@ -114,9 +103,7 @@ func TestReadmeExample250(t *testing.T) {
 				Methods []methodJSON `json:"methods"`
 			} `json:"result"`
 		}
-		if err := json.Unmarshal([]byte(js), &v); err != nil {
-			t.Fatal(err)
-		}
+		runJSON(t, &v, "estimate", p)
 		m := map[string][2]float64{}
 		for _, r := range v.Result.Methods {
 			if r.Head != nil && r.Barrel != nil {
@@ -186,19 +173,13 @@ func TestReadmeProseFigures(t *testing.T) {
 	}
 	readme := strings.Join(strings.Fields(string(b)), " ")
 	up, lo := designs(t)
-	js, errs, code := run(t, "ride", up, "--profile", "mountain-pass", "-f", "json", "-q")
-	if code != 0 {
-		t.Fatalf("ride: exit %d %s", code, errs)
-	}
 	var ride struct {
 		Samples []struct {
 			Grade float64 `json:"grade_percent"`
 			Head  float64 `json:"head_wall_temperature_K"`
 		} `json:"samples"`
 	}
-	if err := json.Unmarshal([]byte(js), &ride); err != nil {
-		t.Fatal(err)
-	}
+	runJSON(t, &ride, "ride", up, "--profile", "mountain-pass")
 	grade := 0.0
 	for _, s := range ride.Samples {
 		if s.Grade > 0 {
@@ -207,10 +188,6 @@ func TestReadmeProseFigures(t *testing.T) {
 	}
 	end := ride.Samples[len(ride.Samples)-1].Head - 273.15
 	crossing := func(path string) float64 {
-		js, errs, code := run(t, "speeds", path, "--from", "80 km/h", "--to", "140 km/h", "--step", "1 km/h", "--samples", "0", "-f", "json", "-q")
-		if code != 0 {
-			t.Fatalf("speeds: exit %d %s", code, errs)
-		}
 		var v struct {
 			Rows []struct {
 				Speed float64 `json:"speed_m_s"`
@@ -219,9 +196,7 @@ func TestReadmeProseFigures(t *testing.T) {
 				} `json:"head"`
 			} `json:"rows"`
 		}
-		if err := json.Unmarshal([]byte(js), &v); err != nil {
-			t.Fatal(err)
-		}
+		runJSON(t, &v, "speeds", path, "--from", "80 km/h", "--to", "140 km/h", "--step", "1 km/h", "--samples", "0")
 		lim := 220 + 273.15
 		for i := 1; i < len(v.Rows); i++ {
 			a, b := v.Rows[i-1], v.Rows[i]
@@ -232,18 +207,12 @@ func TestReadmeProseFigures(t *testing.T) {
 		t.Fatalf("%s: the head does not pass 220 C between 80 and 140 km/h", path)
 		return 0
 	}
-	js, errs, code = run(t, "march", lo, "-f", "json", "-q")
-	if code != 0 {
-		t.Fatalf("march: exit %d %s", code, errs)
-	}
 	var m struct {
 		Head struct {
 			Out float64 `json:"air_outlet_K"`
 		} `json:"head"`
 	}
-	if err := json.Unmarshal([]byte(js), &m); err != nil {
-		t.Fatal(err)
-	}
+	runJSON(t, &m, "march", lo)
 	src, err := os.ReadFile(up)
 	if err != nil {
 		t.Fatal(err)
@@ -257,18 +226,15 @@ func TestReadmeProseFigures(t *testing.T) {
 		w, _, _ := headAt(t, p, "90 km/h", "35 C", 0)
 		heads = append(heads, w-273.15, r)
 	}
-	js, errs, code = run(t, "estimate", up, "-f", "json", "-q")
-	if code != 0 {
-		t.Fatalf("estimate: exit %d %s", code, errs)
-	}
 	var est struct {
 		Sens []struct {
 			Input string     `json:"input"`
 			Head  [2]float64 `json:"head_K"`
 		} `json:"sensitivity"`
 	}
-	if err := json.Unmarshal([]byte(js), &est); err != nil || len(est.Sens) < 5 {
-		t.Fatalf("sensitivity: %v %s", err, js)
+	runJSON(t, &est, "estimate", up)
+	if len(est.Sens) < 5 {
+		t.Fatalf("sensitivity: %+v", est.Sens)
 	}
 	sw := func(i int) float64 { return math.Abs(est.Sens[i].Head[1] - est.Sens[i].Head[0]) }
 	if math.Round(sw(2)) != math.Round(sw(3)) {
