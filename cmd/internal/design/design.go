@@ -202,7 +202,7 @@ type BandSpec struct {
 // Cylinder is the design as the estimator takes it: the case, the load,
 // the limits and any fixed walls.
 func (d *Design) Cylinder() cylinder.Design {
-	cd := cylinder.Design{Case: d.Case, Load: d.Load, Limits: cylinder.Limits{Head: d.HeadLimit, Barrel: d.BarrelLimit}, Process: d.SetCasting[0], BarrelProcess: d.SetCasting[1]}
+	cd := cylinder.Design{Case: d.Case, Load: d.Load, Limits: cylinder.Limits{Head: d.HeadLimit, Barrel: d.BarrelLimit}, Process: d.CastingOf(0), BarrelProcess: d.CastingOf(1)}
 	if d.WallFixed {
 		cd.Walls = &[2]float64{d.HeadWall, d.BarrelWall}
 	}
